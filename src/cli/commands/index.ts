@@ -1,0 +1,9 @@
+import type { Command } from 'commander';
+import { registerBuild } from './build.js';
+import { registerSchema } from './schema.js';
+
+/** Every command registers itself here; one line per command file. */
+export function registerCommands(program: Command): void {
+  registerBuild(program);
+  registerSchema(program);
+}

@@ -1,0 +1,82 @@
+import type { Loop, Vec2 } from './types.js';
+
+/** ISO metric screw sizes framewright knows hole series for. */
+export type ScrewSize = 'M2' | 'M2.5' | 'M3' | 'M4' | 'M5';
+
+/** Why a hole or cut-out is there: checks and drawings treat them differently. */
+export type FeaturePurpose =
+  | 'motor-bolt'
+  | 'motor-bore'
+  | 'stack-bolt'
+  | 'standoff'
+  | 'arm-root-bolt'
+  | 'accessory'
+  | 'camera-pivot'
+  | 'camera-tilt-slot'
+  | 'camera-mount'
+  | 'strap-slot'
+  | 'lead-opening'
+  | 'lightening'
+  | 'truss-window'
+  | 'imported';
+
+/**
+ * An inner contour of a part. `loop` is clockwise. Round holes also carry their centre and
+ * diameter so checks and hole tables need not rediscover them.
+ */
+export type Feature = Readonly<{
+  loop: Loop;
+  kind: 'hole' | 'slot' | 'cutout';
+  purpose: FeaturePurpose;
+  screw?: ScrewSize;
+  centerMm?: Vec2;
+  diameterMm?: number;
+  /** Countersunk from the given face for a flush head. */
+  countersink?: Readonly<{ headDiameterMm: number; face: 'top' | 'bottom' }>;
+}>;
+
+/** A load-carrying strut: its centreline in part coordinates and its width. */
+export type Member = Readonly<{ name: string; startMm: Vec2; endMm: Vec2; widthMm: number }>;
+
+/** Woven 0/90 laminate, in-plane engineering constants. */
+export type Material = Readonly<{
+  name: string;
+  e1Gpa: number;
+  e2Gpa: number;
+  g12Gpa: number;
+  nu12: number;
+  densityGPerCm3: number;
+}>;
+
+/** Where one copy of a part sits in the assembled frame. Frame axes: x forward, y left, z up. */
+export type Placement = Readonly<{
+  /** Part coordinates → frame: mirror y, rotate about z, translate (plan view). */
+  rotateRad: number;
+  translateMm: Vec2;
+  mirrorY: boolean;
+  /** Height of the part's lower face above the bottom plate's lower face. mm. */
+  zMm: number;
+  /** Vertical plates (camera sides) stand in the x–z plane at y = translate[1]; their part y is frame z. */
+  vertical?: boolean;
+}>;
+
+export type PartRole = 'bottom' | 'top' | 'arm' | 'brace' | 'camera-side' | 'imported';
+
+/**
+ * One plate as cut: outline counter-clockwise, features clockwise, all in part coordinates (mm).
+ * weaveRad is the angle of the sheet's 0° fibre direction in part coordinates (0: along part x).
+ */
+export type Part = Readonly<{
+  name: string;
+  role: PartRole;
+  quantity: number;
+  thicknessMm: number;
+  material: Material;
+  weaveRad: number;
+  outline: Loop;
+  features: readonly Feature[];
+  members: readonly Member[];
+  placements: readonly Placement[];
+  /** Design-file path that sizes this part, for error messages and findings. */
+  sourcePath: string;
+}>;

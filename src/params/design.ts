@@ -1,0 +1,114 @@
+import YAML from 'yaml';
+import type { z } from 'zod';
+import type { Material, ScrewSize } from '../geometry/part.js';
+import { DesignError, type DesignIssue } from './errors.js';
+import { DesignSchema, type DesignParsed } from './schema.js';
+import { parseLengthMm } from './units.js';
+
+/** Camera widths by size class, mm (common practice, no source). */
+export const CAMERA_WIDTH_MM = { nano: 14, micro: 19, mini: 21.5 } as const;
+
+/** A validated design with every unit resolved to mm and every reference resolved. */
+export type Design = Readonly<
+  Omit<DesignParsed, 'props' | 'camera'> & {
+    props: DesignParsed['props'] & { diameterMm: number };
+    camera?: NonNullable<DesignParsed['camera']> & { cameraWidthMm: number };
+    materialFor: (name: string | undefined) => Material;
+    stackBoltSizes: readonly (readonly ScrewSize[])[];
+  }
+>;
+
+/** Parse design text (YAML or JSON, by content) and validate it. Throws DesignError. */
+export function parseDesignText(text: string, sourceName = 'design'): Design {
+  let raw: unknown;
+  try {
+    raw = YAML.parse(text, { prettyErrors: true });
+  } catch (e) {
+    throw new DesignError([{ path: '', value: sourceName, message: `is not valid YAML or JSON: ${(e as Error).message.split('\n')[0]}` }]);
+  }
+  return validateDesign(raw);
+}
+
+/** Validate an already-parsed design object. Throws DesignError with every problem found. */
+export function validateDesign(raw: unknown): Design {
+  if (raw === null || typeof raw !== 'object' || Array.isArray(raw)) {
+    throw new DesignError([{ path: '', value: raw, message: 'must be a mapping of design sections (name, layout, props, motor, arms, body...)' }]);
+  }
+  const parsed = DesignSchema.safeParse(raw);
+  if (!parsed.success) throw new DesignError(parsed.error.issues.map((i) => toIssue(i, raw)));
+  return resolve(parsed.data);
+}
+
+function toIssue(i: z.core.$ZodIssue, raw: unknown): DesignIssue {
+  const path = i.path.map(String).join('.');
+  const value = valueAt(raw, i.path as PropertyKey[]);
+  let message = i.message;
+  if (i.code === 'unrecognized_keys') {
+    return { path, value: i.keys, message: `unknown key${i.keys.length > 1 ? 's' : ''}; see \`framewright schema\` for the allowed ones` };
+  }
+  if (i.code === 'invalid_union' && value === undefined) message = 'is required';
+  return { path, value, message };
+}
+
+function valueAt(raw: unknown, path: readonly PropertyKey[]): unknown {
+  let v: unknown = raw;
+  for (const k of path) {
+    if (v === null || typeof v !== 'object') return undefined;
+    v = (v as Record<PropertyKey, unknown>)[k];
+  }
+  return v;
+}
+
+function resolve(d: DesignParsed): Design {
+  const issues: DesignIssue[] = [];
+  const diameterMm = parseLengthMm(d.props.diameter);
+  if (diameterMm === null || diameterMm < 25 || diameterMm > 600) {
+    issues.push({ path: 'props.diameter', value: d.props.diameter, message: 'must be a length from 25 to 600 mm (1 to 23.6 in)' });
+  }
+  const materialNames = Object.keys(d.materials);
+  if (materialNames.length === 0) issues.push({ path: 'materials', value: d.materials, message: 'must name at least one material' });
+  const sections: Array<[string, { material?: string } | undefined]> = [
+    ['arms', d.arms],
+    ['body', d.body],
+    ['topPlate', d.topPlate],
+    ['braces', d.braces],
+    ['camera', d.camera],
+  ];
+  for (const [path, sec] of sections) {
+    if (sec?.material !== undefined && !(sec.material in d.materials)) {
+      issues.push({ path: `${path}.material`, value: sec.material, message: `is not in materials (${materialNames.join(', ')})` });
+    }
+  }
+  if (d.arms.style === 'tapered' && d.arms.tipWidthMm === undefined) {
+    issues.push({ path: 'arms.tipWidthMm', value: undefined, message: 'is required for tapered arms (4 to 60 mm)' });
+  }
+  if (d.arms.style === 'truss' && d.arms.truss === undefined) {
+    issues.push({ path: 'arms.truss', value: undefined, message: 'is required for truss arms (mainWidthMm, secondaryWidthMm, meetFraction, spreadMm)' });
+  }
+  if (d.motor.slotted && d.motor.boltCircleMm.length !== 2) {
+    issues.push({ path: 'motor.slotted', value: true, message: 'needs two bolt circles in motor.boltCircleMm (e.g. [16, 19])' });
+  }
+  if (d.braces && d.arms.construction === 'unibody') {
+    issues.push({ path: 'braces', value: 'present', message: 'apply to separate arms only; remove it for a unibody frame' });
+  }
+  if (d.camera && d.camera.uptiltMinDeg >= d.camera.uptiltMaxDeg) {
+    issues.push({ path: 'camera.uptiltMaxDeg', value: d.camera.uptiltMaxDeg, message: `must be above camera.uptiltMinDeg (${d.camera.uptiltMinDeg})` });
+  }
+  const stackBoltSizes = d.stacks.map((s, i) => {
+    const sizes = Array.isArray(s.boltSize) ? s.boltSize : s.patternsMm.map(() => s.boltSize as ScrewSize);
+    if (sizes.length !== s.patternsMm.length) {
+      issues.push({ path: `stacks.${i}.boltSize`, value: s.boltSize, message: `must give one size per pattern (${s.patternsMm.length})` });
+    }
+    return sizes;
+  });
+  if (issues.length) throw new DesignError(issues);
+
+  const materialFor = (name: string | undefined): Material => {
+    const key = name ?? materialNames[0];
+    return { name: key, ...d.materials[key] };
+  };
+  const camera = d.camera
+    ? { ...d.camera, cameraWidthMm: typeof d.camera.widthMm === 'number' ? d.camera.widthMm : CAMERA_WIDTH_MM[d.camera.widthMm] }
+    : undefined;
+  return { ...d, props: { ...d.props, diameterMm: diameterMm as number }, camera, materialFor, stackBoltSizes };
+}

@@ -1,0 +1,18 @@
+/** One problem with a design file: where, what was given, and what is allowed. */
+export type DesignIssue = Readonly<{ path: string; value: unknown; message: string }>;
+
+/** Bad input. The CLI prints every issue and exits with code 2; nothing is written. */
+export class DesignError extends Error {
+  constructor(readonly issues: readonly DesignIssue[]) {
+    super(issues.map(formatIssue).join('\n'));
+    this.name = 'DesignError';
+  }
+}
+
+export function formatIssue(i: DesignIssue): string {
+  const shown = i.value === undefined ? '(missing)' : JSON.stringify(i.value);
+  return `${i.path || '(design)'}: ${shown} ${i.message}`;
+}
+
+export const designError = (path: string, value: unknown, message: string): DesignError =>
+  new DesignError([{ path, value, message }]);

@@ -1,0 +1,263 @@
+import { z } from 'zod';
+import { SCREW_SIZES } from './screws.js';
+import { EIGHTH_INCH_MM } from './units.js';
+
+/**
+ * The design file. Every number carries its unit in its name (Mm, Deg, Gpa...) and its allowed range
+ * in the schema, so the JSON Schema printed by `framewright schema` documents itself and every
+ * error can name the range.
+ */
+
+const num = (min: number, max: number, unit: string, what: string) =>
+  z
+    .number({ error: (iss) => (iss.input === undefined ? `is required (${what}, ${min} to ${max} ${unit})` : `must be a number (${unit}), ${min} to ${max}`) })
+    .min(min, { error: `is below the allowed range ${min} to ${max} ${unit}` })
+    .max(max, { error: `is above the allowed range ${min} to ${max} ${unit}` })
+    .describe(`${what} [${unit}, ${min} to ${max}]`);
+
+const int = (min: number, max: number, what: string) =>
+  z
+    .number({ error: `must be a whole number from ${min} to ${max}` })
+    .int({ error: `must be a whole number from ${min} to ${max}` })
+    .min(min, { error: `is below the allowed range ${min} to ${max}` })
+    .max(max, { error: `is above the allowed range ${min} to ${max}` })
+    .describe(`${what} [${min} to ${max}]`);
+
+const screw = z.enum(SCREW_SIZES, { error: `must be one of ${SCREW_SIZES.join(', ')}` }).describe('ISO metric screw size');
+
+const point = z.tuple([num(-500, 500, 'mm', 'x'), num(-500, 500, 'mm', 'y')]).describe('[x, y] in mm: x forward, y left, origin at the frame centre');
+
+const partCommon = {
+  material: z.string().min(1).optional().describe('name of an entry in `materials` (default: the first one)'),
+  weaveDeg: num(-90, 90, 'deg', "angle of the sheet's 0° fibre direction in the part's own frame").default(0),
+};
+
+export const MaterialSchema = z
+  .object({
+    e1Gpa: num(1, 400, 'GPa', 'in-plane modulus along the warp'),
+    e2Gpa: num(1, 400, 'GPa', 'in-plane modulus along the weft'),
+    g12Gpa: num(0.1, 200, 'GPa', 'in-plane shear modulus'),
+    nu12: num(0, 0.49, '', 'major Poisson ratio'),
+    densityGPerCm3: num(0.5, 3, 'g/cm³', 'density'),
+  })
+  .strict();
+
+const squareFrame = z
+  .object({
+    kind: z.literal('x').describe('motors on a rectangle, each arm running straight from the centre to its motor'),
+    wheelbaseMm: num(60, 1000, 'mm', 'diagonal motor-to-motor distance'),
+    armAngleDeg: num(20, 70, 'deg', 'angle of the front arms from the forward axis: 45 true X, below 45 stretched, above squashed').default(45),
+  })
+  .strict();
+
+const hFrame = z
+  .object({
+    kind: z.literal('h').describe('motors on a rectangle, arms running fore and aft from the body sides'),
+    wheelbaseMm: num(60, 1000, 'mm', 'diagonal motor-to-motor distance'),
+    armAngleDeg: num(20, 70, 'deg', 'angle of the motor diagonal from the forward axis').default(45),
+  })
+  .strict();
+
+const armPlace = z
+  .object({
+    reachMm: num(30, 500, 'mm', 'frame centre to motor centre'),
+    angleDeg: num(10, 80, 'deg', 'angle of the arm from the forward (front arms) or rearward (rear arms) axis'),
+  })
+  .strict();
+
+const asymmetricFrame = z
+  .object({
+    kind: z.literal('asymmetric').describe('front and rear arms of different reach and angle'),
+    front: armPlace,
+    rear: armPlace,
+  })
+  .strict();
+
+export const LayoutSchema = z.discriminatedUnion('kind', [squareFrame, hFrame, asymmetricFrame], {
+  error: 'layout.kind must be one of x, h, asymmetric',
+});
+
+const propDiameter = z
+  .union([z.number().min(25).max(600), z.string().regex(/^\s*[0-9]*\.?[0-9]+\s*(in|inch|inches|"|mm|cm)?\s*$/i)], {
+    error: 'must be a length: mm as a number (25 to 600), or a string with a unit such as "5.1in" or "130mm"',
+  })
+  .describe('prop diameter: mm as a number, or a string with a unit ("5.1in", "130mm")');
+
+export const DesignSchema = z
+  .object({
+    $schema: z.string().optional(),
+    name: z.string({ error: 'is required (the frame name)' }).min(1).max(80).describe('frame name, used in file names and drawings'),
+    revision: z.string().max(20).default('A').describe('revision letter or number for drawings'),
+    layout: LayoutSchema,
+    props: z
+      .object({
+        diameter: propDiameter,
+        minTipGapMm: num(0, 100, 'mm', 'smallest allowed gap between adjacent prop tips').default(6),
+        heightAboveArmMm: num(0, 80, 'mm', 'prop plane above the top face of the arm').default(14),
+      })
+      .strict(),
+    motor: z
+      .object({
+        boltCircleMm: z
+          .array(num(5, 60, 'mm', 'bolt circle diameter'))
+          .min(1)
+          .max(2, { error: 'takes one circle, or two (e.g. [16, 19]) for an n×m pattern' })
+          .describe('one circle ([16]) or the two diameters of an n×m pattern ([16, 19])'),
+        boltSize: screw.default('M3'),
+        boltCount: z.union([z.literal(3), z.literal(4)], { error: 'must be 3 or 4' }).default(4),
+        slotted: z.boolean().default(false).describe('slots spanning both circles instead of round holes (needs two circles)'),
+        boreMm: num(0, 30, 'mm', 'centre bore for the shaft clip; 0 for none').default(7),
+        bellDiameterMm: num(8, 80, 'mm', 'motor bell diameter, for the tip pad and guard').default(28),
+      })
+      .strict(),
+    arms: z
+      .object({
+        construction: z.enum(['separate', 'unibody']).default('separate').describe('separate arm plates, or one piece with the bottom plate'),
+        style: z.enum(['straight', 'tapered', 'truss']).default('straight'),
+        widthMm: num(4, 60, 'mm', 'arm width (at the root for tapered arms)'),
+        tipWidthMm: num(4, 60, 'mm', 'arm width at the motor for tapered arms').optional(),
+        truss: z
+          .object({
+            mainWidthMm: num(3, 40, 'mm', 'main strut width'),
+            secondaryWidthMm: num(3, 40, 'mm', 'secondary strut width'),
+            meetFraction: num(0.2, 0.9, '', 'where the secondary strut meets the main strut, as a fraction of the arm length'),
+            spreadMm: num(4, 80, 'mm', 'width of the arm at the root, spanning both struts'),
+          })
+          .strict()
+          .optional(),
+        thicknessMm: num(0.5, 8, 'mm', 'arm plate thickness'),
+        ...partCommon,
+        root: z
+          .object({
+            boltCount: int(1, 4, 'root bolts per arm, along the arm'),
+            boltSpacingMm: num(4, 60, 'mm', 'distance between root bolts'),
+            boltSize: screw.default('M3'),
+            reachMm: num(5, 300, 'mm', 'frame centre to the innermost root bolt'),
+            edgeMarginMm: num(1, 20, 'mm', 'material from a root bolt centre to the arm end').default(5),
+          })
+          .strict(),
+        tipPadMarginMm: num(1, 20, 'mm', 'material outside the motor bolt holes').default(3),
+        tipGuardMm: num(0, 15, 'mm', 'extra plate beyond the motor bell radius to guard it; 0 for none').default(0),
+        rootFilletMm: num(0, 20, 'mm', 'fillet radius where arms meet the body or each other').default(4),
+      })
+      .strict(),
+    body: z
+      .object({
+        lengthMm: num(20, 400, 'mm', 'bottom plate length (x)'),
+        widthMm: num(15, 300, 'mm', 'bottom plate width (y)'),
+        cornerRadiusMm: num(0, 50, 'mm', 'outline corner radius').default(5),
+        thicknessMm: num(0.5, 8, 'mm', 'bottom plate thickness').default(2.5),
+        ...partCommon,
+        standoffs: z
+          .object({
+            boltSize: screw.default('M3'),
+            heightMm: num(5, 80, 'mm', 'standoff length (plate gap)').default(25),
+            positionsMm: z.array(point).min(3).max(16).describe('standoff centres'),
+          })
+          .strict(),
+      })
+      .strict(),
+    stacks: z
+      .array(
+        z
+          .object({
+            place: z.union([z.enum(['front', 'middle', 'rear']), num(-300, 300, 'mm', 'x offset of the stack centre')]).default('middle'),
+            yMm: num(-150, 150, 'mm', 'sideways offset').default(0),
+            patternsMm: z.array(num(10, 60, 'mm', 'bolt square side')).min(1).max(4).describe('concentric square patterns, e.g. [30.5, 20]'),
+            boltSize: z.union([screw, z.array(screw)]).default('M3').describe('one size for all patterns, or one per pattern'),
+          })
+          .strict(),
+      )
+      .max(6)
+      .default([]),
+    topPlate: z
+      .object({
+        thicknessMm: num(0.5, 8, 'mm', 'top plate thickness').default(2),
+        lengthMm: num(20, 400, 'mm', 'top plate length; default: body length').optional(),
+        widthMm: num(15, 300, 'mm', 'top plate width; default: body width').optional(),
+        cornerRadiusMm: num(0, 50, 'mm', 'outline corner radius').default(5),
+        ...partCommon,
+        strapSlots: z
+          .object({
+            strapWidthMm: num(5, 40, 'mm', 'battery strap width (slot is 1 mm longer)').default(20),
+            slotWidthMm: num(1.5, 8, 'mm', 'slot width across the strap').default(3.5),
+            xPositionsMm: z.array(num(-200, 200, 'mm', 'slot centre x')).max(6).default([]),
+          })
+          .strict()
+          .default({ strapWidthMm: 20, slotWidthMm: 3.5, xPositionsMm: [] }),
+        leadOpening: z
+          .object({
+            xMm: num(-200, 200, 'mm', 'centre x'),
+            lengthMm: num(3, 60, 'mm', 'size along x'),
+            widthMm: num(3, 60, 'mm', 'size along y'),
+          })
+          .strict()
+          .optional(),
+        accessoryHoles: z
+          .array(z.object({ atMm: point, boltSize: screw.default('M3') }).strict())
+          .max(24)
+          .default([]),
+        lightening: z
+          .array(
+            z
+              .object({
+                atMm: point,
+                lengthMm: num(3, 200, 'mm', 'size along x'),
+                widthMm: num(3, 200, 'mm', 'size along y'),
+                cornerRadiusMm: num(0, 50, 'mm', 'corner radius').default(2),
+              })
+              .strict(),
+          )
+          .max(24)
+          .default([]),
+      })
+      .strict()
+      .default({ thicknessMm: 2, cornerRadiusMm: 5, weaveDeg: 0, strapSlots: { strapWidthMm: 20, slotWidthMm: 3.5, xPositionsMm: [] }, accessoryHoles: [], lightening: [] }),
+    braces: z
+      .object({
+        thicknessMm: num(0.5, 6, 'mm', 'brace plate thickness').default(1.5),
+        marginMm: num(2, 20, 'mm', 'material around the arm-root bolts').default(4),
+        ...partCommon,
+      })
+      .strict()
+      .optional()
+      .describe('clamp plates under the arm roots (separate arms only)'),
+    camera: z
+      .object({
+        widthMm: z
+          .union([z.enum(['nano', 'micro', 'mini']), num(10, 40, 'mm', 'camera body width')])
+          .default('micro')
+          .describe('nano 14, micro 19, mini 21.5 mm, or a width in mm'),
+        thicknessMm: num(0.5, 6, 'mm', 'side plate thickness').default(2),
+        ...partCommon,
+        forwardOffsetMm: num(-30, 80, 'mm', 'camera pivot ahead of the front standoffs'),
+        pivotHeightMm: num(3, 80, 'mm', 'camera pivot above the bottom plate'),
+        pivotBoltSize: screw.default('M2'),
+        tiltSlotRadiusMm: num(3, 30, 'mm', 'radius of the uptilt arc slot about the pivot').default(8),
+        uptiltMinDeg: num(-10, 80, 'deg', 'least uptilt the slot allows').default(0),
+        uptiltMaxDeg: num(0, 90, 'deg', 'most uptilt the slot allows').default(50),
+        uptiltDeg: num(-10, 90, 'deg', 'uptilt set for the checks').default(25),
+        horizontalFovDeg: num(30, 179, 'deg', 'horizontal field of view').default(120),
+        verticalFovDeg: num(20, 179, 'deg', 'vertical field of view').default(90),
+        plateMarginMm: num(2, 20, 'mm', 'material around pivot, slot and mount holes').default(4),
+        mountBoltSize: screw.default('M3'),
+      })
+      .strict()
+      .optional(),
+    materials: z
+      .record(z.string(), MaterialSchema)
+      .default({ 'woven-cf': { e1Gpa: 65, e2Gpa: 65, g12Gpa: 4, nu12: 0.07, densityGPerCm3: 1.57 } })
+      .describe('named woven 0/90 laminates; parts use the first unless they name one'),
+    cutting: z
+      .object({
+        toolDiameterMm: num(0.3, 12, 'mm', 'end mill diameter').default(EIGHTH_INCH_MM),
+        holeSeries: z.enum(['fine', 'medium', 'coarse']).default('medium').describe('ISO 273 clearance hole series'),
+      })
+      .strict()
+      .default({ toolDiameterMm: EIGHTH_INCH_MM, holeSeries: 'medium' }),
+    checks: z.record(z.string(), z.unknown()).optional().describe('design-rule limits (see the checks reference)'),
+  })
+  .strict();
+
+export type DesignInput = z.input<typeof DesignSchema>;
+export type DesignParsed = z.infer<typeof DesignSchema>;
