@@ -1,0 +1,6 @@
+export * from './format.js';
+export * from './svgPath.js';
+export * from './svgPart.js';
+export * from './svgOverview.js';
+export * from './dxfDocument.js';
+export * from './dxf.js';
