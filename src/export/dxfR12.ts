@@ -62,7 +62,8 @@ function entity(e: DxfEntity, tag: (code: number, value: string | number) => voi
       tag(0, 'POLYLINE'); tag(8, e.layer); tag(66, 1); tag(10, 0); tag(20, 0); tag(30, 0); tag(70, 1);
       for (const v of e.vertices) {
         tag(0, 'VERTEX'); tag(8, e.layer); tag(10, v.x); tag(20, v.y); tag(30, 0);
-        if (v.bulge !== 0) tag(42, v.bulge);
+        // Bulges keep 10 decimals: an error of 1e-6 in a bulge moves a small arc's radius by microns.
+        if (v.bulge !== 0) tag(42, fmt(v.bulge, 10));
       }
       tag(0, 'SEQEND'); tag(8, e.layer);
       return;

@@ -32,7 +32,7 @@ export function writeDxfR2000(doc: DxfDocument): string {
         d.drawArc(r6(e.cx), r6(e.cy), r6(e.r), r6(e.startDeg), r6(e.endDeg));
         break;
       case 'polyline': {
-        const pts = e.vertices.map((v) => (v.bulge !== 0 ? [r6(v.x), r6(v.y), r6(v.bulge)] : [r6(v.x), r6(v.y)]));
+        const pts = e.vertices.map((v) => (v.bulge !== 0 ? [r6(v.x), r6(v.y), Math.round(v.bulge * 1e10) / 1e10] : [r6(v.x), r6(v.y)]));
         (d as unknown as { drawPolyline(p: number[][], closed: boolean): void }).drawPolyline(pts, true);
         break;
       }

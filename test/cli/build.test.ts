@@ -1,0 +1,94 @@
+import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import YAML from 'yaml';
+import { describe, expect, it } from 'vitest';
+import { DEMO_FILES, DESIGNS_DIR, demoFrame, designWith } from '../helpers/demo.js';
+import { runCli, STACK_LINE } from '../helpers/cli.js';
+
+const tmp = () => mkdtempSync(join(tmpdir(), 'fw-build-'));
+
+describe('framewright build (the built CLI)', () => {
+  for (const file of DEMO_FILES) {
+    it(`${file}: writes every part as DXF and SVG plus the overview`, () => {
+      const out = join(tmp(), 'o');
+      const r = runCli(['build', join(DESIGNS_DIR, file), '--out', out]);
+      expect(r.stderr).toBe('');
+      expect(r.code).toBe(0);
+      const names = demoFrame(file).parts.map((p) => p.name);
+      const written = readdirSync(out).sort();
+      expect(written).toEqual([...names.flatMap((n) => [`${n}.dxf`, `${n}.svg`]), 'overview.svg'].sort());
+      expect(r.stdout).toMatch(/part\s+qty\s+thick mm\s+size mm\s+area mm²\s+mass g\s+cut mm/);
+      for (const n of names) expect(r.stdout).toContain(n);
+    });
+  }
+
+  it('is deterministic: the same design gives byte-identical files', () => {
+    const a = join(tmp(), 'a');
+    const b = join(tmp(), 'b');
+    expect(runCli(['build', 'designs/tessel-5.yaml', '--out', a]).code).toBe(0);
+    expect(runCli(['build', 'designs/tessel-5.yaml', '--out', b]).code).toBe(0);
+    for (const f of readdirSync(a)) expect(readFileSync(join(b, f)).equals(readFileSync(join(a, f))), f).toBe(true);
+  });
+
+  it('--json gives the summary with areas and masses', () => {
+    const r = runCli(['build', 'designs/mote-3.yaml', '--out', join(tmp(), 'j'), '--json']);
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.stdout) as { units: string; parts: Array<{ name: string; areaMm2: number; massG: number; thicknessMm: number }> };
+    expect(j.units).toBe('mm');
+    for (const p of j.parts) {
+      // mass = area × thickness × density (1.57 g/cm³ = 0.00157 g/mm³ in the demo material)
+      expect(p.massG).toBeCloseTo((p.areaMm2 * p.thicknessMm * 1.57) / 1000, 1);
+    }
+  });
+
+  const badCases: Array<[string, Record<string, unknown> | ((raw: Record<string, unknown>) => void), RegExp]> = [
+    ['a missing field', (raw) => delete (raw.layout as Record<string, unknown>).wheelbaseMm, /layout\.wheelbaseMm: \(missing\) is required/],
+    ['a negative width', { arms: { widthMm: -3 } }, /arms\.widthMm: -3 is below the allowed range 4 to 60 mm/],
+    ['a stack pattern that does not fit the body', { stacks: [{ place: 'front', patternsMm: [50], boltSize: 'M3' }] }, /stacks\.0\.patternsMm: "bottom-plate" puts a stack-bolt hole .* outside the bottom-plate outline/],
+    ['an unknown key', { arms: { wdith: 3 } }, /arms: \["wdith"\] unknown key/],
+  ];
+  for (const [what, patch, message] of badCases) {
+    it(`refuses ${what}: exit 2, the parameter named, no stack trace, nothing written`, () => {
+      const dir = tmp();
+      const raw = typeof patch === 'function' ? designWith('tessel-5.yaml', {}) : designWith('tessel-5.yaml', patch);
+      if (typeof patch === 'function') patch(raw);
+      const path = join(dir, 'bad.yaml');
+      writeFileSync(path, YAML.stringify(raw));
+      const out = join(dir, 'out');
+      const r = runCli(['build', path, '--out', out]);
+      expect(r.code).toBe(2);
+      expect(r.stderr).toMatch(message);
+      expect(r.stderr).toContain('nothing was written');
+      expect(r.stderr).not.toMatch(STACK_LINE);
+      expect(existsSync(out)).toBe(false);
+    });
+  }
+
+  it('a file that is not there, or not YAML: exit 2 with a message', () => {
+    const r = runCli(['build', 'designs/no-such-frame.yaml']);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/cannot read designs\/no-such-frame\.yaml: ENOENT/);
+    const dir = tmp();
+    writeFileSync(join(dir, 'x.yaml'), 'name: [unclosed');
+    const r2 = runCli(['build', join(dir, 'x.yaml')]);
+    expect(r2.code).toBe(2);
+    expect(r2.stderr).not.toMatch(STACK_LINE);
+  });
+
+  it('schema prints a JSON Schema that names every section', () => {
+    const r = runCli(['schema']);
+    expect(r.code).toBe(0);
+    const s = JSON.parse(r.stdout) as { properties: Record<string, unknown>; required: string[] };
+    for (const k of ['layout', 'props', 'motor', 'arms', 'body', 'stacks', 'topPlate', 'braces', 'camera', 'materials', 'cutting']) expect(s.properties).toHaveProperty(k);
+    expect(s.required).toEqual(expect.arrayContaining(['name', 'layout', 'props', 'motor', 'arms', 'body']));
+  });
+
+  it('--help works on every command', () => {
+    for (const c of [[], ['build'], ['schema']]) {
+      const r = runCli([...c, '--help']);
+      expect(r.code).toBe(0);
+      expect(r.stdout).toMatch(/Usage: framewright/);
+    }
+  });
+});
