@@ -4,3 +4,4 @@ export * from './errors.js';
 export * from './schema.js';
 export * from './design.js';
 export * from './jsonSchema.js';
+export * from './reference.js';

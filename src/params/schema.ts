@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { ChecksSchema } from './checksSchema.js';
 import { SCREW_SIZES } from './screws.js';
 import { EIGHTH_INCH_MM } from './units.js';
 
@@ -46,7 +47,7 @@ const squareFrame = z
   .object({
     kind: z.literal('x').describe('motors on a rectangle, each arm running straight from the centre to its motor'),
     wheelbaseMm: num(60, 1000, 'mm', 'diagonal motor-to-motor distance'),
-    armAngleDeg: num(20, 70, 'deg', 'angle of the front arms from the forward axis: 45 true X, below 45 stretched, above squashed').default(45),
+    armAngleDeg: num(20, 70, 'deg', "angle of the front motors' diagonal from the forward axis: 45 square, below 45 stretched (longer front to rear), above squashed").default(45),
   })
   .strict();
 
@@ -54,7 +55,7 @@ const hFrame = z
   .object({
     kind: z.literal('h').describe('motors on a rectangle, arms running fore and aft from the body sides'),
     wheelbaseMm: num(60, 1000, 'mm', 'diagonal motor-to-motor distance'),
-    armAngleDeg: num(20, 70, 'deg', 'angle of the motor diagonal from the forward axis').default(45),
+    armAngleDeg: num(20, 70, 'deg', "angle of the front motors' diagonal from the forward axis: 45 square, below 45 stretched (longer front to rear), above squashed").default(45),
   })
   .strict();
 
@@ -104,7 +105,7 @@ export const DesignSchema = z
           .max(2, { error: 'takes one circle, or two (e.g. [16, 19]) for an n×m pattern' })
           .describe('one circle ([16]) or the two diameters of an n×m pattern ([16, 19])'),
         boltSize: screw.default('M3'),
-        boltCount: z.union([z.literal(3), z.literal(4)], { error: 'must be 3 or 4' }).default(4),
+        boltCount: z.union([z.literal(3), z.literal(4)], { error: 'must be 3 or 4' }).default(4).describe('motor bolts used: 4, or 3 (the root-side hole left out)'),
         slotted: z.boolean().default(false).describe('slots spanning both circles instead of round holes (needs two circles)'),
         boreMm: num(0, 30, 'mm', 'centre bore for the shaft clip; 0 for none').default(7),
         bellDiameterMm: num(8, 80, 'mm', 'motor bell diameter, for the tip pad and guard').default(28),
@@ -113,7 +114,7 @@ export const DesignSchema = z
     arms: z
       .object({
         construction: z.enum(['separate', 'unibody']).default('separate').describe('separate arm plates, or one piece with the bottom plate'),
-        style: z.enum(['straight', 'tapered', 'truss']).default('straight'),
+        style: z.enum(['straight', 'tapered', 'truss']).default('straight').describe('straight bar, tapered bar (widthMm to tipWidthMm), or truss (main and secondary strut with windows)'),
         widthMm: num(4, 60, 'mm', 'arm width (at the root for tapered arms)'),
         tipWidthMm: num(4, 60, 'mm', 'arm width at the motor for tapered arms').optional(),
         truss: z
@@ -124,7 +125,8 @@ export const DesignSchema = z
             spreadMm: num(4, 80, 'mm', 'width of the arm at the root, spanning both struts'),
           })
           .strict()
-          .optional(),
+          .optional()
+          .describe('truss arms: a main strut to the motor and a secondary strut meeting it part-way'),
         thicknessMm: num(0.5, 8, 'mm', 'arm plate thickness'),
         ...partCommon,
         root: z
@@ -161,7 +163,7 @@ export const DesignSchema = z
       .array(
         z
           .object({
-            place: z.union([z.enum(['front', 'middle', 'rear']), num(-300, 300, 'mm', 'x offset of the stack centre')]).default('middle'),
+            place: z.union([z.enum(['front', 'middle', 'rear']), num(-300, 300, 'mm', 'x offset of the stack centre')]).default('middle').describe('front (x = +length/4), middle (x = 0), rear (x = −length/4), or an x offset in mm'),
             yMm: num(-150, 150, 'mm', 'sideways offset').default(0),
             patternsMm: z.array(num(10, 60, 'mm', 'bolt square side')).min(1).max(4).describe('concentric square patterns, e.g. [30.5, 20]'),
             boltSize: z.union([screw, z.array(screw)]).default('M3').describe('one size for all patterns, or one per pattern'),
@@ -169,7 +171,8 @@ export const DesignSchema = z
           .strict(),
       )
       .max(6)
-      .default([]),
+      .default([])
+      .describe('flight-controller / video-transmitter stack mounts on the bottom plate'),
     topPlate: z
       .object({
         thicknessMm: num(0.5, 8, 'mm', 'top plate thickness').default(2),
@@ -181,7 +184,7 @@ export const DesignSchema = z
           .object({
             strapWidthMm: num(5, 40, 'mm', 'battery strap width (slot is 1 mm longer)').default(20),
             slotWidthMm: num(1.5, 8, 'mm', 'slot width across the strap').default(3.5),
-            xPositionsMm: z.array(num(-200, 200, 'mm', 'slot centre x')).max(6).default([]),
+            xPositionsMm: z.array(num(-200, 200, 'mm', 'slot centre x')).max(6).default([]).describe('x of each strap slot centre; one slot per entry'),
           })
           .strict()
           .default({ strapWidthMm: 20, slotWidthMm: 3.5, xPositionsMm: [] }),
@@ -192,11 +195,13 @@ export const DesignSchema = z
             widthMm: num(3, 60, 'mm', 'size along y'),
           })
           .strict()
-          .optional(),
+          .optional()
+          .describe('rounded opening that keeps the battery lead short and clear of the props'),
         accessoryHoles: z
           .array(z.object({ atMm: point, boltSize: screw.default('M3') }).strict())
           .max(24)
-          .default([]),
+          .default([])
+          .describe('clearance holes for accessory mounts (e.g. an action-camera mount)'),
         lightening: z
           .array(
             z
@@ -209,7 +214,8 @@ export const DesignSchema = z
               .strict(),
           )
           .max(24)
-          .default([]),
+          .default([])
+          .describe('rounded-rectangle lightening cut-outs'),
       })
       .strict()
       .default({ thicknessMm: 2, cornerRadiusMm: 5, weaveDeg: 0, strapSlots: { strapWidthMm: 20, slotWidthMm: 3.5, xPositionsMm: [] }, accessoryHoles: [], lightening: [] }),
@@ -255,7 +261,7 @@ export const DesignSchema = z
       })
       .strict()
       .default({ toolDiameterMm: EIGHTH_INCH_MM, holeSeries: 'medium' }),
-    checks: z.record(z.string(), z.unknown()).optional().describe('design-rule limits (see the checks reference)'),
+    checks: ChecksSchema.prefault({}),
   })
   .strict();
 

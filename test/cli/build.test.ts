@@ -92,3 +92,13 @@ describe('framewright build (the built CLI)', () => {
     }
   });
 });
+
+describe('README design reference', () => {
+  it('is exactly the table generated from the schema', async () => {
+    const { readFileSync } = await import('node:fs');
+    const readme = readFileSync(join(DESIGNS_DIR, '..', 'README.md'), 'utf8');
+    const r = runCli(['schema', '--markdown']);
+    expect(r.code).toBe(0);
+    expect(readme).toContain(r.stdout.trimEnd());
+  });
+});
