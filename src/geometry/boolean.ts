@@ -8,7 +8,15 @@ import { flattenLoop, loopBBox, signedArea } from './loop.js';
 import { dist } from './vec.js';
 import { mergeCollinear } from './simplify.js';
 
-export class BooleanGuardError extends Error {}
+export class BooleanGuardError extends Error {
+  constructor(
+    message: string,
+    /** 'disjoint': the operands do not all touch; 'mismatch': the independent union disagrees; 'open': a dangling chain. */
+    readonly kind: 'disjoint' | 'mismatch' | 'open',
+  ) {
+    super(message);
+  }
+}
 
 /**
  * Union of simple counter-clockwise loops, exact on lines and arcs. Result: outer loops
@@ -104,7 +112,7 @@ export function chainPieces(pieces: readonly Segment[], gapMm = CHAIN_GAP_MM): L
       }
       if (best < 0) {
         if (loop.length === 1 && dist(end, origin) <= gapMm) break;
-        throw new BooleanGuardError(`union left an open chain near (${end[0].toFixed(3)}, ${end[1].toFixed(3)})`);
+        throw new BooleanGuardError(`union left an open chain near (${end[0].toFixed(3)}, ${end[1].toFixed(3)})`, 'open');
       }
       used[best] = true;
       loop.push(pieces[best]);
@@ -118,16 +126,18 @@ function toPaths(loops: readonly Loop[]): PathsD {
   return loops.map((l) => flattenLoop(l, 0.001).map(([x, y]) => ({ x, y })));
 }
 
-function guardAgainstPolygonUnion(operands: readonly Loop[], result: readonly Loop[], relTol: number): void {
+/** Exported for tests: throws unless `result` is the union of `operands` (see unionLoops). */
+export function guardAgainstPolygonUnion(operands: readonly Loop[], result: readonly Loop[], relTol: number): void {
   const reference = areaPathsD(unionD(toPaths(operands), [], FillRule.NonZero, 6));
   const ours = result.reduce((a, l) => a + signedArea(l), 0);
   if (!(Math.abs(ours - reference) <= relTol * Math.abs(reference))) {
     throw new BooleanGuardError(
       `outline union disagrees with the independent polygon union: ${ours.toFixed(3)} mm² against ${reference.toFixed(3)} mm²`,
+      'mismatch',
     );
   }
   if (result.filter((l) => signedArea(l) > 0).length !== 1) {
-    throw new BooleanGuardError(`outline union gave ${result.filter((l) => signedArea(l) > 0).length} separate pieces, expected one`);
+    throw new BooleanGuardError(`its pieces do not join: the union gave ${result.filter((l) => signedArea(l) > 0).length} separate outlines, expected one`, 'disjoint');
   }
 }
 

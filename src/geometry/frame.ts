@@ -42,16 +42,20 @@ export function buildFrame(d: Design): Frame {
   return { name: d.name, revision: d.revision, parts, sites, propDiameterMm: d.props.diameterMm, armTopZMm, design: d };
 }
 
-function guarded<T>(sourcePath: string, value: unknown, what: string, build: () => T): T {
+/** Where to point the designer when an outline cannot be built, by what went wrong. */
+type Blame = Readonly<{ fillet: [path: string, value: unknown]; disjoint: [path: string, value: unknown]; hint: string }>;
+
+function guarded<T>(blame: Blame, what: string, build: () => T): T {
   try {
     return build();
   } catch (e) {
     if (e instanceof FilletError) {
       const at = `(${e.at[0].toFixed(2)}, ${e.at[1].toFixed(2)}) mm`;
-      throw new DesignError([{ path: sourcePath, value, message: `cannot build ${what}: ${e.message} at ${at}` }]);
+      throw new DesignError([{ path: blame.fillet[0], value: blame.fillet[1], message: `is too large for ${what}: ${e.message} at ${at}; use a smaller radius or give the corner more room` }]);
     }
     if (e instanceof BooleanGuardError) {
-      throw new DesignError([{ path: sourcePath, value, message: `cannot build ${what}: ${e.message}` }]);
+      const [path, value] = e.kind === 'disjoint' ? blame.disjoint : blame.fillet;
+      throw new DesignError([{ path, value, message: `cannot build ${what}: ${e.message}${e.kind === 'disjoint' ? `; ${blame.hint}` : ''}` }]);
     }
     throw e;
   }
@@ -107,7 +111,12 @@ function bottomPlate(d: Design, sites: readonly MotorSite[]): Part {
       }
     }
   }
-  const { outline, windows } = guarded('arms.rootFilletMm', d.arms.rootFilletMm, 'the bottom plate outline', () => filletedUnion(pieces, d.arms.rootFilletMm));
+  const blame: Blame = {
+    fillet: ['arms.rootFilletMm', d.arms.rootFilletMm],
+    disjoint: ['body.widthMm', d.body.widthMm],
+    hint: unibody ? 'the arms do not meet the body plate' : 'the arm-root pads (arms.root.reachMm) do not reach the body plate; widen or lengthen the body or move the roots in',
+  };
+  const { outline, windows } = guarded(blame, 'the bottom plate outline', () => filletedUnion(pieces, d.arms.rootFilletMm));
   features.push(...windows.map((w) => ({ loop: w, kind: 'cutout' as const, purpose: 'truss-window' as const, sourcePath: 'arms.truss' })));
   return makePart({
     name: 'bottom-plate',
@@ -145,7 +154,8 @@ function arms(d: Design, sites: readonly MotorSite[]): Part[] {
       throw new DesignError([{ path: 'arms.root.reachMm', value: d.arms.root.reachMm, message: `leaves a ${length.toFixed(1)} mm arm, shorter than its root block (${rootBlockLength(d).toFixed(1)} mm)` }]);
     }
     const shape = armShape(d, length, true, path);
-    const { outline, windows } = guarded('arms.rootFilletMm', d.arms.rootFilletMm, 'the arm outline', () => filletedUnion(shape.pieces, d.arms.rootFilletMm));
+    const blame: Blame = { fillet: ['arms.rootFilletMm', d.arms.rootFilletMm], disjoint: ['arms.truss', 'present'], hint: 'the struts do not meet' };
+    const { outline, windows } = guarded(blame, 'the arm outline', () => filletedUnion(shape.pieces, d.arms.rootFilletMm));
     const placements: Placement[] = group.map((s) => ({
       rotateRad: s.armDirRad,
       translateMm: alongArm(s, start),
@@ -261,7 +271,8 @@ function cameraSide(d: Design): Part {
     roundedRect([(xMin + xMax) / 2, (zMin + zMax) / 2], xMax - xMin, zMax - zMin, Math.min(mountPad, (xMax - xMin) / 2 - 0.01)),
     circle(pivot, discR),
   ];
-  const { outline } = guarded('camera.forwardOffsetMm', c.forwardOffsetMm, 'the camera side plate', () => filletedUnion(pieces, Math.max(2, d.cutting.toolDiameterMm / 2 + 0.5)));
+  const blame: Blame = { fillet: ['camera.forwardOffsetMm', c.forwardOffsetMm], disjoint: ['camera.forwardOffsetMm', c.forwardOffsetMm], hint: 'the pivot is too far from the mount holes' };
+  const { outline } = guarded(blame, 'the camera side plate', () => filletedUnion(pieces, Math.max(2, d.cutting.toolDiameterMm / 2 + 0.5)));
   const features: SourcedFeature[] = [
     screwHole(d, pivot, c.pivotBoltSize, 'camera-pivot', 'camera.pivotHeightMm'),
     cutout(arcSlot(pivot, c.tiltSlotRadiusMm, lo, sweep, slotW), 'slot', 'camera-tilt-slot', 'camera.tiltSlotRadiusMm', c.pivotBoltSize),

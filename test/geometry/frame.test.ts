@@ -96,6 +96,34 @@ describe('layout: motors where the design says', () => {
   });
 });
 
+describe('other layouts and arm styles build', () => {
+  it('H layout: arms fore and aft from a wide body, motors where the layout puts them', () => {
+    const raw = designWith('tessel-5.yaml', {
+      layout: { kind: 'h', wheelbaseMm: 220, armAngleDeg: 30 },
+      body: { lengthMm: 70, widthMm: 126, standoffs: { positionsMm: [[28, 30], [28, -30], [-28, 30], [-28, -30]] } },
+      arms: { root: { reachMm: 12 } },
+      topPlate: { lengthMm: 70, widthMm: 80, strapSlots: { xPositionsMm: [-12, 12] }, leadOpening: { xMm: -28, lengthMm: 6, widthMm: 14 }, accessoryHoles: [], lightening: [] },
+      camera: { forwardOffsetMm: 6 },
+    });
+    const frame = buildFrame(validateDesign(raw));
+    for (const p of frame.parts) expect(loopProblem(p.outline)).toBeNull();
+    const arm = frame.parts.find((p) => p.role === 'arm')!;
+    expect(arm.quantity).toBe(4);
+    // 220 mm diagonal at 30°: motors at x = ±110 cos 30°, y = ±110 sin 30° (trigonometry)
+    for (const s of frame.sites) {
+      expect(Math.abs(s.motorMm[0])).toBeCloseTo(110 * Math.cos(Math.PI / 6), 9);
+      expect(Math.abs(s.motorMm[1])).toBeCloseTo(55, 9);
+    }
+  });
+  it('straight, tapered and guarded arms build; a pad that misses the body is refused naming body.widthMm', () => {
+    for (const arms of [{ style: 'straight' }, { style: 'tapered', tipWidthMm: 10 }, { tipGuardMm: 4 }]) {
+      const f = buildFrame(validateDesign(designWith('tessel-5.yaml', { arms })));
+      for (const p of f.parts) expect(loopProblem(p.outline)).toBeNull();
+    }
+    expect(() => buildFrame(validateDesign(designWith('farline-7.yaml', { layout: { kind: 'h', wheelbaseMm: 320, armAngleDeg: 40 } })))).toThrow(/body\.widthMm: 56 cannot build the bottom plate outline/);
+  });
+});
+
 describe('hardware does what the trade expects', () => {
   const series: HoleSeries[] = ['fine', 'medium', 'coarse'];
   // ISO 273 clearance holes, fine / medium / coarse series

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import {
   arcSlot,
+  BooleanGuardError,
+  guardAgainstPolygonUnion,
   circle,
   endOf,
   filletInsideCorners,
@@ -96,6 +98,15 @@ describe('union of line/arc loops', () => {
     expect(area).toBeGreaterThan(signedArea(rect));
     expect(area).toBeGreaterThan(signedArea(s));
     expect(area).toBeLessThan(signedArea(rect) + signedArea(s));
+  });
+
+  it('the guard refuses a union result that lost an operand or came apart', () => {
+    // The independent clipper2 polygon union is the referee: a result missing the rectangle
+    // (the silent failure seen in another library) must throw, not pass.
+    const rect = roundedRect([53.5 / 2, 52.5 / 2], 53.5, 52.5, 7.5);
+    const s = slot([0, 0], [-10.5, 60], 7);
+    expect(() => guardAgainstPolygonUnion([rect, s], [s], 1e-3)).toThrow(BooleanGuardError);
+    expect(() => unionLoops([circle([0, 0], 5), circle([20, 0], 5)])).toThrow(/separate outlines/);
   });
 
   it('an enclosed window comes back as a clockwise loop', () => {
