@@ -1,0 +1,146 @@
+import type { Design } from '../params/design.js';
+import { nominalDiameterMm } from '../params/screws.js';
+import { motorSites, wheelbaseOf } from '../geometry/layout.js';
+import { ceilToStep, scaledLayout } from './layoutScale.js';
+import { stackCentre } from '../geometry/frame.js';
+import type { Vec2 } from '../geometry/types.js';
+import { dist } from '../geometry/vec.js';
+import type { Change } from './changes.js';
+import { VariantRequestError } from './errors.js';
+
+/**
+ * Body length in a variant: kept, unless the props of a smaller variant would come closer to what
+ * stands between the plates (standoffs, the flight-controller stack) than the source allowed. Then
+ * the body is shortened just enough, and every fore-aft position on the body and top plate moves
+ * with it (sizes, patterns and widths stay; the camera follows the front standoffs). The body never
+ * grows: a bigger frame's hardware already fits.
+ */
+
+/** Outer radius of a standoff around its screw: M3 aluminium standoffs are about 5–6 mm across. common practice, from memory. */
+const standoffRadiusMm = (d: Design): number => nominalDiameterMm(d.body.standoffs.boltSize);
+/** Stack boards reach about 3 mm beyond their bolt centres. common practice, no source. */
+const STACK_BOARD_MARGIN_MM = 3;
+
+/** Things between the plates as circles in plan view (frame coordinates, mm). */
+function obstacles(d: Design): Array<{ at: Vec2; radiusMm: number; what: string }> {
+  const out: Array<{ at: Vec2; radiusMm: number; what: string }> = [];
+  d.body.standoffs.positionsMm.forEach((p, i) => out.push({ at: p, radiusMm: standoffRadiusMm(d), what: `standoff ${i}` }));
+  d.stacks.forEach((s, i) => {
+    const c = stackCentre(d, i);
+    const h = Math.max(...s.patternsMm) / 2;
+    for (const [sx, sy] of [[1, 1], [1, -1], [-1, 1], [-1, -1]]) out.push({ at: [c[0] + sx * h, c[1] + sy * h], radiusMm: STACK_BOARD_MARGIN_MM, what: `stack ${i}` });
+  });
+  return out;
+}
+
+/** Smallest plan-view clearance between any prop disc and anything standing between the plates. mm (negative: they overlap). */
+export function propBodyClearanceMm(d: Design, propDiameterMm: number): { clearanceMm: number; what: string } {
+  let best = { clearanceMm: Infinity, what: '' };
+  for (const s of motorSites(d)) {
+    for (const o of obstacles(d)) {
+      const c = dist(s.motorMm, o.at) - propDiameterMm / 2 - o.radiusMm;
+      if (c < best.clearanceMm) best = { clearanceMm: c, what: `${s.id} prop to ${o.what}` };
+    }
+  }
+  return best;
+}
+
+/** Fore-aft positions on the body and top plate, as design paths with their x values. */
+function xPositions(d: Design): Array<{ path: (string | number)[]; value: number }> {
+  const out: Array<{ path: (string | number)[]; value: number }> = [];
+  d.body.standoffs.positionsMm.forEach((p, i) => out.push({ path: ['body', 'standoffs', 'positionsMm', i, 0], value: p[0] }));
+  d.stacks.forEach((s, i) => {
+    if (typeof s.place === 'number') out.push({ path: ['stacks', i, 'place'], value: s.place });
+  });
+  const t = d.topPlate;
+  t.strapSlots.xPositionsMm.forEach((x, i) => out.push({ path: ['topPlate', 'strapSlots', 'xPositionsMm', i], value: x }));
+  if (t.leadOpening) out.push({ path: ['topPlate', 'leadOpening', 'xMm'], value: t.leadOpening.xMm });
+  t.accessoryHoles.forEach((h, i) => out.push({ path: ['topPlate', 'accessoryHoles', i, 'atMm', 0], value: h.atMm[0] }));
+  t.lightening.forEach((c, i) => out.push({ path: ['topPlate', 'lightening', i, 'atMm', 0], value: c.atMm[0] }));
+  return out;
+}
+
+/** The design with its body shortened by `factor` (positions scaled, sizes kept), in memory. */
+export function shortenedBody(d: Design, factor: number): Design {
+  const scaleX = (p: readonly [number, number]) => [p[0] * factor, p[1]] as [number, number];
+  return {
+    ...d,
+    body: { ...d.body, lengthMm: d.body.lengthMm * factor, standoffs: { ...d.body.standoffs, positionsMm: d.body.standoffs.positionsMm.map(scaleX) } },
+    stacks: d.stacks.map((s) => ({ ...s, place: typeof s.place === 'number' ? s.place * factor : s.place })),
+  };
+}
+
+export type BodyFit = Readonly<{
+  sourceClearanceMm: number;
+  requiredClearanceMm: number;
+  clearanceMm: number;
+  /** New body length over old (1: kept). */
+  factor: number;
+  /** Smallest wheelbase (1 mm steps) at which the body could stay as it is. mm. */
+  keepBodyWheelbaseMm: number;
+  changes: readonly Change[];
+  line: string;
+}>;
+
+/** Smallest wheelbase, rounded up to 1 mm, at which the props clear the body hardware by `required` with the body kept. */
+function keepBodyWheelbase(d: Design, required: number): number {
+  const w = wheelbaseOf(motorSites(d));
+  const clears = (f: number) => propBodyClearanceMm({ ...d, layout: scaledLayout(d, f) }, d.props.diameterMm).clearanceMm >= required;
+  let f = 1;
+  if (clears(1)) {
+    // Shrinking never helps past where the props first touch; walk down to the first failure.
+    while (f > 0.05 && clears(f - 0.001)) f -= 0.001;
+  } else {
+    while (f < 10 && !clears(f)) f += 0.001;
+  }
+  return ceilToStep(f * w, 1);
+}
+
+const round2 = (x: number) => Math.round(x * 100) / 100;
+
+/**
+ * Shorten the variant's body when its props would crowd the standoffs or stack more than the
+ * source's did (required clearance: the source's, capped at the design's tip gap). Throws
+ * VariantRequestError when no shortening achieves it (the body is too wide for the props).
+ */
+export function fitBody(source: Design, variant: Design): BodyFit {
+  const src = propBodyClearanceMm(source, source.props.diameterMm);
+  const required = Math.min(src.clearanceMm, variant.props.minTipGapMm);
+  const now = propBodyClearanceMm(variant, variant.props.diameterMm);
+  const base = { sourceClearanceMm: src.clearanceMm, requiredClearanceMm: required, keepBodyWheelbaseMm: keepBodyWheelbase(variant, required) };
+  if (now.clearanceMm >= required - 1e-9) {
+    return { ...base, clearanceMm: now.clearanceMm, factor: 1, changes: [], line: `Body: kept (props clear standoffs and stack by ${now.clearanceMm.toFixed(1)} mm; source ${src.clearanceMm.toFixed(1)} mm).` };
+  }
+  // Largest factor that clears: scan down (clearance need not be monotonic), then refine.
+  const ok = (f: number) => propBodyClearanceMm(shortenedBody(variant, f), variant.props.diameterMm).clearanceMm >= required;
+  let hi = 1;
+  let lo = 0;
+  for (let f = 1; f >= 0.2; f -= 0.0025) {
+    if (ok(f)) {
+      lo = f;
+      break;
+    }
+    hi = f;
+  }
+  if (lo === 0) {
+    throw new VariantRequestError(
+      '--props',
+      `${(variant.props.diameterMm / 25.4).toFixed(2)} in`,
+      `would strike the body hardware (${now.what}, ${now.clearanceMm.toFixed(1)} mm) even with the body shortened to a fifth; the body (width ${variant.body.widthMm} mm, its stacks and standoffs) is too big for these props: give --wheelbase ${base.keepBodyWheelbaseMm} or more to keep the body`,
+    );
+  }
+  for (let i = 0; i < 40; i++) {
+    const mid = (lo + hi) / 2;
+    if (ok(mid)) lo = mid;
+    else hi = mid;
+  }
+  // Length rounded down to 0.5 mm; every position scaled by the same factor.
+  const length = Math.floor((variant.body.lengthMm * lo) / 0.5) * 0.5;
+  const factor = length / variant.body.lengthMm;
+  const why = `props would crowd the body hardware (${now.what}: ${now.clearanceMm.toFixed(1)} mm, need ${required.toFixed(1)}); body shortened ×${factor.toFixed(3)}`;
+  const changes: Change[] = [{ path: ['body', 'lengthMm'], old: variant.body.lengthMm, new: length, why }];
+  if (variant.topPlate.lengthMm !== undefined) changes.push({ path: ['topPlate', 'lengthMm'], old: variant.topPlate.lengthMm, new: Math.floor((variant.topPlate.lengthMm * factor) / 0.5) * 0.5, why: 'follows the body length' });
+  for (const p of xPositions(variant)) changes.push({ path: p.path, old: p.value, new: round2(p.value * factor), why: 'position moves with the body length (size kept)' });
+  const after = propBodyClearanceMm(shortenedBody(variant, factor), variant.props.diameterMm);
+  return { ...base, clearanceMm: after.clearanceMm, factor, changes, line: `Body: shortened from ${variant.body.lengthMm} to ${length} mm so props clear standoffs and stack by ${after.clearanceMm.toFixed(1)} mm (required ${required.toFixed(1)} mm, the source's clearance capped at the tip gap).` };
+}

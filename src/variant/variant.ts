@@ -1,0 +1,162 @@
+import { parseDocument } from 'yaml';
+import { buildFrame, type Frame } from '../geometry/frame.js';
+import { motorSites, wheelbaseOf } from '../geometry/layout.js';
+import { partMassG } from '../geometry/metrics.js';
+import { parseDesignText, validateDesign, type Design } from '../params/design.js';
+import { DesignError } from '../params/errors.js';
+import { MM_PER_INCH, parseLengthMm } from '../params/units.js';
+import { applyChanges, realChanges, type Change } from './changes.js';
+import { VariantRequestError } from './errors.js';
+import { ceilToStep, minTipGapMm, minWheelbaseMm, scaledLayout } from './layoutScale.js';
+import { chooseMotor, type MotorChoice } from './motor.js';
+import { sizeArms, type ArmSizing } from './stiffness.js';
+import { fitBody, type BodyFit } from './body.js';
+
+/** What the user asks for. Lengths in mm; `props` as written ("7in", "178mm"). */
+export type VariantRequest = Readonly<{
+  props: string;
+  /** 'auto' (default): the smallest wheelbase keeping the design's tip gap; or a wheelbase in mm. */
+  wheelbase?: 'auto' | number;
+  /** Auto wheelbase is rounded up to a multiple of this (0: exact). mm. Default 1. */
+  wheelbaseStepMm?: number;
+  /** Motor size class ("2207", "22xx", "20xx-24xx") or "auto"; omitted keeps the motor. */
+  motor?: string;
+}>;
+
+export const DEFAULT_WHEELBASE_STEP_MM = 1;
+
+export type VariantResult = Readonly<{
+  /** The new design file (YAML; comments and key order of the source kept). */
+  text: string;
+  design: Design;
+  frame: Frame;
+  sourceDesign: Design;
+  sourceFrame: Frame;
+  propDiameterMm: number;
+  wheelbase: Readonly<{ minimumMm: number; chosenMm: number; stepMm: number; requestedGapMm: number; achievedGapMm: number; sourceMm: number }>;
+  motor: MotorChoice;
+  arms: ArmSizing;
+  body: BodyFit;
+  /** Every edit made to the design file (only real changes). */
+  changes: readonly Change[];
+  massG: number;
+  sourceMassG: number;
+}>;
+
+/** Total mass of every plate copy. g. */
+export const frameMassG = (f: Frame): number => f.parts.reduce((a, p) => a + partMassG(p) * p.quantity, 0);
+
+/** Prop diameter text as the user wrote it → mm, with the range the design file allows. */
+export function parsePropsOption(text: string): number {
+  const mm = parseLengthMm(text);
+  if (mm === null) throw new VariantRequestError('--props', text, 'is not a length; write it with a unit, e.g. 7in, 5.1in or 178mm');
+  if (mm < 25 || mm > 600) {
+    throw new VariantRequestError('--props', text, `is ${mm} mm, outside 25 to 600 mm (1 to 23.6 in)${/^\s*[0-9.]+\s*$/.test(text) ? '; a bare number is millimetres, write 7in for inches' : ''}`);
+  }
+  return mm;
+}
+
+/** "Tessel 5" → "Tessel 5 (7in)"; an earlier "(…)" size suffix is replaced, so variants of variants stay tidy. */
+export function variantName(name: string, propsText: string): string {
+  const base = name.replace(/\s*\([0-9.]+\s*(in|mm|cm)\)\s*$/i, '');
+  return `${base} (${propsText.trim()})`;
+}
+
+function revalidate(doc: ReturnType<typeof parseDocument>): Design {
+  return validateDesign(doc.toJS());
+}
+
+/**
+ * Make a size variant of a design: new props, wheelbase from the tip gap, motor from the table when
+ * asked, arms by the stiffness rule, body only where the new prop clearances need it; hardware kept.
+ * Pure: text in, text and data out. Throws VariantRequestError for impossible requests and
+ * DesignError when the source is invalid or the variant cannot be built.
+ */
+export function makeVariant(sourceText: string, req: VariantRequest, sourceName = 'design'): VariantResult {
+  const source = parseDesignText(sourceText, sourceName);
+  const sourceFrame = buildFrame(source);
+  const doc = parseDocument(sourceText);
+  if (doc.errors.length) throw new DesignError([{ path: '', value: sourceName, message: `is not valid YAML: ${doc.errors[0].message.split('\n')[0]}` }]);
+  const propMm = parsePropsOption(req.props);
+  const step = req.wheelbaseStepMm ?? DEFAULT_WHEELBASE_STEP_MM;
+  if (!(step >= 0) || step > 50) throw new VariantRequestError('--wheelbase-step', step, 'must be from 0 (exact) to 50 mm');
+  const changes: Change[] = [];
+  const edit = (cs: readonly Change[]): Design => {
+    applyChanges(doc, cs);
+    changes.push(...realChanges(cs));
+    return revalidate(doc);
+  };
+
+  // 1. Props, name and motor.
+  const motor = chooseMotor(source, req.motor, propMm);
+  const propsText = req.props.trim();
+  let cur = edit([
+    { path: ['name'], old: source.name, new: variantName(source.name, propsText), why: 'names the size' },
+    { path: ['props', 'diameter'], old: source.props.diameter, new: propsText, why: `requested (${(propMm / MM_PER_INCH).toFixed(2)} in = ${propMm.toFixed(1)} mm)` },
+    ...motor.changes,
+  ]);
+
+  // 2. Wheelbase from the tip gap, layout shape kept.
+  const gap = cur.props.minTipGapMm;
+  const minimumMm = minWheelbaseMm(cur, propMm, gap);
+  let chosenMm: number;
+  let wbWhy: string;
+  if (req.wheelbase === undefined || req.wheelbase === 'auto') {
+    chosenMm = ceilToStep(minimumMm, step);
+    wbWhy = `smallest keeping the ${gap} mm tip gap (${minimumMm.toFixed(2)} mm), rounded up to ${step} mm`;
+  } else {
+    if (!(req.wheelbase > 0) || req.wheelbase < minimumMm - 1e-9) {
+      throw new VariantRequestError('--wheelbase', req.wheelbase, `is below the clearance minimum ${minimumMm.toFixed(2)} mm: ${propsText} props need it for the design's ${gap} mm tip gap (props.minTipGapMm)`);
+    }
+    chosenMm = req.wheelbase;
+    wbWhy = `requested (minimum for the ${gap} mm tip gap: ${minimumMm.toFixed(2)} mm)`;
+  }
+  const factor = chosenMm / wheelbaseOf(motorSites(cur));
+  const L = cur.layout;
+  const newLayout = scaledLayout(cur, factor);
+  const layoutChanges: Change[] = [];
+  if (L.kind === 'asymmetric' && newLayout.kind === 'asymmetric') {
+    // Reaches are written to 0.001 mm, rounded up so the gap never drops below the target.
+    layoutChanges.push({ path: ['layout', 'front', 'reachMm'], old: L.front.reachMm, new: ceilToStep(newLayout.front.reachMm, 0.001), why: `wheelbase ${chosenMm.toFixed(2)} mm: ${wbWhy}; shape kept` });
+    layoutChanges.push({ path: ['layout', 'rear', 'reachMm'], old: L.rear.reachMm, new: ceilToStep(newLayout.rear.reachMm, 0.001), why: 'scaled with the front reach (shape kept)' });
+  } else if (L.kind !== 'asymmetric') {
+    layoutChanges.push({ path: ['layout', 'wheelbaseMm'], old: L.wheelbaseMm, new: chosenMm, why: wbWhy });
+  }
+  cur = edit(layoutChanges);
+
+  // 3. Body: only what the new prop clearances need.
+  const body = fitBody(source, cur);
+  cur = edit(body.changes);
+
+  // 4. Arms by the stiffness rule.
+  const arms = sizeArms(source, motor.sourceClass.massG, cur, motor.variantClass.massG);
+  cur = edit(arms.changes);
+
+  const text = doc.toString();
+  const design = parseDesignText(text, 'variant');
+  let frame: Frame;
+  try {
+    frame = buildFrame(design);
+  } catch (e) {
+    if (e instanceof DesignError) {
+      const hint = body.factor < 1 ? `; the body had to be shortened to ${design.body.lengthMm} mm for the props to clear its standoffs and stack, and its hardware no longer fits: give --wheelbase ${body.keepBodyWheelbaseMm} or more to keep the body` : '';
+      throw new VariantRequestError('--props', propsText, `gives a variant that cannot be built${hint}:\n${e.message}`);
+    }
+    throw e;
+  }
+  return {
+    text,
+    design,
+    frame,
+    sourceDesign: source,
+    sourceFrame,
+    propDiameterMm: propMm,
+    wheelbase: { minimumMm, chosenMm, stepMm: step, requestedGapMm: gap, achievedGapMm: minTipGapMm(frame.sites, propMm), sourceMm: wheelbaseOf(sourceFrame.sites) },
+    motor,
+    arms,
+    body,
+    changes,
+    massG: frameMassG(frame),
+    sourceMassG: frameMassG(sourceFrame),
+  };
+}
