@@ -92,7 +92,7 @@ function bottomPlate(d: Design, sites: readonly MotorSite[]): Part {
   const features: SourcedFeature[] = [...standoffHoles(d)];
   const members: Member[] = [];
   d.stacks.forEach((s, i) => {
-    s.patternsMm.forEach((side, k) => features.push(...squareHoles(d, stackCentre(d, i), side, d.stackBoltSizes[i][k], `stacks.${i}.patternsMm`)));
+    s.patternsMm.forEach((side, k) => features.push(...squareHoles(d, stackCentre(d, i), side, d.stackBoltSizes[i][k], `stacks.${i}.patternsMm`, s.countersunk)));
   });
   for (const site of sites) {
     if (unibody) {

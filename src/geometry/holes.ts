@@ -1,5 +1,5 @@
 import type { Design } from '../params/design.js';
-import { clearanceHoleMm } from '../params/screws.js';
+import { clearanceHoleMm, countersunkHeadMm } from '../params/screws.js';
 import type { Feature, FeaturePurpose, ScrewSize } from './part.js';
 import { circle, roundedRect, slot } from './primitives.js';
 import { reverseLoop } from './loop.js';
@@ -56,10 +56,16 @@ export function motorPadRadius(d: Design): number {
   return Math.max(holes, guard);
 }
 
-/** Four holes on a square of side sideMm centred at `center` (flight-controller stack pattern). */
-export function squareHoles(d: Design, center: Vec2, sideMm: number, screw: ScrewSize, sourcePath: string): SourcedFeature[] {
+/**
+ * Four holes on a square of side sideMm centred at `center` (flight-controller stack pattern),
+ * optionally countersunk from the bottom face for flush 90° heads (ISO 14581 / ISO 10642 head size).
+ */
+export function squareHoles(d: Design, center: Vec2, sideMm: number, screw: ScrewSize, sourcePath: string, countersunk = false): SourcedFeature[] {
   const h = sideMm / 2;
-  return ([[h, h], [-h, h], [-h, -h], [h, -h]] as Vec2[]).map((o) => screwHole(d, add(center, o), screw, 'stack-bolt', sourcePath));
+  return ([[h, h], [-h, h], [-h, -h], [h, -h]] as Vec2[]).map((o) => {
+    const hole = screwHole(d, add(center, o), screw, 'stack-bolt', sourcePath);
+    return countersunk ? { ...hole, countersink: { headDiameterMm: countersunkHeadMm(screw), face: 'bottom' as const } } : hole;
+  });
 }
 
 /** Rounded-rectangle cut-out; corners never below the router bit radius. */

@@ -167,6 +167,7 @@ export const DesignSchema = z
             yMm: num(-150, 150, 'mm', 'sideways offset').default(0),
             patternsMm: z.array(num(10, 60, 'mm', 'bolt square side')).min(1).max(4).describe('concentric square patterns, e.g. [30.5, 20]'),
             boltSize: z.union([screw, z.array(screw)]).default('M3').describe('one size for all patterns, or one per pattern'),
+            countersunk: z.boolean().default(false).describe('countersink the holes from the bottom face for flush heads (e.g. screws under the arms)'),
           })
           .strict(),
       )

@@ -222,3 +222,13 @@ describe('bad designs are refused with the parameter named', () => {
     expect(() => validateDesign(designWith('tessel-5.yaml', { props: { diameter: '5 furlongs' } }))).toThrowError(/props\.diameter/);
   });
 });
+
+describe('countersunk stack holes', () => {
+  it('carry the flush-head diameter of the screw (ISO 10642 M3 dk 6.72)', () => {
+    const bottom = demoFrame('farline-7.yaml').parts.find((p) => p.role === 'bottom')!;
+    const sunk = bottom.features.filter((f) => f.countersink);
+    expect(sunk).toHaveLength(4);
+    // ISO 10642, M3 countersunk head: dk (theoretical) 6.72 mm
+    for (const f of sunk) expect(f.countersink).toEqual({ headDiameterMm: 6.72, face: 'bottom' });
+  });
+});
