@@ -67,6 +67,8 @@ const propClearance = z
     minTipGapMm: num(0, 100, 'mm', 'smallest gap between adjacent prop tips (default: props.minTipGapMm)').optional(),
     // Common practice, no source.
     minPartClearanceMm: num(0, 50, 'mm', 'smallest plan-view gap between a prop disc and a standoff or plate that reaches the prop plane').default(3),
+    // Common practice, no source.
+    maxVerticalGapMm: num(0, 100, 'mm', 'warn about a plate under or over a prop disc only when it is closer than this to the prop plane').default(10),
     // Common practice, no source: M3 aluminium standoffs are about 5 mm across.
     standoffDiameterMm: num(2, 15, 'mm', 'outside diameter of the standoffs').default(5),
   })

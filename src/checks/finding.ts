@@ -1,0 +1,32 @@
+import type { Vec2 } from '../geometry/types.js';
+import type { Finding, Severity } from './types.js';
+
+/** Round a reported number to 4 decimals so reports are stable across platforms' last-bit noise. */
+export const r4 = (x: number): number => Math.round(x * 1e4) / 1e4 + 0;
+
+/** A finding with rounded numbers. */
+export function finding(
+  rule: string,
+  severity: Severity,
+  part: string,
+  measured: number | null,
+  limit: number | null,
+  unit: string,
+  at: Vec2 | null,
+  message: string,
+): Finding {
+  return {
+    rule,
+    severity,
+    part,
+    measured: measured === null ? null : r4(measured),
+    limit: limit === null ? null : r4(limit),
+    unit,
+    atMm: at ? [r4(at[0]), r4(at[1])] : null,
+    message,
+  };
+}
+
+export const mm = (x: number, d = 2): string => `${x.toFixed(d)} mm`;
+export const pt = (p: Vec2): string => `(${p[0].toFixed(2)}, ${p[1].toFixed(2)})`;
+export const mid = (a: Vec2, b: Vec2): Vec2 => [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];

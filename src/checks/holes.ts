@@ -1,0 +1,153 @@
+import { intersectSegments } from '../geometry/intersect.js';
+import type { Feature, Member } from '../geometry/part.js';
+import { closestPoint, line } from '../geometry/segment.js';
+import type { Vec2 } from '../geometry/types.js';
+import { add, dist, dot, perp, scale, sub, unit } from '../geometry/vec.js';
+import { radToDeg } from '../params/units.js';
+import { finding, mid, mm } from './finding.js';
+import { heywoodKtn, lekhnitskiiKt } from './laminate.js';
+import type { CheckOptions } from './options.js';
+import type { PartIndex } from './partIndex.js';
+import { buildBoxGrid, queryBoxGrid } from './spatial.js';
+import type { Finding } from './types.js';
+
+export const EDGE_RULE = 'hole-edge-distance';
+export const STRESS_RULE = 'hole-stress';
+
+/** A round hole the edge-distance rule applies to: a bolt hole (or any round hole of an imported part). */
+export type BoltHole = Readonly<{ contour: number; feature: Feature; center: Vec2; diameterMm: number }>;
+
+export function boltHoles(ix: PartIndex): BoltHole[] {
+  const out: BoltHole[] = [];
+  for (const c of ix.contours) {
+    const f = c.feature;
+    if (!f || f.centerMm === undefined || f.diameterMm === undefined) continue;
+    if (f.screw === undefined && f.purpose !== 'imported') continue;
+    out.push({ contour: c.index, feature: f, center: f.centerMm, diameterMm: f.diameterMm });
+  }
+  return out;
+}
+
+/** A contour that is a free edge for the edge distance: the outline or any inner contour that is not a round hole. */
+const isFreeEdge = (ix: PartIndex, k: number): boolean => k === 0 || ix.contours[k].feature?.diameterMm === undefined;
+
+/**
+ * Distance from the hole centre to the nearest free edge, searching outward with a doubling radius
+ * (exact: closest points on lines and arcs). mm.
+ */
+export function edgeDistance(ix: PartIndex, h: BoltHole): { eMm: number; at: Vec2; edge: number } | null {
+  for (let r = h.diameterMm; ; r *= 2) {
+    let best: { eMm: number; at: Vec2; edge: number } | null = null;
+    for (const id of queryBoxGrid(ix.segGrid, [h.center[0], h.center[1], h.center[0], h.center[1]], r)) {
+      const s = ix.segs[id];
+      if (s.contour === h.contour || !isFreeEdge(ix, s.contour)) continue;
+      const c = closestPoint(s.s, h.center);
+      if (c.distance <= r && (!best || c.distance < best.eMm)) best = { eMm: c.distance, at: c.point, edge: s.contour };
+    }
+    if (best) return best;
+    if (r > 2 * ix.spanMm) return null;
+  }
+}
+
+/**
+ * Rule 2: e/D for every bolt hole (error and warning bands) and pitch/D between neighbouring bolt
+ * holes (D the larger of the two). Returns the smallest e/D for the part metrics.
+ */
+export function holeEdgeRule(ix: PartIndex, o: CheckOptions, holes: readonly BoltHole[]): { findings: Finding[]; minEdgeRatio: number | null } {
+  const lim = o.limits['hole-edge-distance'];
+  const name = ix.part.name;
+  const findings: Finding[] = [];
+  let minRatio: number | null = null;
+  for (const h of holes) {
+    const e = edgeDistance(ix, h);
+    if (!e) continue;
+    const ratio = e.eMm / h.diameterMm;
+    minRatio = minRatio === null ? ratio : Math.min(minRatio, ratio);
+    if (!lim.enabled || ratio >= lim.warnEdgeRatio) continue;
+    const error = ratio < lim.errorEdgeRatio;
+    const lm = error ? lim.errorEdgeRatio : lim.warnEdgeRatio;
+    findings.push(
+      finding(EDGE_RULE, error ? 'error' : 'warning', name, ratio, lm, 'e/D', h.center,
+        `${ix.contours[h.contour].label}: e ${mm(e.eMm)} to the ${ix.contours[e.edge].label}, e/D ${ratio.toFixed(2)} below ${lm.toFixed(2)}, web ${mm(e.eMm - h.diameterMm / 2)}; move the hole inward or add material (needs e ≥ ${mm(lm * h.diameterMm)})`),
+    );
+  }
+  if (lim.enabled && holes.length > 1) {
+    const grid = buildBoxGrid(holes.map((h) => [h.center[0], h.center[1], h.center[0], h.center[1]] as const));
+    const maxD = Math.max(...holes.map((h) => h.diameterMm));
+    holes.forEach((h, i) => {
+      for (const j of queryBoxGrid(grid, [h.center[0], h.center[1], h.center[0], h.center[1]], lim.warnPitchRatio * maxD)) {
+        if (j <= i) continue;
+        const g = holes[j];
+        const s = dist(h.center, g.center);
+        const D = Math.max(h.diameterMm, g.diameterMm);
+        if (s === 0 || s / D >= lim.warnPitchRatio) continue;
+        findings.push(
+          finding(EDGE_RULE, 'warning', name, s / D, lim.warnPitchRatio, 'pitch/D', mid(h.center, g.center),
+            `bolt pitch ${mm(s)} between ${ix.contours[h.contour].label} and ${ix.contours[g.contour].label}: pitch/D ${(s / D).toFixed(2)} below ${lim.warnPitchRatio.toFixed(2)}; space the holes to ${mm(lim.warnPitchRatio * D)} if they carry load`),
+        );
+      }
+    });
+  }
+  return { findings, minEdgeRatio: minRatio };
+}
+
+/** Holes whose stress concentration the member carries: bolt holes in or at the end of a strut. */
+function memberOf(h: BoltHole, members: readonly Member[]): Member | null {
+  let best: { m: Member; d: number } | null = null;
+  for (const m of members) {
+    const d = closestPoint(line(m.startMm, m.endMm), h.center).distance;
+    const inBand = d <= m.widthMm / 2 + h.diameterMm / 2;
+    const atTip = h.feature.purpose === 'motor-bolt';
+    if ((inBand || atTip) && (!best || d < best.d)) best = { m, d };
+  }
+  return best?.m ?? null;
+}
+
+/** Distance from the hole edge to the first boundary along direction dir. mm. */
+function ligament(ix: PartIndex, h: BoltHole, dir: Vec2): number | null {
+  const r = h.diameterMm / 2;
+  const a = add(h.center, scale(dir, r * (1 + 1e-6)));
+  const b = add(h.center, scale(dir, ix.spanMm + r));
+  const ray = line(a, b);
+  const box = [Math.min(a[0], b[0]), Math.min(a[1], b[1]), Math.max(a[0], b[0]), Math.max(a[1], b[1])] as const;
+  let best: number | null = null;
+  for (const id of queryBoxGrid(ix.segGrid, box)) {
+    const s = ix.segs[id];
+    if (s.contour === h.contour) continue;
+    for (const hit of intersectSegments(ray, s.s, 1e-9)) {
+      const d = dot(sub(hit.point, h.center), dir) - r;
+      if (best === null || d < best) best = d;
+    }
+  }
+  return best;
+}
+
+/**
+ * Rule 5 (information): for bolt holes in members, the net-section factor of a centred hole in a
+ * strip (Heywood) with W = D + 2 × the smaller ligament across the member, and the orthotropic
+ * infinite-plate factor (Lekhnitskii) for the laminate turned to the member direction.
+ */
+export function holeStressRule(ix: PartIndex, o: CheckOptions, holes: readonly BoltHole[]): Finding[] {
+  if (!o.limits['hole-stress'].enabled) return [];
+  const part = ix.part;
+  const out: Finding[] = [];
+  for (const h of holes) {
+    if (!['motor-bolt', 'arm-root-bolt', 'imported'].includes(h.feature.purpose)) continue;
+    const m = memberOf(h, part.members);
+    if (!m) continue;
+    const along = unit(sub(m.endMm, m.startMm));
+    const across = perp(along);
+    const l1 = ligament(ix, h, across);
+    const l2 = ligament(ix, h, scale(across, -1));
+    if (l1 === null || l2 === null) continue;
+    const W = h.diameterMm + 2 * Math.min(l1, l2);
+    const ktn = heywoodKtn(h.diameterMm, W);
+    const theta = Math.atan2(along[1], along[0]) - part.weaveRad;
+    const ktOrtho = lekhnitskiiKt(part.material, theta);
+    out.push(
+      finding(STRESS_RULE, 'info', part.name, ktn, null, 'Ktn', h.center,
+        `${ix.contours[h.contour].label} in ${m.name}: d/W ${(h.diameterMm / W).toFixed(3)} (W ${mm(W)}), net-section Ktn ${ktn.toFixed(3)} (Heywood); orthotropic Kt ${ktOrtho.toFixed(3)} at ${radToDeg(theta).toFixed(1)}° to the weave (Lekhnitskii, infinite plate)`),
+    );
+  }
+  return out;
+}

@@ -1,0 +1,94 @@
+import { bboxGap, segmentDistance, type ClosestPair } from '../geometry/distance.js';
+import { windingNumber } from '../geometry/inside.js';
+import { loopBBox } from '../geometry/loop.js';
+import type { Feature, Part } from '../geometry/part.js';
+import { closestPoint, segmentBBox } from '../geometry/segment.js';
+import type { BBox, Loop, Segment, Vec2 } from '../geometry/types.js';
+import { buildBoxGrid, queryBoxGrid, type BoxGrid } from './spatial.js';
+
+/** One contour of a part: index 0 is the outline, 1.. the features in order. */
+export type Contour = Readonly<{ index: number; loop: Loop; feature: Feature | null; bbox: BBox; label: string }>;
+
+export type SegRef = Readonly<{ contour: number; seg: number; s: Segment; box: BBox }>;
+
+/** A part's contours and segments with spatial indexes, built once and shared by the part rules. */
+export type PartIndex = Readonly<{
+  part: Part;
+  contours: readonly Contour[];
+  segs: readonly SegRef[];
+  /** Index in segs of each contour's first segment. */
+  firstSeg: readonly number[];
+  segGrid: BoxGrid;
+  contourGrid: BoxGrid;
+  /** Diagonal of the part's bounding box: no distance in the part exceeds it. mm. */
+  spanMm: number;
+}>;
+
+export function contourLabel(f: Feature | null): string {
+  if (!f) return 'outline';
+  return `${f.purpose} ${f.kind}${f.diameterMm !== undefined ? ` Ø${f.diameterMm.toFixed(2)}` : ''}`;
+}
+
+export function indexPart(part: Part): PartIndex {
+  const loops: Array<{ loop: Loop; feature: Feature | null }> = [{ loop: part.outline, feature: null }, ...part.features.map((f) => ({ loop: f.loop, feature: f }))];
+  const contours: Contour[] = loops.map((c, index) => ({ index, loop: c.loop, feature: c.feature, bbox: loopBBox(c.loop), label: contourLabel(c.feature) }));
+  const segs: SegRef[] = [];
+  const firstSeg: number[] = [];
+  for (const c of contours) {
+    firstSeg.push(segs.length);
+    c.loop.forEach((s, seg) => segs.push({ contour: c.index, seg, s, box: segmentBBox(s) }));
+  }
+  const b = contours[0].bbox;
+  return {
+    part,
+    contours,
+    segs,
+    firstSeg,
+    segGrid: buildBoxGrid(segs.map((s) => s.box)),
+    contourGrid: buildBoxGrid(contours.map((c) => c.bbox)),
+    spanMm: Math.hypot(b[2] - b[0], b[3] - b[1]),
+  };
+}
+
+/** Is p in the material (inside the outline, outside every feature)? Points on a boundary: either answer. */
+export function inMaterial(ix: PartIndex, p: Vec2): boolean {
+  for (const id of queryBoxGrid(ix.contourGrid, [p[0], p[1], p[0], p[1]])) {
+    const inside = windingNumber(ix.contours[id].loop, p) !== 0;
+    if (id === 0 ? !inside : inside) return false;
+  }
+  return true;
+}
+
+/** Shortest distance from p to any contour, stopping early once below stopBelowMm. mm. */
+export function distanceToBoundary(ix: PartIndex, p: Vec2, radiusMm: number, stopBelowMm = -Infinity): number {
+  let best = Infinity;
+  for (const id of queryBoxGrid(ix.segGrid, [p[0], p[1], p[0], p[1]], radiusMm)) {
+    const d = closestPoint(ix.segs[id].s, p).distance;
+    if (d < best) {
+      best = d;
+      if (best < stopBelowMm) return best;
+    }
+  }
+  return best;
+}
+
+/** Closest pair between two contours, or null when none is within maxMm. */
+export function contourDistance(ix: PartIndex, a: number, b: number, maxMm = Infinity): (ClosestPair & { segA: number; segB: number }) | null {
+  let best: (ClosestPair & { segA: number; segB: number }) | null = null;
+  const la = ix.contours[a].loop;
+  const lb = ix.contours[b].loop;
+  const ba = la.map(segmentBBox);
+  const bb = lb.map(segmentBBox);
+  let limit = maxMm;
+  for (let i = 0; i < la.length; i++) {
+    for (let j = 0; j < lb.length; j++) {
+      if (bboxGap(ba[i], bb[j]) > limit) continue;
+      const c = segmentDistance(la[i], lb[j]);
+      if (c.distance <= limit && (!best || c.distance < best.distance)) {
+        best = { ...c, segA: i, segB: j };
+        limit = c.distance;
+      }
+    }
+  }
+  return best;
+}

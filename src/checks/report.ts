@@ -1,0 +1,97 @@
+import type { Frame } from '../geometry/frame.js';
+import { partArea, partBBox, partCutLength } from '../geometry/metrics.js';
+import type { Part } from '../geometry/part.js';
+import { bitReachRule } from './bitReach.js';
+import { loopChords } from './chords.js';
+import { r4 } from './finding.js';
+import { boltHoles, holeEdgeRule, holeStressRule } from './holes.js';
+import { optionsForDesign, type CheckOptions } from './options.js';
+import { indexPart } from './partIndex.js';
+import { cameraViewRule, propClearanceRule, propDiscs } from './props.js';
+import type { CheckReport, Finding, PartMetrics, Severity } from './types.js';
+import { webLimitMm, webRule } from './webs.js';
+import { weaveRule } from './weave.js';
+
+/** Necks and gaps wider than this many times the largest limit are not searched for. */
+const CHORD_SEARCH_FACTOR = 4;
+
+/** Everything the part rules found about one part. */
+export type PartCheck = Readonly<{ metrics: PartMetrics; findings: readonly Finding[] }>;
+
+/** Run the part-level rules (webs, hole edges, bit reach, weave, hole stress) on one part. Pure. */
+export function checkPart(part: Part, o: CheckOptions): PartCheck {
+  const ix = indexPart(part);
+  const warnWeb = webLimitMm(o, part.thicknessMm) * o.limits['web-width'].warnFactor;
+  const chords = loopChords(ix, Math.max(CHORD_SEARCH_FACTOR * Math.max(warnWeb, o.toolDiameterMm), 20));
+  const webs = webRule(ix, o, chords);
+  const holes = boltHoles(ix);
+  const edge = holeEdgeRule(ix, o, holes);
+  const findings = [...webs.findings, ...edge.findings, ...holeStressRule(ix, o, holes), ...bitReachRule(ix, o, chords), ...weaveRule(part, o)];
+  const bb = partBBox(part);
+  const num = (x: number | null): number | null => (x === null ? null : r4(x));
+  return {
+    findings,
+    metrics: {
+      name: part.name,
+      thicknessMm: part.thicknessMm,
+      contours: 1 + part.features.length,
+      holes: part.features.length,
+      areaMm2: r4(partArea(part)),
+      cutLengthMm: r4(partCutLength(part)),
+      bboxMm: [r4(bb[0]), r4(bb[1]), r4(bb[2]), r4(bb[3])],
+      metrics: {
+        minWebMm: num(webs.metrics.minWebMm),
+        minHoleEdgeWebMm: num(webs.metrics.minHoleEdgeWebMm),
+        minHoleHoleWebMm: num(webs.metrics.minHoleHoleWebMm),
+        minEdgeRatio: num(edge.minEdgeRatio),
+      },
+    },
+  };
+}
+
+const SEVERITY_ORDER: Record<Severity, number> = { error: 0, warning: 1, info: 2 };
+
+/** Assemble a report: findings in a stable order (part order, then severity, rule, position). */
+export function makeReport(parts: readonly PartMetrics[], findings: readonly Finding[]): CheckReport {
+  const order = new Map(parts.map((p, i) => [p.name, i]));
+  const sorted = [...findings].sort(
+    (a, b) =>
+      (order.get(a.part) ?? parts.length) - (order.get(b.part) ?? parts.length) ||
+      SEVERITY_ORDER[a.severity] - SEVERITY_ORDER[b.severity] ||
+      a.rule.localeCompare(b.rule) ||
+      (a.atMm?.[0] ?? 0) - (b.atMm?.[0] ?? 0) ||
+      (a.atMm?.[1] ?? 0) - (b.atMm?.[1] ?? 0) ||
+      a.message.localeCompare(b.message),
+  );
+  return {
+    units: 'mm',
+    parts,
+    findings: sorted,
+    summary: { errors: sorted.filter((f) => f.severity === 'error').length, warnings: sorted.filter((f) => f.severity === 'warning').length },
+  };
+}
+
+/**
+ * Part-level rules for every part (framewright's own or imported from DXF). Parts without members
+ * (e.g. role 'imported') skip the weave rule. Pure: no files, no clock.
+ * @example checkParts(parts, checkOptions({ toolDiameterMm: 3.175 })).summary.errors
+ */
+export function checkParts(parts: readonly Part[], options: CheckOptions): CheckReport {
+  const results = parts.map((p) => checkPart(p, options));
+  return makeReport(results.map((r) => r.metrics), results.flatMap((r) => r.findings));
+}
+
+/**
+ * Every rule for a built frame: the part rules for each distinct part plus the frame rules (prop
+ * tip gaps, prop discs against the body, standoffs, camera plates and other plates in plan view,
+ * props in the camera view). Options default from the design's `checks` section, its cutting tool
+ * and props.minTipGapMm.
+ * @example const report = checkFrame(buildFrame(design)); if (report.summary.errors) ...
+ */
+export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}): CheckReport {
+  const o = optionsForDesign(frame.design, options);
+  const results = frame.parts.map((p) => checkPart(p, o));
+  const discs = propDiscs(frame);
+  const frameFindings = [...propClearanceRule(frame, o, discs), ...cameraViewRule(frame, o, discs)];
+  return makeReport(results.map((r) => r.metrics), [...results.flatMap((r) => r.findings), ...frameFindings]);
+}

@@ -1,0 +1,100 @@
+import { bboxGap, segmentDistance, type ClosestPair } from '../geometry/distance.js';
+import type { Vec2 } from '../geometry/types.js';
+import type { Chord } from './chords.js';
+import { finding, mid, mm } from './finding.js';
+import type { CheckOptions } from './options.js';
+import { type PartIndex } from './partIndex.js';
+import { queryBoxGrid } from './spatial.js';
+import type { Finding } from './types.js';
+
+export const WEB_RULE = 'web-width';
+
+/** Error limit for a plate: the larger of the absolute minimum and the multiple of thickness. mm. */
+export function webLimitMm(o: CheckOptions, thicknessMm: number): number {
+  const w = o.limits['web-width'];
+  return Math.max(w.minMm, w.perThickness * thicknessMm);
+}
+
+/** Closest pair between two different contours, found by the rule. */
+export type ContourPair = ClosestPair & Readonly<{ a: number; b: number }>;
+
+/**
+ * For every inner contour, the closest pair to each other contour (the outline, or a later inner
+ * contour) within radiusMm, via the segment grid. Each unordered pair appears once.
+ */
+export function contourPairsWithin(ix: PartIndex, radiusMm: number, want: (a: number, b: number) => boolean = () => true): ContourPair[] {
+  const out: ContourPair[] = [];
+  for (let a = 1; a < ix.contours.length; a++) {
+    const best = new Map<number, ContourPair>();
+    const first = ix.firstSeg[a];
+    for (let k = 0; k < ix.contours[a].loop.length; k++) {
+      const sa = ix.segs[first + k];
+      for (const id of queryBoxGrid(ix.segGrid, sa.box, radiusMm)) {
+        const sb = ix.segs[id];
+        const b = sb.contour;
+        if (b === a || (b !== 0 && b < a) || !want(a, b)) continue;
+        const cur = best.get(b);
+        const bound = Math.min(radiusMm, cur ? cur.distance : Infinity);
+        if (bboxGap(sa.box, sb.box) > bound) continue;
+        const c = segmentDistance(sa.s, sb.s);
+        if (c.distance <= bound && (!cur || c.distance < cur.distance)) best.set(b, { ...c, a, b });
+      }
+    }
+    out.push(...[...best.values()].sort((x, y) => x.b - y.b));
+  }
+  return out;
+}
+
+/**
+ * Smallest distance between an inner contour and a contour accepted by `want`, searching with a
+ * radius that doubles until something is found (exact: every pair nearer than the radius is seen).
+ */
+export function nearestPair(ix: PartIndex, startMm: number, want: (a: number, b: number) => boolean): ContourPair | null {
+  for (let r = Math.max(startMm, 1e-3); ; r *= 2) {
+    const pairs = contourPairsWithin(ix, r, want);
+    if (pairs.length) return pairs.reduce((m, p) => (p.distance < m.distance ? p : m));
+    if (r > 2 * ix.spanMm) return null;
+  }
+}
+
+export type WebMetrics = { minWebMm: number | null; minHoleEdgeWebMm: number | null; minHoleHoleWebMm: number | null };
+
+/**
+ * Rule 1, web width: the material between any two contours, and the necks inside one contour
+ * (material chords from `loopChords`). Error below the limit, warning below limit × warnFactor.
+ */
+export function webRule(ix: PartIndex, o: CheckOptions, chords: readonly Chord[]): { findings: Finding[]; metrics: WebMetrics } {
+  const part = ix.part;
+  const limit = webLimitMm(o, part.thicknessMm);
+  const warn = limit * o.limits['web-width'].warnFactor;
+  const findings: Finding[] = [];
+  const run = o.limits['web-width'].enabled;
+  const report = (width: number, at: Vec2, what: string): void => {
+    if (!run || width >= warn) return;
+    const error = width < limit;
+    findings.push(
+      finding(WEB_RULE, error ? 'error' : 'warning', part.name, width, error ? limit : warn, 'mm', at,
+        `${what}: web ${mm(width)} is below ${error ? '' : 'the warning level '}${mm(error ? limit : warn)} (${mm(part.thicknessMm, 1)} plate); move the contours apart or widen the material`),
+    );
+  };
+  for (const p of contourPairsWithin(ix, warn)) {
+    report(p.distance, mid(p.p, p.q), `${ix.contours[p.a].label} to ${ix.contours[p.b].label}`);
+  }
+  let minNeck: number | null = null;
+  for (const c of chords) {
+    if (c.through !== 'material') continue;
+    minNeck = minNeck === null ? c.widthMm : Math.min(minNeck, c.widthMm);
+    report(c.widthMm, mid(c.p, c.q), `narrow neck in the ${ix.contours[c.contour].label}`);
+  }
+  const edge = nearestPair(ix, warn, (_a, b) => b === 0);
+  const holeHole = nearestPair(ix, warn, (_a, b) => b !== 0);
+  const candidates = [edge?.distance, holeHole?.distance, minNeck ?? undefined].filter((x): x is number => x !== undefined);
+  return {
+    findings,
+    metrics: {
+      minWebMm: candidates.length ? Math.min(...candidates) : null,
+      minHoleEdgeWebMm: edge ? edge.distance : null,
+      minHoleHoleWebMm: holeHole ? holeHole.distance : null,
+    },
+  };
+}
