@@ -31,7 +31,7 @@ export type ImportOptions = Readonly<{
   layers?: readonly string[];
   /** Entity ends closer than this are joined (default 0.01 mm, well under a router's precision). mm. */
   gapTolMm?: number;
-  /** Largest distance between a fitted spline or ellipse and its arcs (default 0.005 mm). mm. */
+  /** Largest distance between a fitted spline or ellipse and its arcs (default 0.002 mm). mm. */
   curveTolMm?: number;
   /** Segments shorter than this are reported as tiny (default 0.05 mm). mm. */
   tinySegmentMm?: number;
@@ -73,7 +73,7 @@ export function importDxf(text: string, options: ImportOptions): ImportResult {
   const units = resolveUnits(doc, options.units, findings);
   const layerDecision = decideLayers(doc, options.layers);
   const k = MM_PER_UNIT[units.unit];
-  const exploded = explode(doc, { toMm: scaling(k, k), layerDecision, curveTolMm: options.curveTolMm ?? 0.005, limits });
+  const exploded = explode(doc, { toMm: scaling(k, k), layerDecision, curveTolMm: options.curveTolMm ?? 0.002, limits });
   findings.push(...exploded.findings);
   const cleaned = cleanSegments(exploded.segments, { gapTolMm, tinySegmentMm: options.tinySegmentMm ?? 0.05 });
   findings.push(...cleaned.findings);

@@ -92,10 +92,11 @@ function asWholeCircle(loop: Loop): { center: Vec2; radius: number } | null {
   let turn = 0;
   for (const s of loop) {
     if (s.kind !== 'arc') return null;
-    if (dist(s.center, first.center) > 1e-6 || Math.abs(s.radius - first.radius) > 1e-6) return null;
+    // 1e-5 mm: arcs fitted to a spline that is a circle (rational B-spline) agree to about 1e-7.
+    if (dist(s.center, first.center) > 1e-5 || Math.abs(s.radius - first.radius) > 1e-5) return null;
     turn += s.sweepRad;
   }
-  return Math.abs(Math.abs(turn) - 2 * Math.PI) < 1e-6 ? { center: first.center, radius: first.radius } : null;
+  return Math.abs(Math.abs(turn) - 2 * Math.PI) < 1e-6 ? { center: first.center, radius: loop.reduce((a, s) => a + (s as { radius: number }).radius, 0) / loop.length } : null;
 }
 
 /** Two half-circle end caps of one radius joined by two lines (straight slot) or two concentric arcs (arc slot). */
