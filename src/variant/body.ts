@@ -9,11 +9,12 @@ import type { Change } from './changes.js';
 import { VariantRequestError } from './errors.js';
 
 /**
- * Body length in a variant: kept, unless the props of a smaller variant would come closer to what
- * stands between the plates (standoffs, the flight-controller stack) than the source allowed. Then
- * the body is shortened just enough, and every fore-aft position on the body and top plate moves
- * with it (sizes, patterns and widths stay; the camera follows the front standoffs). The body never
- * grows: a bigger frame's hardware already fits.
+ * Body length in a variant: kept, unless the variant's props would come closer to what stands
+ * between the plates (standoffs, the flight-controller stack) than the source allowed. The auto
+ * wheelbase already avoids that, so this only happens for a wheelbase given by the user: the body is
+ * then shortened just enough, and every fore-aft position on the body and top plate moves with it
+ * (sizes, patterns and widths stay; the camera follows the front standoffs). The body never grows:
+ * a bigger frame's hardware already fits.
  */
 
 /** Outer radius of a standoff around its screw: M3 aluminium standoffs are about 5–6 mm across. common practice, from memory. */
@@ -82,18 +83,37 @@ export type BodyFit = Readonly<{
   line: string;
 }>;
 
-/** Smallest wheelbase, rounded up to 1 mm, at which the props clear the body hardware by `required` with the body kept. */
-function keepBodyWheelbase(d: Design, required: number): number {
+/** Clearance the variant's props must keep from the body hardware: the source's, capped at the design's tip gap. mm. */
+export function requiredBodyClearanceMm(source: Design, variant: Design): number {
+  return Math.min(propBodyClearanceMm(source, source.props.diameterMm).clearanceMm, variant.props.minTipGapMm);
+}
+
+/**
+ * Smallest wheelbase (layout shape kept) at which every prop clears the body hardware by
+ * `requiredMm` with the body as it is. Searched from a wheelbase that clears downwards until the
+ * first one that does not, then bisected to 1e-9 of the wheelbase: the smallest of the largest
+ * clearing interval, so a wheelbase above it never strikes. mm.
+ */
+export function bodyKeptWheelbaseMm(d: Design, requiredMm: number): number {
   const w = wheelbaseOf(motorSites(d));
-  const clears = (f: number) => propBodyClearanceMm({ ...d, layout: scaledLayout(d, f) }, d.props.diameterMm).clearanceMm >= required;
-  let f = 1;
-  if (clears(1)) {
-    // Shrinking never helps past where the props first touch; walk down to the first failure.
-    while (f > 0.05 && clears(f - 0.001)) f -= 0.001;
-  } else {
-    while (f < 10 && !clears(f)) f += 0.001;
+  const clears = (f: number) => propBodyClearanceMm({ ...d, layout: scaledLayout(d, f) }, d.props.diameterMm).clearanceMm >= requiredMm;
+  let hi = 1;
+  while (!clears(hi)) {
+    hi *= 1.25;
+    if (hi > 1e3) return Infinity;
   }
-  return ceilToStep(f * w, 1);
+  let lo = hi;
+  const stepDown = 0.005;
+  while (lo > stepDown && clears(lo - stepDown)) lo -= stepDown;
+  // clears(lo) and not clears(lo − step) (or lo is tiny): bisect the boundary.
+  let fail = Math.max(lo - stepDown, 0);
+  if (fail <= 0) return lo * w;
+  for (let i = 0; i < 60; i++) {
+    const mid = (fail + lo) / 2;
+    if (clears(mid)) lo = mid;
+    else fail = mid;
+  }
+  return lo * w;
 }
 
 const round2 = (x: number) => Math.round(x * 100) / 100;
@@ -105,9 +125,9 @@ const round2 = (x: number) => Math.round(x * 100) / 100;
  */
 export function fitBody(source: Design, variant: Design): BodyFit {
   const src = propBodyClearanceMm(source, source.props.diameterMm);
-  const required = Math.min(src.clearanceMm, variant.props.minTipGapMm);
+  const required = requiredBodyClearanceMm(source, variant);
   const now = propBodyClearanceMm(variant, variant.props.diameterMm);
-  const base = { sourceClearanceMm: src.clearanceMm, requiredClearanceMm: required, keepBodyWheelbaseMm: keepBodyWheelbase(variant, required) };
+  const base = { sourceClearanceMm: src.clearanceMm, requiredClearanceMm: required, keepBodyWheelbaseMm: ceilToStep(bodyKeptWheelbaseMm(variant, required), 1) };
   if (now.clearanceMm >= required - 1e-9) {
     return { ...base, clearanceMm: now.clearanceMm, factor: 1, changes: [], line: `Body: kept (props clear standoffs and stack by ${now.clearanceMm.toFixed(1)} mm; source ${src.clearanceMm.toFixed(1)} mm).` };
   }

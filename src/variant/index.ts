@@ -6,3 +6,4 @@ export * from './motor.js';
 export * from './stiffness.js';
 export * from './body.js';
 export * from './variant.js';
+export * from './family.js';

@@ -1,16 +1,15 @@
-import { parseDocument } from 'yaml';
 import { buildFrame, type Frame } from '../geometry/frame.js';
 import { motorSites, wheelbaseOf } from '../geometry/layout.js';
 import { partMassG } from '../geometry/metrics.js';
-import { parseDesignText, validateDesign, type Design } from '../params/design.js';
+import { parseDesignText, type Design } from '../params/design.js';
 import { DesignError } from '../params/errors.js';
 import { MM_PER_INCH, parseLengthMm } from '../params/units.js';
-import { applyChanges, realChanges, type Change } from './changes.js';
+import { editDesignText, realChanges, type Change } from './changes.js';
 import { VariantRequestError } from './errors.js';
 import { ceilToStep, minTipGapMm, minWheelbaseMm, scaledLayout } from './layoutScale.js';
 import { chooseMotor, type MotorChoice } from './motor.js';
 import { sizeArms, type ArmSizing } from './stiffness.js';
-import { fitBody, type BodyFit } from './body.js';
+import { bodyKeptWheelbaseMm, fitBody, requiredBodyClearanceMm, type BodyFit } from './body.js';
 
 /** What the user asks for. Lengths in mm; `props` as written ("7in", "178mm"). */
 export type VariantRequest = Readonly<{
@@ -33,7 +32,7 @@ export type VariantResult = Readonly<{
   sourceDesign: Design;
   sourceFrame: Frame;
   propDiameterMm: number;
-  wheelbase: Readonly<{ minimumMm: number; chosenMm: number; stepMm: number; requestedGapMm: number; achievedGapMm: number; sourceMm: number }>;
+  wheelbase: Readonly<{ minimumMm: number; bodyKeptMm: number; bound: 'tip gap' | 'body clearance' | 'requested'; chosenMm: number; stepMm: number; requestedGapMm: number; achievedGapMm: number; sourceMm: number }>;
   motor: MotorChoice;
   arms: ArmSizing;
   body: BodyFit;
@@ -62,10 +61,6 @@ export function variantName(name: string, propsText: string): string {
   return `${base} (${propsText.trim()})`;
 }
 
-function revalidate(doc: ReturnType<typeof parseDocument>): Design {
-  return validateDesign(doc.toJS());
-}
-
 /**
  * Make a size variant of a design: new props, wheelbase from the tip gap, motor from the table when
  * asked, arms by the stiffness rule, body only where the new prop clearances need it; hardware kept.
@@ -75,16 +70,15 @@ function revalidate(doc: ReturnType<typeof parseDocument>): Design {
 export function makeVariant(sourceText: string, req: VariantRequest, sourceName = 'design'): VariantResult {
   const source = parseDesignText(sourceText, sourceName);
   const sourceFrame = buildFrame(source);
-  const doc = parseDocument(sourceText);
-  if (doc.errors.length) throw new DesignError([{ path: '', value: sourceName, message: `is not valid YAML: ${doc.errors[0].message.split('\n')[0]}` }]);
+  let text = sourceText;
   const propMm = parsePropsOption(req.props);
   const step = req.wheelbaseStepMm ?? DEFAULT_WHEELBASE_STEP_MM;
   if (!(step >= 0) || step > 50) throw new VariantRequestError('--wheelbase-step', step, 'must be from 0 (exact) to 50 mm');
   const changes: Change[] = [];
   const edit = (cs: readonly Change[]): Design => {
-    applyChanges(doc, cs);
+    text = editDesignText(text, cs);
     changes.push(...realChanges(cs));
-    return revalidate(doc);
+    return parseDesignText(text, 'variant');
   };
 
   // 1. Props, name and motor.
@@ -96,20 +90,28 @@ export function makeVariant(sourceText: string, req: VariantRequest, sourceName 
     ...motor.changes,
   ]);
 
-  // 2. Wheelbase from the tip gap, layout shape kept.
+  // 2. Wheelbase: the tip gap, and (auto) the props' clearance to the body hardware, layout shape kept.
   const gap = cur.props.minTipGapMm;
   const minimumMm = minWheelbaseMm(cur, propMm, gap);
+  const bodyClearanceMm = requiredBodyClearanceMm(source, cur);
+  const bodyKeptMm = bodyKeptWheelbaseMm(cur, bodyClearanceMm);
   let chosenMm: number;
   let wbWhy: string;
+  let bound: 'tip gap' | 'body clearance' | 'requested';
   if (req.wheelbase === undefined || req.wheelbase === 'auto') {
-    chosenMm = ceilToStep(minimumMm, step);
-    wbWhy = `smallest keeping the ${gap} mm tip gap (${minimumMm.toFixed(2)} mm), rounded up to ${step} mm`;
+    bound = bodyKeptMm > minimumMm ? 'body clearance' : 'tip gap';
+    chosenMm = ceilToStep(Math.max(minimumMm, bodyKeptMm), step);
+    wbWhy =
+      bound === 'tip gap'
+        ? `smallest keeping the ${gap} mm tip gap (${minimumMm.toFixed(2)} mm), rounded up to ${step} mm`
+        : `smallest keeping the props ${bodyClearanceMm.toFixed(1)} mm clear of the standoffs and stack with the body kept (${bodyKeptMm.toFixed(2)} mm; tip gap alone: ${minimumMm.toFixed(2)} mm), rounded up to ${step} mm`;
   } else {
     if (!(req.wheelbase > 0) || req.wheelbase < minimumMm - 1e-9) {
       throw new VariantRequestError('--wheelbase', req.wheelbase, `is below the clearance minimum ${minimumMm.toFixed(2)} mm: ${propsText} props need it for the design's ${gap} mm tip gap (props.minTipGapMm)`);
     }
+    bound = 'requested';
     chosenMm = req.wheelbase;
-    wbWhy = `requested (minimum for the ${gap} mm tip gap: ${minimumMm.toFixed(2)} mm)`;
+    wbWhy = `requested (minimum for the ${gap} mm tip gap: ${minimumMm.toFixed(2)} mm; body kept from ${bodyKeptMm.toFixed(2)} mm)`;
   }
   const factor = chosenMm / wheelbaseOf(motorSites(cur));
   const L = cur.layout;
@@ -132,8 +134,7 @@ export function makeVariant(sourceText: string, req: VariantRequest, sourceName 
   const arms = sizeArms(source, motor.sourceClass.massG, cur, motor.variantClass.massG);
   cur = edit(arms.changes);
 
-  const text = doc.toString();
-  const design = parseDesignText(text, 'variant');
+  const design = cur;
   let frame: Frame;
   try {
     frame = buildFrame(design);
@@ -151,7 +152,7 @@ export function makeVariant(sourceText: string, req: VariantRequest, sourceName 
     sourceDesign: source,
     sourceFrame,
     propDiameterMm: propMm,
-    wheelbase: { minimumMm, chosenMm, stepMm: step, requestedGapMm: gap, achievedGapMm: minTipGapMm(frame.sites, propMm), sourceMm: wheelbaseOf(sourceFrame.sites) },
+    wheelbase: { minimumMm, bodyKeptMm, bound, chosenMm, stepMm: step, requestedGapMm: gap, achievedGapMm: minTipGapMm(frame.sites, propMm), sourceMm: wheelbaseOf(sourceFrame.sites) },
     motor,
     arms,
     body,
