@@ -71,14 +71,14 @@ export function bitReachRule(ix: PartIndex, o: CheckOptions, chords: readonly Ch
       if (2 * circle.radius < D - TOOL_TOL_MM) {
         blocked.add(c.index);
         out.push(finding(BIT_RULE, 'warning', name, 2 * circle.radius, D, 'mm', circle.center,
-          `${c.label} is smaller than the ${mm(D)} tool: it must be drilled (or cut with a smaller bit)`));
+          `${c.label} is smaller than the ${mm(D, 3)} tool: it must be drilled (or cut with a smaller bit)`));
       }
       continue;
     }
     if (vanishesForTool(c.loop, R)) {
       blocked.add(c.index);
       out.push(finding(BIT_RULE, 'error', name, null, D, 'mm', mid(c.bbox.slice(0, 2) as unknown as Vec2, c.bbox.slice(2) as unknown as Vec2),
-        `${c.label}: the ${mm(D)} tool cannot enter this cut-out at all; widen it or choose a smaller bit`));
+        `${c.label}: the ${mm(D, 3)} tool cannot enter this cut-out at all; widen it or choose a smaller bit`));
     }
   }
   const gaps = new Map<number, Chord[]>();
@@ -90,7 +90,7 @@ export function bitReachRule(ix: PartIndex, o: CheckOptions, chords: readonly Ch
     blocked.add(k);
     const narrowest = list.reduce((m, c) => (c.widthMm < m.widthMm ? c : m));
     out.push(finding(BIT_RULE, 'error', name, narrowest.widthMm, D, 'mm', mid(narrowest.p, narrowest.q),
-      `${ix.contours[k].label}: gap ${mm(narrowest.widthMm)} is narrower than the ${mm(D)} tool${list.length > 1 ? ` (${list.length} places)` : ''}; it cannot be cut as drawn`));
+      `${ix.contours[k].label}: gap ${mm(narrowest.widthMm)} is narrower than the ${mm(D, 3)} tool${list.length > 1 ? ` (${list.length} places)` : ''}; it cannot be cut as drawn`));
   }
   for (const c of ix.contours) {
     if (blocked.has(c.index)) continue;

@@ -10,3 +10,5 @@ export * from './weave.js';
 export * from './camera.js';
 export * from './props.js';
 export * from './report.js';
+export * from './text.js';
+export * from './annotate.js';

@@ -84,13 +84,13 @@ const cameraView = z
 
 export const ChecksSchema = z
   .object({
-    'web-width': webWidth.prefault({}),
-    'hole-edge-distance': holeEdge.prefault({}),
-    'bit-reach': bitReach.prefault({}),
-    'weave-direction': weave.prefault({}),
-    'hole-stress': holeStress.prefault({}),
-    'prop-clearance': propClearance.prefault({}),
-    'camera-view': cameraView.prefault({}),
+    'web-width': webWidth.prefault({}).describe('narrowest material between contours and inside one contour'),
+    'hole-edge-distance': holeEdge.prefault({}).describe('bolt hole centre to free edge (e/D) and bolt pitch'),
+    'bit-reach': bitReach.prefault({}).describe('inside corners, gaps and holes against the router bit'),
+    'weave-direction': weave.prefault({}).describe('strut direction against the weave, Ex(θ) by laminate theory'),
+    'hole-stress': holeStress.prefault({}).describe('stress concentration at bolt holes in struts (information)'),
+    'prop-clearance': propClearance.prefault({}).describe('prop tip gaps and prop discs against plates and standoffs'),
+    'camera-view': cameraView.prefault({}).describe('prop discs inside the camera view'),
   })
   .strict()
   .describe('design-rule limits; every key optional (see the README, "Design-rule checks")');

@@ -1,0 +1,52 @@
+import type { CheckReport, Finding } from './types.js';
+
+/** The cautions every check report ends with (see README, Safety). */
+export const CHECK_CAUTIONS: readonly string[] = [
+  'Structural figures are estimates from idealised models, not a certification.',
+  'Carbon dust is respirable and conductive: cut wet or with on-tool H-class/HEPA extraction, wear a P3/P100 respirator and eye protection, keep electronics sealed.',
+  'Test a new frame with the props off first; follow local regulations and your shop\'s practice.',
+];
+
+const num = (x: number | null, unit: string): string => {
+  if (x === null) return '—';
+  const v = Math.abs(x) >= 100 ? x.toFixed(1) : x.toFixed(2);
+  return unit === 'mm' ? `${v} mm` : unit ? `${v} ${unit}` : v;
+};
+
+function line(f: Finding): string {
+  const sev = f.severity === 'error' ? 'ERROR  ' : f.severity === 'warning' ? 'warning' : 'info   ';
+  const value = f.measured === null ? '' : ` ${num(f.measured, f.unit)}${f.limit === null ? '' : ` (limit ${num(f.limit, f.unit)})`}`;
+  const at = f.atMm ? ` at (${f.atMm[0].toFixed(2)}, ${f.atMm[1].toFixed(2)})` : '';
+  return `  ${sev} ${f.rule}${value}${at}\n           ${f.message}`;
+}
+
+/** One-line summary, e.g. "2 errors, 5 warnings, 9 notes". */
+export function summaryLine(r: CheckReport): string {
+  const notes = r.findings.filter((f) => f.severity === 'info').length;
+  const plural = (n: number, w: string): string => `${n} ${w}${n === 1 ? '' : 's'}`;
+  return `${plural(r.summary.errors, 'error')}, ${plural(r.summary.warnings, 'warning')}, ${plural(notes, 'note')}`;
+}
+
+/**
+ * The report as plain text for a terminal: findings grouped by part (severity, rule, measured
+ * value, limit, location, advice; part coordinates for parts, frame coordinates for "frame"), a
+ * footer with the counts and the safety cautions. Deterministic.
+ */
+export function formatCheckReport(r: CheckReport, heading: string): string {
+  const out: string[] = [heading, ''];
+  const names = [...r.parts.map((p) => p.name), ...new Set(r.findings.map((f) => f.part).filter((n) => !r.parts.some((p) => p.name === n)))];
+  for (const name of names) {
+    const p = r.parts.find((q) => q.name === name);
+    const m = p?.metrics;
+    const facts = p
+      ? ` (${p.thicknessMm} mm, ${p.contours} contours, min web ${num(m!.minWebMm, 'mm')}, min e/D ${num(m!.minEdgeRatio, '')})`
+      : name === 'frame' ? ' (frame coordinates: x forward, y left)' : '';
+    out.push(`${name || '(file)'}${facts}`);
+    const fs = r.findings.filter((f) => f.part === name);
+    if (fs.length === 0) out.push('  no findings');
+    for (const f of fs) out.push(line(f));
+    out.push('');
+  }
+  out.push(`${summaryLine(r)}.`, '', ...CHECK_CAUTIONS.map((c) => `Caution: ${c}`), '');
+  return out.join('\n');
+}

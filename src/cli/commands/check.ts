@@ -1,0 +1,118 @@
+import type { Command } from 'commander';
+import { join } from 'node:path';
+import {
+  checkFrame,
+  formatCheckReport,
+  frameAnnotation,
+  optionsForDesign,
+  parseLimits,
+  partMarkers,
+  relieveCornersDetailed,
+  type CheckOptions,
+  type CheckReport,
+} from '../../checks/index.js';
+import { frameFindingsOverlay, markersOverlay } from '../../export/svgFindings.js';
+import { partToSvg } from '../../export/svgPart.js';
+import { frameOverviewSvg } from '../../export/svgOverview.js';
+import { buildFrame, type Frame, type Part } from '../../geometry/index.js';
+import { DesignError } from '../../params/errors.js';
+import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
+
+export type CheckCliOptions = { json?: boolean; annotate?: string; relieveCorners?: boolean; tool?: string; limit?: string[] };
+
+/** What `check` works on. The DXF import adds a branch here (a `.dxf` path gives parts without a frame). */
+type CheckInput = Readonly<{ kind: 'design'; frame: Frame }>;
+
+/** Load the thing to check from a path (the only file access of this command besides --annotate). */
+function loadCheckInput(path: string): CheckInput {
+  return { kind: 'design', frame: buildFrame(readDesign(path)) };
+}
+
+/**
+ * `--limit RULE.KEY=VALUE` pairs as a nested object (numbers and true/false), merged over the
+ * design's `checks` section. Throws UsageError on a malformed pair; the schema judges the rest.
+ */
+export function parseLimitFlags(pairs: readonly string[]): Record<string, Record<string, unknown>> {
+  const out: Record<string, Record<string, unknown>> = {};
+  for (const pair of pairs) {
+    const m = /^([a-z0-9-]+)\.([A-Za-z0-9]+)=(.+)$/.exec(pair.trim());
+    if (!m) throw new UsageError(`--limit ${JSON.stringify(pair)}: expected RULE.KEY=VALUE, e.g. web-width.minMm=2`);
+    const [, rule, key, text] = m;
+    const value = text === 'true' ? true : text === 'false' ? false : Number(text);
+    if (typeof value === 'number' && !Number.isFinite(value)) throw new UsageError(`--limit ${pair}: ${JSON.stringify(text)} is not a number (or true/false)`);
+    (out[rule] ??= {})[key] = value;
+  }
+  return out;
+}
+
+/** The design's limits with the command-line ones on top; throws DesignError naming `checks.RULE.KEY`. */
+export function mergedOptions(frame: Frame, opts: CheckCliOptions): CheckOptions {
+  const flags = parseLimitFlags(opts.limit ?? []);
+  const base = frame.design.checks as Record<string, Record<string, unknown>>;
+  const merged: Record<string, unknown> = { ...base };
+  for (const [rule, keys] of Object.entries(flags)) merged[rule] = { ...(base[rule] ?? {}), ...keys };
+  const limits = parseLimits(merged);
+  let toolDiameterMm: number | undefined;
+  if (opts.tool !== undefined) {
+    toolDiameterMm = Number(opts.tool);
+    if (!Number.isFinite(toolDiameterMm) || toolDiameterMm < 0.3 || toolDiameterMm > 12) {
+      throw new DesignError([{ path: '--tool', value: opts.tool, message: 'must be a router bit diameter from 0.3 to 12 mm' }]);
+    }
+  }
+  return optionsForDesign(frame.design, { limits, ...(toolDiameterMm !== undefined ? { toolDiameterMm } : {}) });
+}
+
+/** Apply dogbone reliefs to every part of the frame; returns the edited frame and the counts. */
+export function relieveFrame(frame: Frame, toolDiameterMm: number): { frame: Frame; added: number; skipped: number } {
+  let added = 0;
+  let skipped = 0;
+  const parts: Part[] = frame.parts.map((p) => {
+    const r = relieveCornersDetailed(p, toolDiameterMm);
+    added += r.added;
+    skipped += r.skipped;
+    return r.part;
+  });
+  return { frame: { ...frame, parts }, added, skipped };
+}
+
+/** Annotated SVG files: one per part with its findings marked, and the overview with props and camera view. */
+export function annotatedFiles(frame: Frame, report: CheckReport, dir: string, o: CheckOptions): OutputFile[] {
+  const files: OutputFile[] = frame.parts.map((p) => ({
+    path: join(dir, `${p.name}.check.svg`),
+    data: partToSvg(p, { marginMm: 4, overlay: markersOverlay(partMarkers(report, p.name)), comment: `${p.name}: numbered markers follow the order of the check report` }),
+  }));
+  const a = frameAnnotation(frame, report, o);
+  files.push({ path: join(dir, 'overview.check.svg'), data: frameOverviewSvg(frame, { overlay: frameFindingsOverlay(a), extraBBox: a.bbox }) });
+  return files;
+}
+
+export function registerCheck(program: Command): void {
+  program
+    .command('check')
+    .description('design-rule checks before cutting: webs, hole edges, router-bit reach, weave direction, hole stress, prop clearance, props in the camera view')
+    .argument('<design>', 'design file (YAML or JSON)')
+    .option('--json', 'print the report as JSON (the report contract in the README)')
+    .option('--annotate <dir>', 'write an SVG per part with each finding marked, and an overview with prop discs and the camera view')
+    .option('--relieve-corners', 'add dogbone reliefs to sharp inside corners of slots and cut-outs, then check the edited parts')
+    .option('--tool <mm>', 'router bit diameter in mm (default: cutting.toolDiameterMm of the design)')
+    .option('--limit <rule.key=value...>', 'override a limit of the checks section, e.g. --limit web-width.minMm=2 (repeatable)')
+    .action((path: string, opts: CheckCliOptions) => {
+      const input = loadCheckInput(path);
+      let frame = input.frame;
+      const o = mergedOptions(frame, opts);
+      let reliefNote = '';
+      if (opts.relieveCorners) {
+        const r = relieveFrame(frame, o.toolDiameterMm);
+        frame = r.frame;
+        reliefNote = `Corner relief: ${r.added} dogbone${r.added === 1 ? '' : 's'} added${r.skipped ? `, ${r.skipped} corner${r.skipped === 1 ? '' : 's'} too tight to relieve` : ''}; the report below is for the relieved parts.\n`;
+      }
+      const report = checkFrame(frame, o);
+      if (opts.annotate) writeAllAtomically(annotatedFiles(frame, report, opts.annotate, o));
+      if (opts.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
+      else {
+        const heading = `framewright check: ${frame.name} rev ${frame.revision} (router bit ${o.toolDiameterMm.toFixed(3)} mm)`;
+        process.stdout.write(`${reliefNote}${formatCheckReport(report, heading)}`);
+      }
+      process.exitCode = report.summary.errors > 0 ? 1 : 0;
+    });
+}
