@@ -1,0 +1,145 @@
+import { describe, expect, it } from 'vitest';
+import { lengthOf, pointAt, signedArea, type Segment } from '../../src/geometry/index.js';
+import { bulgeSegment, DxfReadError, ellipseCurve, fitArcs, importDxf, nurbsCurve, parseDrawingUnit, unitFromInsunits } from '../../src/import/index.js';
+import { fixtureText } from './helpers.js';
+
+/** A minimal R12-style ASCII DXF around the given ENTITIES pairs. */
+function dxf(entities: string, header = '0\nSECTION\n2\nHEADER\n9\n$INSUNITS\n70\n4\n0\nENDSEC\n'): string {
+  return `${header}0\nSECTION\n2\nENTITIES\n${entities}0\nENDSEC\n0\nEOF\n`;
+}
+const rect = (x0: number, y0: number, x1: number, y1: number, layer = '0'): string =>
+  `0\nLWPOLYLINE\n8\n${layer}\n90\n4\n70\n1\n10\n${x0}\n20\n${y0}\n10\n${x1}\n20\n${y0}\n10\n${x1}\n20\n${y1}\n10\n${x0}\n20\n${y1}\n`;
+
+describe('bulges (DXF Reference: bulge = tan(θ/4), negative clockwise)', () => {
+  it('90° → 0.414213562, 180° → 1; radius R = c(1 + b²)/(4b)', () => {
+    const quarter = bulgeSegment([10, 0], [0, 10], 0.414213562) as Extract<Segment, { kind: 'arc' }>;
+    expect(quarter.sweepRad).toBeCloseTo(Math.PI / 2, 8);
+    expect(quarter.radius).toBeCloseTo((Math.hypot(10, 10) * (1 + 0.414213562 ** 2)) / (4 * 0.414213562), 9);
+    expect(quarter.center[0]).toBeCloseTo(0, 7);
+    expect(quarter.center[1]).toBeCloseTo(0, 7);
+    const half = bulgeSegment([0, 0], [10, 0], 1) as Extract<Segment, { kind: 'arc' }>;
+    expect(half.sweepRad).toBeCloseTo(Math.PI, 12);
+    expect(half.radius).toBeCloseTo(5, 12);
+    // counter-clockwise from (0,0) to (10,0) bulges below the chord
+    expect(pointAt(half, 0.5)[1]).toBeCloseTo(-5, 12);
+    const cw = bulgeSegment([0, 0], [10, 0], -1);
+    expect(pointAt(cw, 0.5)[1]).toBeCloseTo(5, 12);
+  });
+});
+
+describe('units ($INSUNITS per the DXF Reference)', () => {
+  it('maps 1 inch, 4 mm, 5 cm, 6 m; 0 is unitless', () => {
+    expect(unitFromInsunits(1)).toBe('in');
+    expect(unitFromInsunits(4)).toBe('mm');
+    expect(unitFromInsunits(5)).toBe('cm');
+    expect(unitFromInsunits(6)).toBe('m');
+    expect(unitFromInsunits(0)).toBeNull();
+    expect(parseDrawingUnit('Inches')).toBe('in');
+    expect(parseDrawingUnit('parsec')).toBeNull();
+  });
+
+  it('cm file: a 5 × 3 cm rectangle is 1500 mm²', () => {
+    const r = importDxf(dxf(rect(0, 0, 5, 3), '0\nSECTION\n2\nHEADER\n9\n$INSUNITS\n70\n5\n0\nENDSEC\n'), { name: 'p', thicknessMm: 2 });
+    expect(signedArea(r.parts[0].outline)).toBeCloseTo(1500, 9);
+  });
+});
+
+describe('curves fitted by arcs', () => {
+  it('an ellipse 10 × 4: within the tolerance of the implicit equation, area πab (Archimedes), tangent-continuous', () => {
+    const tol = 0.002;
+    const segs = fitArcs(ellipseCurve([0, 0], [10, 0], [0, 4], 0, 2 * Math.PI), tol);
+    for (const s of segs) {
+      for (const t of [0, 0.25, 0.5, 0.75, 1]) {
+        const [x, y] = pointAt(s, t);
+        // distance to the ellipse ≈ |F| / |∇F| for F = x²/a² + y²/b² − 1
+        const F = (x * x) / 100 + (y * y) / 16 - 1;
+        const g = Math.hypot((2 * x) / 100, (2 * y) / 16);
+        expect(Math.abs(F) / g).toBeLessThan(tol * 1.01);
+      }
+    }
+    const area = signedArea(segs);
+    expect(Math.abs(area - Math.PI * 40) / (Math.PI * 40)).toBeLessThan(1e-4);
+    // Ramanujan's second perimeter approximation, error ~1e-10 relative at this eccentricity
+    const h = (10 - 4) ** 2 / (10 + 4) ** 2;
+    const perimeter = Math.PI * 14 * (1 + (3 * h) / (10 + Math.sqrt(4 - 3 * h)));
+    expect(Math.abs(segs.reduce((a, s) => a + lengthOf(s), 0) - perimeter) / perimeter).toBeLessThan(1e-4);
+  });
+
+  it('a rational quadratic B-spline circle (Piegl & Tiller, The NURBS Book, 9-point circle) is exact', () => {
+    const w = Math.SQRT1_2;
+    const c = nurbsCurve(
+      [[1, 0], [1, 1], [0, 1], [-1, 1], [-1, 0], [-1, -1], [0, -1], [1, -1], [1, 0]],
+      [1, w, 1, w, 1, w, 1, w, 1],
+      [0, 0, 0, 1, 1, 2, 2, 3, 3, 4, 4, 4],
+      2,
+    );
+    for (let t = 0; t <= 4; t += 0.137) expect(Math.hypot(...c.point(t))).toBeCloseTo(1, 12);
+  });
+
+  it('refuses inconsistent spline data with a finding, not a crash', () => {
+    const bad = '0\nSPLINE\n8\n0\n71\n3\n40\n0\n40\n1\n10\n0\n20\n0\n10\n1\n20\n1\n';
+    const r = importDxf(dxf(bad + rect(0, 0, 50, 30)), { name: 'p', thicknessMm: 2 });
+    expect(r.findings.find((f) => f.rule === 'dxf-bad-entity')?.message).toMatch(/SPLINE .*knots/);
+    expect(r.parts).toHaveLength(1);
+  });
+});
+
+describe('robust reading: a clear DxfReadError, never a crash or a hang', () => {
+  const read = (text: string) => () => importDxf(text, { name: 'p', thicknessMm: 2 });
+
+  it('binary DXF (written by ezdxf) is refused by its sentinel', () => {
+    expect(read(fixtureText('binary.dxf'))).toThrow(/binary DXF/);
+  });
+
+  it('text that is not DXF', () => {
+    expect(read('<svg xmlns="http://www.w3.org/2000/svg"></svg>\n')).toThrow(/not a DXF file/);
+    expect(read('')).toThrow(/empty/);
+    expect(read('%PDF-1.4\n1 0 obj\n')).toThrow(DxfReadError);
+  });
+
+  it('truncated files: mid-pair, mid-section, mid-block', () => {
+    const full = fixtureText('line-arc-plate.dxf');
+    const lines = full.split('\n');
+    const entitiesAt = lines.findIndex((l) => l.trim() === 'ENTITIES');
+    expect(read(lines.slice(0, entitiesAt + 40).join('\n'))).toThrow(/truncated/);
+    expect(read(lines.slice(0, entitiesAt + 41).join('\n'))).toThrow(/truncated/);
+    const blocksAt = lines.findIndex((l) => l.trim() === 'BLOCKS');
+    expect(read(lines.slice(0, blocksAt + 10).join('\n'))).toThrow(/truncated/);
+  });
+
+  it('a non-number where a coordinate belongs names the line', () => {
+    expect(read(dxf('0\nLINE\n8\n0\n10\nabc\n20\n0\n11\n1\n21\n1\n'))).toThrow(/line \d+: group code 10 needs a number, found "abc"/);
+  });
+
+  it('absurd coordinates and entity counts hit the limits', () => {
+    expect(read(dxf('0\nLINE\n8\n0\n10\n1e300\n20\n0\n11\n1\n21\n1\n'))).toThrow(/beyond the reader's limit/);
+    const many = '0\nLINE\n8\n0\n10\n0\n20\n0\n11\n1\n21\n1\n'.repeat(50);
+    expect(() => importDxf(dxf(many), { name: 'p', limits: { maxPairs: 1e6, maxEntities: 20, maxBlockDepth: 8, maxCoordinateMm: 1e6 } })).toThrow(/more than 20 entities/);
+  });
+
+  it('a block that inserts itself, and an array insert of absurd size', () => {
+    const blocks = '0\nSECTION\n2\nBLOCKS\n0\nBLOCK\n2\nLOOP\n10\n0\n20\n0\n0\nINSERT\n8\n0\n2\nLOOP\n10\n1\n20\n0\n0\nENDBLK\n0\nENDSEC\n';
+    const text = `0\nSECTION\n2\nHEADER\n0\nENDSEC\n${blocks}0\nSECTION\n2\nENTITIES\n0\nINSERT\n8\n0\n2\nLOOP\n10\n0\n20\n0\n0\nENDSEC\n0\nEOF\n`;
+    expect(read(text)).toThrow(/inserts itself/);
+    const arrayed = text.replace('0\nINSERT\n8\n0\n2\nLOOP\n10\n0\n20\n0\n0\nENDSEC\n0\nEOF', '0\nINSERT\n8\n0\n2\nLOOP\n70\n100000\n71\n100000\n10\n0\n20\n0\n0\nENDSEC\n0\nEOF');
+    expect(read(arrayed)).toThrow(/beyond the reader's limit/);
+  });
+
+  it('a missing block is an error finding, the rest is read', () => {
+    const r = importDxf(dxf('0\nINSERT\n8\n0\n2\nGHOST\n10\n0\n20\n0\n' + rect(0, 0, 50, 30)), { name: 'p', thicknessMm: 2 });
+    expect(r.findings.find((f) => f.rule === 'dxf-missing-block')!.severity).toBe('error');
+    expect(r.parts).toHaveLength(1);
+  });
+
+  it('an empty drawing has no parts and says so', () => {
+    const r = importDxf(dxf(''), { name: 'p', thicknessMm: 2 });
+    expect(r.parts).toHaveLength(0);
+    expect(r.findings.find((f) => f.rule === 'dxf-no-parts')!.severity).toBe('error');
+  });
+
+  it('a (0, 0, −1) extrusion mirrors x (arbitrary axis algorithm): a circle drawn at OCS x = 10 lands at x = −10', () => {
+    const r = importDxf(dxf('0\nCIRCLE\n8\n0\n10\n10\n20\n5\n40\n20\n210\n0\n220\n0\n230\n-1\n'), { name: 'p', thicknessMm: 2 });
+    const outline = r.parts[0].outline[0] as Extract<Segment, { kind: 'arc' }>;
+    expect(outline.center).toEqual([-10, 5]);
+  });
+});
