@@ -3,3 +3,6 @@ export * from './cutData.js';
 export * from './nest.js';
 export * from './time.js';
 export * from './quote.js';
+export * from './drawing.js';
+export * from './drawingLayout.js';
+export * from './report.js';
