@@ -1,0 +1,103 @@
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { filletedUnion } from '../../src/geometry/arm.js';
+import { segmentDistance } from '../../src/geometry/distance.js';
+import { arcSlot, circle, roundedRect, slot } from '../../src/geometry/primitives.js';
+import { arc, line } from '../../src/geometry/segment.js';
+import { checkOptions, checkPart, contourPairsWithin, edgeDistance, boltHoles } from '../../src/checks/index.js';
+import { indexPart } from '../../src/checks/partIndex.js';
+import { pythonModuleAvailable, requireTool, runPythonJson } from '../helpers/reference.js';
+import { fine, roundHole, testPart } from './parts.js';
+
+const SCRIPT = join(import.meta.dirname, 'shapely_webs.py');
+const hasShapely = requireTool(pythonModuleAvailable('shapely'), 'python3-shapely');
+
+type Ref = { pairs: number[]; points: number[]; necks: number[] };
+
+/** A plate with round holes, a straight slot, an arc slot and a rounded cut-out: lines and arcs everywhere. */
+const plate = testPart(roundedRect([0, 0], 80, 40, 6), [
+  roundHole([-33, -14], 3.4),
+  { shape: slot([-10, 14], [10, 14], 3.4), kind: 'slot' },
+  { shape: roundedRect([15, -5], 14, 10, 3), kind: 'cutout' },
+  roundHole([15, 6], 3.4),
+  { shape: arcSlot([-20, 0], 8, -Math.PI / 3, (2 * Math.PI) / 3, 3), kind: 'slot' },
+  roundHole([31, 13], 2.4),
+]);
+
+describe('exact segment distances (hand-computed cases)', () => {
+  it('line–line, line–arc and arc–arc closed forms', () => {
+    // Parallel lines 3 apart: 3.
+    expect(segmentDistance(line([0, 0], [10, 0]), line([2, 3], [8, 3])).distance).toBeCloseTo(3, 12);
+    // Line y = 0 to a full circle of radius 2 at (5, 5): 5 − 2 = 3.
+    expect(segmentDistance(line([0, 0], [10, 0]), arc([5, 5], 2, 0, 2 * Math.PI)).distance).toBeCloseTo(3, 12);
+    // Upper half circle at (5, 5) faces away from the line: its ends (3, 5) and (7, 5) are 5 away.
+    expect(segmentDistance(line([0, 0], [10, 0]), arc([5, 5], 2, 0, Math.PI)).distance).toBeCloseTo(5, 12);
+    // Circles r 1 and 2 with centres 10 apart: 10 − 3 = 7.
+    expect(segmentDistance(arc([0, 0], 1, 0, 2 * Math.PI), arc([10, 0], 2, 0, 2 * Math.PI)).distance).toBeCloseTo(7, 12);
+    // Crossing lines: 0.
+    expect(segmentDistance(line([0, 0], [2, 2]), line([0, 2], [2, 0])).distance).toBe(0);
+  });
+});
+
+describe('web widths and edge distances against Shapely (python3-shapely, to 0.01 mm)', () => {
+  it.runIf(hasShapely)('every contour pair of a plate with arcs and slots', () => {
+    const ix = indexPart(plate);
+    const ours = contourPairsWithin(ix, 1000);
+    const ref = runPythonJson<Ref>(SCRIPT, { rings: ix.contours.map((c) => fine(c.loop)), pairs: ours.map((p) => [p.a, p.b]) });
+    expect(ours.length).toBe((7 * 6) / 2); // every pair of the 7 contours
+    ours.forEach((p, k) => expect(Math.abs(p.distance - ref.pairs[k]), `pair ${p.a}-${p.b}`).toBeLessThan(0.01));
+    const m = checkPart(plate, checkOptions()).metrics.metrics;
+    const edge = ours.filter((p) => p.b === 0).map((p) => p.distance);
+    expect(m.minHoleEdgeWebMm).toBeCloseTo(Math.min(...edge), 4);
+  });
+
+  it.runIf(hasShapely)('hole centre to the nearest free edge (outline and non-round contours)', () => {
+    const ix = indexPart(plate);
+    const holes = boltHoles(ix);
+    expect(holes.length).toBe(3);
+    const free = ix.contours.filter((c) => c.feature?.diameterMm === undefined).map((c) => c.index);
+    const ref = runPythonJson<Ref>(SCRIPT, { rings: ix.contours.map((c) => fine(c.loop)), points: holes.map((h) => ({ p: h.center, rings: free })) });
+    holes.forEach((h, k) => expect(Math.abs(edgeDistance(ix, h)!.eMm - ref.points[k])).toBeLessThan(0.01));
+  });
+
+  it.runIf(hasShapely)('the narrowest neck: a thin strut and an arc-filleted waist', () => {
+    // Two discs joined by a 2.5 mm strut, fillets 1.5 mm.
+    const strut = filletedUnion([circle([-14, 0], 8), circle([14, 0], 8), slot([-14, 0], [14, 0], 2.5)], 1.5).outline;
+    // Two overlapping discs r 10, centres 19 apart, waist filleted with r 3. By hand: fillet centre at
+    // (0, y) with distance r + 3 = 13 to each disc centre, y = √(13² − 9.5²) = 8.8741; neck = 2(y − 3).
+    const waist = filletedUnion([circle([-9.5, 0], 10), circle([9.5, 0], 10)], 3).outline;
+    const byHand = 2 * (Math.sqrt(13 ** 2 - 9.5 ** 2) - 3);
+    const ref = runPythonJson<Ref>(SCRIPT, { rings: [fine(strut), fine(waist)], necks: [{ ring: 0, hi: 16 }, { ring: 1, hi: 20 }] });
+    const o = checkOptions();
+    const strutNeck = checkPart(testPart(strut, []), o).metrics.metrics.minWebMm!;
+    const waistNeck = checkPart(testPart(waist, []), o).metrics.metrics.minWebMm!;
+    expect(Math.abs(strutNeck - ref.necks[0])).toBeLessThan(0.01);
+    expect(Math.abs(waistNeck - ref.necks[1])).toBeLessThan(0.01);
+    expect(strutNeck).toBeCloseTo(2.5, 4); // metrics are rounded to 4 decimals
+    expect(waistNeck).toBeCloseTo(byHand, 4);
+  });
+});
+
+describe('web-width rule', () => {
+  it('flags the thin strut as an error at its middle, with the limit from thickness', () => {
+    const strut = filletedUnion([circle([-14, 0], 8), circle([14, 0], 8), slot([-14, 0], [14, 0], 1.2)], 1).outline;
+    // 2 mm plate: limit max(1.5, 0.4 × 2) = 1.5 mm (defaults).
+    const r = checkPart(testPart(strut, []), checkOptions());
+    const f = r.findings.filter((x) => x.rule === 'web-width');
+    expect(f.length).toBeGreaterThan(0);
+    expect(f[0].severity).toBe('error');
+    expect(f[0].measured).toBeCloseTo(1.2, 6);
+    expect(f[0].limit).toBe(1.5);
+    expect(Math.abs(f[0].atMm![1])).toBeLessThan(1e-6);
+  });
+
+  it('two holes 1 mm apart: error; 1.7 mm apart: warning (below 1.5 × 1.25)', () => {
+    const two = (gap: number) => testPart(roundedRect([0, 0], 40, 30, 3), [roundHole([-1.7 - gap / 2, 0], 3.4), roundHole([1.7 + gap / 2, 0], 3.4)]);
+    const o = checkOptions();
+    const e = checkPart(two(1), o).findings.filter((x) => x.rule === 'web-width');
+    expect(e.map((x) => [x.severity, x.measured])).toEqual([['error', 1]]);
+    const w = checkPart(two(1.7), o).findings.filter((x) => x.rule === 'web-width');
+    expect(w.map((x) => [x.severity, x.measured])).toEqual([['warning', 1.7]]);
+    expect(checkPart(two(2), o).findings.filter((x) => x.rule === 'web-width')).toEqual([]);
+  });
+});
