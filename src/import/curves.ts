@@ -14,6 +14,8 @@ export type ParamCurve = Readonly<{
 
 const MAX_DEPTH = 18;
 const SAMPLES = 8;
+/** Spans one curve may be split into before it is refused (keeps a wild spline from taking seconds). */
+const MAX_SPANS = 20_000;
 
 /**
  * Replace a smooth curve by tangent-continuous arcs (biarcs) within tolMm of it: each span gets
@@ -31,8 +33,10 @@ export function fitArcs(c: ParamCurve, tolMm: number): Segment[] {
     const k = Math.max(1, Math.ceil((minSpans * (b - a)) / (c.t1 - c.t0)));
     for (let j = 0; j < k; j++) pieces.push([a + ((b - a) * j) / k, a + ((b - a) * (j + 1)) / k]);
   }
+  if (pieces.length > MAX_SPANS) throw new Error(`the curve has more than ${MAX_SPANS} pieces`);
   const out: Segment[] = [];
-  for (const [a, b] of pieces) fitSpan(c, a, b, tolMm, 0, out);
+  const budget = { spans: MAX_SPANS };
+  for (const [a, b] of pieces) fitSpan(c, a, b, tolMm, 0, out, budget);
   return out;
 }
 
@@ -50,7 +54,8 @@ function unitTangent(c: ParamCurve, t: number, fromRight: boolean): Vec2 | null 
   return [d[0] / l, d[1] / l];
 }
 
-function fitSpan(c: ParamCurve, ta: number, tb: number, tol: number, depth: number, out: Segment[]): void {
+function fitSpan(c: ParamCurve, ta: number, tb: number, tol: number, depth: number, out: Segment[], budget: { spans: number }): void {
+  if (--budget.spans < 0) throw new Error(`the curve needs more than ${MAX_SPANS} arcs to stay within ${tol} mm`);
   const p0 = c.point(ta);
   const p1 = c.point(tb);
   const t0 = unitTangent(c, ta, true);
@@ -76,8 +81,8 @@ function fitSpan(c: ParamCurve, ta: number, tb: number, tol: number, depth: numb
     return;
   }
   const tm = (ta + tb) / 2;
-  fitSpan(c, ta, tm, tol, depth + 1, out);
-  fitSpan(c, tm, tb, tol, depth + 1, out);
+  fitSpan(c, ta, tm, tol, depth + 1, out, budget);
+  fitSpan(c, tm, tb, tol, depth + 1, out, budget);
 }
 
 /** Distance from q to the curve between ta and tb: coarse samples, then a ternary search. */
@@ -161,8 +166,15 @@ export function nurbsCurve(ctrl: readonly Vec2[], weights: readonly number[], kn
   if (w.some((x) => !(x > 0))) throw new Error('weights must be positive');
   const point = (tRaw: number): Vec2 => {
     const t = Math.min(t1, Math.max(t0, tRaw));
-    let k = p;
-    while (k < n - 1 && t >= knots[k + 1]) k++;
+    // Knot span by bisection: the largest k in [p, n − 1] with knots[k] <= t.
+    let lo = p;
+    let hi = n - 1;
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (knots[mid] <= t) lo = mid;
+      else hi = mid - 1;
+    }
+    const k = lo;
     const dx: number[] = [];
     const dy: number[] = [];
     const dw: number[] = [];
