@@ -1,0 +1,63 @@
+import { describe, expect, it } from 'vitest';
+import { buildFrame } from '../../src/geometry/index.js';
+import { validateDesign } from '../../src/params/index.js';
+import { cameraViewRule, checkFrame, checkOptions, discViewMargin, optionsForDesign, propDiscs, smallestHiding, type CameraPose } from '../../src/checks/index.js';
+import { designWith } from '../helpers/demo.js';
+
+const rad = (d: number): number => (d * Math.PI) / 180;
+
+describe('props in the camera view (pinhole model), cases computed by hand', () => {
+  // Camera 10 mm above the prop plane, level, 120° × 60°. The lower edge of the view is 30° below
+  // horizontal, so it meets the prop plane at x = 10 / tan 30° = 17.3205 mm ahead of the camera.
+  const level: CameraPose = { eyeMm: [0, 0, 10], uptiltRad: 0, hFovRad: rad(120), vFovRad: rad(60) };
+  const edge = 10 / Math.tan(rad(30));
+
+  it('a prop behind the camera whose tip lies exactly on the lower edge of the view', () => {
+    const R = 50 + edge; // disc centred 50 mm behind: its front tip is at x = 17.3205
+    expect(discViewMargin(level, { id: 't', centerMm: [-50, 0], radiusMm: R, zMm: 0 })).toBeCloseTo(0, 9);
+    expect(discViewMargin(level, { id: 't', centerMm: [-50, 0], radiusMm: R - 0.01, zMm: 0 })).toBeCloseTo(0.01, 9);
+    expect(discViewMargin(level, { id: 't', centerMm: [-50, 0], radiusMm: R + 0.01, zMm: 0 })).toBeCloseTo(-0.01, 9);
+  });
+
+  it('with 10° uptilt the edge moves out to 10 / tan 20° = 27.4748 mm', () => {
+    const up: CameraPose = { ...level, uptiltRad: rad(10) };
+    expect(discViewMargin(up, { id: 't', centerMm: [-50, 0], radiusMm: 50 + 10 / Math.tan(rad(20)), zMm: 0 })).toBeCloseTo(0, 9);
+  });
+
+  it('a tip on the side edge: eye in the prop plane, 90° horizontal field, edge y = x', () => {
+    const side: CameraPose = { eyeMm: [0, 0, 5], uptiltRad: 0, hFovRad: rad(90), vFovRad: rad(60) };
+    // Disc at (0, 100): its distance to the line y = x is 100/√2 = 70.7107, met at (50, 50), inside the ray.
+    expect(discViewMargin(side, { id: 's', centerMm: [0, 100], radiusMm: 100 / Math.SQRT2, zMm: 5 })).toBeCloseTo(0, 9);
+    expect(discViewMargin(side, { id: 's', centerMm: [0, 100], radiusMm: 70, zMm: 5 })).toBeCloseTo(100 / Math.SQRT2 - 70, 9);
+  });
+
+  it('smallest forward position that hides the prop: edge at x_eye + 17.3205 beyond the tip at −50 + 70', () => {
+    const margin = (x: number) => discViewMargin({ ...level, eyeMm: [x, 0, 10] }, { id: 't', centerMm: [-50, 0], radiusMm: 70, zMm: 0 });
+    // Hidden when x + 17.3205 > 20, i.e. x > 2.6795.
+    expect(smallestHiding(margin, -30, 80, 0.5)!).toBeCloseTo(20 - edge, 3);
+  });
+});
+
+describe('camera-view rule on a design', () => {
+  it('the suggested forward offset hides every prop, and 0.5 mm less does not', () => {
+    const raw = designWith('tessel-5.yaml', {});
+    const frame = buildFrame(validateDesign(raw));
+    const o = optionsForDesign(frame.design);
+    const f = cameraViewRule(frame, o, propDiscs(frame));
+    expect(f.filter((x) => x.severity === 'warning').length).toBe(2); // both front props show at the demo setting
+    const info = f.find((x) => x.severity === 'info')!;
+    const off = info.measured!;
+    const at = (offset: number) => {
+      const fr = buildFrame(validateDesign(designWith('tessel-5.yaml', { camera: { forwardOffsetMm: offset } })));
+      return cameraViewRule(fr, optionsForDesign(fr.design), propDiscs(fr)).filter((x) => x.severity === 'warning').length;
+    };
+    expect(at(Math.ceil(off * 100) / 100 + 0.01)).toBe(0);
+    expect(at(off - 0.5)).toBeGreaterThan(0);
+  });
+
+  it('limits from the checks section change the field of view', () => {
+    const frame = buildFrame(validateDesign(designWith('tessel-5.yaml', { checks: { 'camera-view': { horizontalFovDeg: 40, verticalFovDeg: 20 } } })));
+    expect(checkFrame(frame).findings.filter((x) => x.rule === 'camera-view')).toEqual([]);
+    expect(checkOptions().limits['camera-view'].horizontalFovDeg).toBeUndefined();
+  });
+});

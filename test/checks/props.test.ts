@@ -1,0 +1,69 @@
+import { describe, expect, it } from 'vitest';
+import { buildFrame } from '../../src/geometry/index.js';
+import { validateDesign } from '../../src/params/index.js';
+import { checkFrame, propDiscs, tipGaps, type PropDisc } from '../../src/checks/index.js';
+import { designWith } from '../helpers/demo.js';
+
+const frameWith = (patch: Record<string, unknown>) => buildFrame(validateDesign(designWith('tessel-5.yaml', patch)));
+const gapOf = (discs: PropDisc[], a: string, b: string): number => tipGaps(discs).find((g) => (g.a === a && g.b === b) || (g.a === b && g.b === a))!.gapMm;
+const rad = (d: number): number => (d * Math.PI) / 180;
+
+describe('adjacent prop tip gaps', () => {
+  it('square X, wheelbase 220 mm, 5" props → 28.6 mm (reference-values.md [CALC])', () => {
+    const discs = propDiscs(frameWith({ layout: { kind: 'x', wheelbaseMm: 220, armAngleDeg: 45 }, props: { diameter: '5in' } }));
+    // 220/√2 − 127 = 28.5635 mm.
+    expect(gapOf(discs, 'front-left', 'front-right')).toBeCloseTo(220 / Math.SQRT2 - 127, 9);
+    expect(gapOf(discs, 'front-left', 'rear-left')).toBeCloseTo(28.5635, 4);
+    // The diagonal pair is the widest: 220 − 127.
+    expect(tipGaps(discs).at(-1)!.gapMm).toBeCloseTo(93, 9);
+  });
+
+  it('squashed X (arms at 55° from forward), 4" props, computed by hand', () => {
+    const discs = propDiscs(frameWith({ layout: { kind: 'x', wheelbaseMm: 220, armAngleDeg: 55 }, props: { diameter: '4in' } }));
+    // Motors at (±110 cos 55°, ±110 sin 55°) = (±63.0934, ±90.1067); props 101.6 mm.
+    // Front to rear on one side: 2 × 63.0934 − 101.6 = 24.5868; left to right: 2 × 90.1067 − 101.6 = 78.6134.
+    expect(gapOf(discs, 'front-left', 'rear-left')).toBeCloseTo(2 * 110 * Math.cos(rad(55)) - 101.6, 9);
+    expect(gapOf(discs, 'front-left', 'rear-left')).toBeCloseTo(24.5868, 4);
+    expect(gapOf(discs, 'front-left', 'front-right')).toBeCloseTo(78.6134, 4);
+  });
+
+  it('asymmetric layout (front 105 mm at 55°, rear 120 mm at 40°), 5" props, computed by hand', () => {
+    const discs = propDiscs(frameWith({ layout: { kind: 'asymmetric', wheelbaseMm: undefined, armAngleDeg: undefined, front: { reachMm: 105, angleDeg: 55 }, rear: { reachMm: 120, angleDeg: 40 } }, props: { diameter: '5in' } }));
+    // Front-left (60.2255, 86.0110), rear-left (−91.9253, 77.1345): Δ = (152.1508, 8.8765),
+    // |Δ| = √(23149.87 + 78.79) = 152.4095; gap = 152.4095 − 127 = 25.4095.
+    const fl = [105 * Math.cos(rad(55)), 105 * Math.sin(rad(55))];
+    const rl = [-120 * Math.cos(rad(40)), 120 * Math.sin(rad(40))];
+    expect(gapOf(discs, 'front-left', 'rear-left')).toBeCloseTo(Math.hypot(fl[0] - rl[0], fl[1] - rl[1]) - 127, 9);
+    expect(gapOf(discs, 'front-left', 'rear-left')).toBeCloseTo(25.4095, 3);
+    // Across the front: 2 × 86.0110 − 127 = 45.0220; across the rear: 2 × 77.1345 − 127 = 27.2690.
+    expect(gapOf(discs, 'front-left', 'front-right')).toBeCloseTo(45.022, 3);
+    expect(gapOf(discs, 'rear-left', 'rear-right')).toBeCloseTo(27.269, 3);
+  });
+});
+
+describe('prop-clearance rule (planted designs)', () => {
+  it('tip gap below props.minTipGapMm is an error between the two props', () => {
+    // Wheelbase 190, 5.1" (129.54 mm): 190/√2 − 129.54 = 4.81 mm < 6 mm.
+    const r = checkFrame(frameWith({ layout: { kind: 'x', wheelbaseMm: 190, armAngleDeg: 45 } }));
+    const f = r.findings.filter((x) => x.rule === 'prop-clearance' && x.message.includes('prop tips'));
+    expect(f.length).toBe(4);
+    for (const x of f) {
+      expect(x.severity).toBe('error');
+      expect(x.measured).toBeCloseTo(190 / Math.SQRT2 - 129.54, 4);
+      expect(x.limit).toBe(6);
+    }
+  });
+
+  it('a standoff reaching the prop plane within 3 mm of a disc is an error', () => {
+    // Standoffs at (±50, ±17), 5 mm across: motor (79.196, 79.196) to (50, 17) is 68.733 mm;
+    // minus 2.5 and the 64.77 mm prop radius leaves 1.4377 mm.
+    const r = checkFrame(frameWith({ body: { standoffs: { positionsMm: [[50, 17], [50, -17], [-50, 17], [-50, -17]] } } }));
+    const f = r.findings.filter((x) => x.rule === 'prop-clearance' && x.message.includes('standoff'));
+    expect(f.length).toBe(4);
+    const byHand = Math.hypot(112 * Math.cos(Math.PI / 4) - 50, 112 * Math.sin(Math.PI / 4) - 17) - 2.5 - 129.54 / 2;
+    for (const x of f) {
+      expect(x.severity).toBe('error');
+      expect(x.measured).toBeCloseTo(byHand, 4);
+    }
+  });
+});
