@@ -1,0 +1,190 @@
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { circle, polygon, roundedRect, slot } from '../../src/geometry/primitives.js';
+import { loopProblem } from '../../src/geometry/validate.js';
+import { flattenLoop } from '../../src/geometry/loop.js';
+import { dist } from '../../src/geometry/vec.js';
+import {
+  bestWeave,
+  checkFrame,
+  checkOptions,
+  checkPart,
+  checkParts,
+  heywoodKtn,
+  relieveCorners,
+  relieveCornersDetailed,
+} from '../../src/checks/index.js';
+import { partArea } from '../../src/geometry/metrics.js';
+import { DEMO_FILES, demoFrame } from '../helpers/demo.js';
+import { pythonModuleAvailable, requireTool, runPythonJson } from '../helpers/reference.js';
+import { fine, rect, roundHole, testPart, WOVEN_70 } from './parts.js';
+
+const o = checkOptions({ toolDiameterMm: 3.175 });
+const of = (p: ReturnType<typeof testPart>, rule: string, opts = o) => checkPart(p, opts).findings.filter((f) => f.rule === rule);
+
+describe('hole-edge-distance rule (planted parts)', () => {
+  const plate = (e: number) => testPart(rect(0, 0, 40, 30), [{ ...roundHole([e, 15], 3.4), screw: 'M3' as const }]);
+  it('e/D bands: error below 1.5, warning below 2.0 (reference-values.md suggested defaults)', () => {
+    // e = 4.08 → e/D 1.2: error; e = 6.12 → 1.8: warning; e = 7.14 → 2.1: none.
+    expect(of(plate(4.08), 'hole-edge-distance').map((f) => [f.severity, f.measured, f.limit])).toEqual([['error', 1.2, 1.5]]);
+    expect(of(plate(6.12), 'hole-edge-distance').map((f) => [f.severity, f.measured, f.limit])).toEqual([['warning', 1.8, 2]]);
+    expect(of(plate(7.14), 'hole-edge-distance')).toEqual([]);
+    expect(checkPart(plate(4.08), o).metrics.metrics.minEdgeRatio).toBeCloseTo(1.2, 9);
+  });
+  it('pitch/D below 3 between neighbouring bolt holes is a warning', () => {
+    const p = testPart(rect(0, 0, 60, 30), [
+      { ...roundHole([20, 15], 3.4), screw: 'M3' as const },
+      { ...roundHole([28.5, 15], 3.4), screw: 'M3' as const }, // pitch 8.5 = 2.5 D
+    ]);
+    const f = of(p, 'hole-edge-distance');
+    expect(f.map((x) => [x.severity, x.measured, x.unit])).toEqual([['warning', 2.5, 'pitch/D']]);
+    expect(f[0].atMm).toEqual([24.25, 15]);
+  });
+});
+
+describe('bit-reach rule (planted parts)', () => {
+  it('sharp inside corners of a rectangular slot: four warnings, the cutter leaves the tool radius', () => {
+    const p = testPart(rect(0, 0, 40, 30), [{ shape: rect(10, 10, 25, 16), kind: 'slot' }]);
+    const f = of(p, 'bit-reach');
+    expect(f.length).toBe(4);
+    for (const x of f) {
+      expect(x.severity).toBe('warning');
+      expect(x.limit).toBeCloseTo(3.175 / 2, 4);
+    }
+    expect(f.map((x) => x.atMm).sort()).toEqual([[10, 10], [10, 16], [25, 10], [25, 16]].sort());
+  });
+  it('an inside fillet smaller than the tool radius is reported with the radius the cutter leaves', () => {
+    const p = testPart(rect(0, 0, 40, 30), [{ shape: roundedRect([20, 15], 16, 10, 1), kind: 'cutout' }]);
+    const f = of(p, 'bit-reach');
+    expect(f.length).toBe(4);
+    expect(f[0].measured).toBe(1);
+  });
+  it('a channel narrower than the tool is an error; a round hole smaller than the tool must be drilled', () => {
+    // Two 8 × 10 pockets joined by a 2.8 mm channel (y 13.6 to 16.4): the pockets can be cut, the channel not.
+    const dumbbell = polygon([[10, 10], [18, 10], [18, 13.6], [26, 13.6], [26, 10], [34, 10], [34, 20], [26, 20], [26, 16.4], [18, 16.4], [18, 20], [10, 20]]);
+    const p = testPart(rect(0, 0, 44, 30), [{ shape: dumbbell, kind: 'cutout' }, roundHole([22, 25], 2.4)]);
+    const f = of(p, 'bit-reach');
+    expect(f.map((x) => [x.severity, x.measured]).sort()).toEqual([['error', 2.8], ['warning', 2.4]].sort());
+    const at = f.find((x) => x.severity === 'error')!.atMm!;
+    expect(at[1]).toBeCloseTo(15, 9); // on the channel's centre line, between its ends
+    expect(at[0]).toBeGreaterThanOrEqual(18);
+    expect(at[0]).toBeLessThanOrEqual(26);
+    // A 2 mm bit reaches everything except the sharp corners, which it rounds to 1 mm.
+    const two = of(p, 'bit-reach', checkOptions({ toolDiameterMm: 2 }));
+    expect(two.every((x) => x.severity === 'warning' && x.message.includes('sharp inside corner'))).toBe(true);
+  });
+  it('a slot narrower than the tool all along cannot be entered at all', () => {
+    const p = testPart(rect(0, 0, 40, 30), [{ shape: slot([10, 10], [30, 10], 2.8), kind: 'slot' }]);
+    expect(of(p, 'bit-reach').map((x) => x.severity)).toEqual(['error']);
+  });
+  it('a cut-out the tool cannot enter at all (2.5 mm square, 3.175 mm tool) is an error', () => {
+    const p = testPart(rect(0, 0, 40, 30), [{ shape: rect(10, 10, 12.5, 12.5), kind: 'cutout' }]);
+    const f = of(p, 'bit-reach');
+    expect(f.map((x) => x.severity)).toEqual(['error']);
+    expect(f[0].message).toMatch(/cannot enter/);
+  });
+  it('a gap in the outline (a notch) narrower than the tool is an error', () => {
+    const notched = polygon([[0, 0], [40, 0], [40, 30], [21.5, 30], [21.5, 15], [18.5, 15], [18.5, 30], [0, 30]]);
+    const f = of(testPart(notched, []), 'bit-reach').filter((x) => x.severity === 'error');
+    expect(f.length).toBe(1);
+    expect(f[0].measured).toBeCloseTo(3, 9);
+  });
+});
+
+describe('corner relief (dogbones)', () => {
+  const hasShapely = requireTool(pythonModuleAvailable('shapely'), 'python3-shapely');
+  const p = testPart(rect(0, 0, 40, 30), [{ shape: rect(10, 10, 25, 16), kind: 'slot' }]);
+  it('adds one relief per sharp corner, each reaching the corner; the re-check has no corner warnings', () => {
+    const r = relieveCornersDetailed(p, 3.175);
+    expect(r.added).toBe(4);
+    const loop = r.part.features[0].loop;
+    expect(loopProblem(loop)).toBeNull();
+    const arcs = loop.filter((s) => s.kind === 'arc');
+    expect(arcs.length).toBe(4);
+    for (const [x, y] of [[10, 10], [10, 16], [25, 10], [25, 16]]) {
+      // The relief disc passes through the drawn corner, so the cutter reaches it.
+      expect(arcs.some((a) => a.kind === 'arc' && Math.abs(dist(a.center, [x, y]) - a.radius) < 1e-9)).toBe(true);
+    }
+    expect(checkParts([r.part], o).findings.filter((f) => f.rule === 'bit-reach')).toEqual([]);
+  });
+  it.runIf(hasShapely)('relieved area equals Shapely’s union of the slot and the four relief discs', () => {
+    const q = relieveCorners(p, 3.175);
+    const r = 3.175 / 2;
+    const s = r / Math.SQRT2;
+    const centres = [[10 + s, 10 + s], [10 + s, 16 - s], [25 - s, 10 + s], [25 - s, 16 - s]] as const;
+    const slotArea = -(partArea(q) - partArea(testPart(rect(0, 0, 40, 30), [])));
+    const ref = runPythonJson<{ unionArea: number }>(join(import.meta.dirname, '..', 'reference', 'shapely_polygons.py'), {
+      polygons: [],
+      union: [fine(rect(10, 10, 25, 16)), ...centres.map((c) => flattenLoop(circle(c, r), 1e-6))],
+    });
+    expect(Math.abs(slotArea - ref.unionArea)).toBeLessThan(1e-3);
+  });
+  it('leaves round holes and outlines alone', () => {
+    const round = testPart(rect(0, 0, 40, 30), [roundHole([20, 15], 5)]);
+    expect(relieveCorners(round, 3.175)).toBe(round);
+    expect(() => relieveCorners(round, 0)).toThrow(RangeError);
+  });
+});
+
+describe('weave-direction rule', () => {
+  const strut = (angleDeg: number, weaveDeg = 0) => {
+    const a = (angleDeg * Math.PI) / 180;
+    return testPart(rect(-60, -60, 60, 60), [], {
+      weaveRad: (weaveDeg * Math.PI) / 180,
+      members: [{ name: 'strut', startMm: [0, 0], endMm: [50 * Math.cos(a), 50 * Math.sin(a)], widthMm: 8 }],
+    });
+  };
+  it('a strut at 30° to the weave: Ex 21.8 GPa of 70 (reference-values.md [CALC]) → warning, and the best weave is 30°', () => {
+    const f = of(strut(30), 'weave-direction');
+    const w = f.find((x) => x.severity === 'warning')!;
+    expect(w.measured).toBeCloseTo(21.8 / 70, 3);
+    expect(w.message).toMatch(/30\.0° from the nearest fibre direction, Ex 21\.8 GPa/);
+    expect(f.find((x) => x.severity === 'info')!.message).toMatch(/weave at 30\.00°/);
+    expect(bestWeave(WOVEN_70, strut(30).members).minExGpa).toBeCloseTo(70, 6);
+  });
+  it('a strut along the weave is information only', () => {
+    expect(of(strut(90), 'weave-direction').map((x) => x.severity)).toEqual(['info']);
+  });
+  it('two struts 90° apart at 45°: the best weave keeps both on a fibre', () => {
+    const p = testPart(rect(-60, -60, 60, 60), [], {
+      members: [
+        { name: 'a', startMm: [0, 0], endMm: [40, 40], widthMm: 8 },
+        { name: 'b', startMm: [0, 0], endMm: [-40, 40], widthMm: 8 },
+      ],
+    });
+    const b = bestWeave(WOVEN_70, p.members);
+    expect(Math.abs(b.weaveDeg)).toBeCloseTo(45, 2);
+    expect(b.minExGpa).toBeCloseTo(70, 6);
+  });
+  it('parts without members (imported) have nothing to check', () => {
+    expect(of(testPart(rect(0, 0, 10, 10), []), 'weave-direction')).toEqual([]);
+  });
+});
+
+describe('hole-stress rule', () => {
+  it('a bolt hole in the middle of a 12 mm strut: Heywood with W = 12, Lekhnitskii at the strut angle', () => {
+    const p = testPart(rect(0, -6, 80, 6), [{ ...roundHole([70, 0], 3.4, 'motor-bolt'), screw: 'M3' as const }], {
+      members: [{ name: 'arm', startMm: [0, 0], endMm: [80, 0], widthMm: 12 }],
+    });
+    const f = of(p, 'hole-stress');
+    expect(f.length).toBe(1);
+    expect(f[0].severity).toBe('info');
+    expect(f[0].measured).toBeCloseTo(heywoodKtn(3.4, 12), 4);
+    // Along the weave, woven 70/70/5: Lekhnitskii 4.975 (reference-values.md [CALC]).
+    expect(f[0].message).toMatch(/orthotropic Kt 4\.975/);
+  });
+});
+
+describe('demo designs', () => {
+  for (const file of DEMO_FILES) {
+    it(`${file} passes with no errors`, () => {
+      const r = checkFrame(demoFrame(file));
+      expect(r.findings.filter((f) => f.severity === 'error')).toEqual([]);
+      expect(r.summary.errors).toBe(0);
+      expect(r.parts.length).toBe(demoFrame(file).parts.length);
+    });
+  }
+  it('reports are deterministic', () => {
+    expect(JSON.stringify(checkFrame(demoFrame('tessel-5.yaml')))).toBe(JSON.stringify(checkFrame(demoFrame('tessel-5.yaml'))));
+  });
+});
