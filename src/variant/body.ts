@@ -164,3 +164,20 @@ export function fitBody(source: Design, variant: Design): BodyFit {
   const after = propBodyClearanceMm(shortenedBody(variant, factor), variant.props.diameterMm);
   return { ...base, clearanceMm: after.clearanceMm, factor, changes, line: `Body: shortened from ${variant.body.lengthMm} to ${length} mm so props clear standoffs and stack by ${after.clearanceMm.toFixed(1)} mm (required ${required.toFixed(1)} mm, the source's clearance capped at the tip gap).` };
 }
+
+/**
+ * H layouts: the arms run fore and aft along the motors' lines, so the body must keep reaching them.
+ * The body (and a top plate with its own width) widens or narrows by the change in the motors'
+ * sideways spacing, keeping each arm line's inset from the body side; other layouts: no change.
+ */
+export function fitBodyWidthForH(source: Design, variant: Design): Change[] {
+  if (variant.layout.kind !== 'h' || source.layout.kind !== 'h') return [];
+  const y = (d: Design) => Math.max(...motorSites(d).map((s) => Math.abs(s.motorMm[1])));
+  const delta = 2 * (y(variant) - y(source));
+  if (Math.abs(delta) < 1e-9) return [];
+  const why = `H layout: the arm lines moved ${(delta / 2).toFixed(2)} mm sideways; the body keeps reaching them`;
+  const width = ceilToStep(source.body.widthMm + delta, 0.5);
+  const out: Change[] = [{ path: ['body', 'widthMm'], old: variant.body.widthMm, new: width, why }];
+  if (variant.topPlate.widthMm !== undefined) out.push({ path: ['topPlate', 'widthMm'], old: variant.topPlate.widthMm, new: ceilToStep(variant.topPlate.widthMm + delta, 0.5), why });
+  return out;
+}

@@ -104,9 +104,11 @@ function bisect(f: (x: number) => number, target: number, lo: number, hi: number
 
 /**
  * Size the variant's arms by the rule. `source` is the original design with its motor mass;
- * `variant` has the new layout and motor. Throws VariantRequestError when an arm has no free length.
+ * `variant` has the new layout and motor. Stock thicknesses are tried nearest the ideal first; with
+ * `buildable`, a size whose plates cannot be built (e.g. a truss too cramped for its fillets) is
+ * passed over for the next. Throws VariantRequestError when an arm has no free length.
  */
-export function sizeArms(source: Design, sourceTipMassG: number, variant: Design, variantTipMassG: number): ArmSizing {
+export function sizeArms(source: Design, sourceTipMassG: number, variant: Design, variantTipMassG: number, buildable?: (d: Design) => boolean): ArmSizing {
   const src = softestArm(source, sourceTipMassG);
   const target = src.frequencyHz;
   const params = armWidthParams(variant);
@@ -121,16 +123,21 @@ export function sizeArms(source: Design, sourceTipMassG: number, variant: Design
   const kHi = Math.min(...params.map((p) => p.maxMm / p.value));
   const candidates = [...STOCK_THICKNESSES_MM].sort((a, b) => Math.abs(Math.log(a / idealT)) - Math.abs(Math.log(b / idealT)) || b - a);
   let chosen: { t: number; k: number; met: boolean } | null = null;
+  let firstMeeting: { t: number; k: number; met: boolean } | null = null;
+  const rounded = (k: number) => params.map((p, i) => Math.min(p.maxMm, Math.max(p.minMm, ceilToStep(w0[i] * k, WIDTH_STEP_MM))));
   if (kLo <= kHi) {
     for (const t of candidates) {
       if (freq(kHi, t) < target) continue;
       const k = freq(kLo, t) >= target ? kLo : bisect((x) => freq(x, t), target, kLo, kHi);
+      firstMeeting ??= { t, k, met: true };
+      if (buildable && !buildable(withArmSize(variant, rounded(k), t))) continue;
       chosen = { t, k, met: true };
       break;
     }
   }
+  chosen ??= firstMeeting;
   if (!chosen) chosen = { t: STOCK_THICKNESSES_MM[STOCK_THICKNESSES_MM.length - 1], k: Math.max(kLo, Math.min(kHi, kHi)), met: false };
-  const widths = params.map((p, i) => Math.min(p.maxMm, Math.max(p.minMm, ceilToStep(w0[i] * chosen!.k, WIDTH_STEP_MM))));
+  const widths = rounded(chosen.k);
   const sized = withArmSize(variant, widths, chosen.t);
   const achieved = softestArm(sized, variantTipMassG);
 

@@ -9,7 +9,7 @@ import { VariantRequestError } from './errors.js';
 import { ceilToStep, minTipGapMm, minWheelbaseMm, scaledLayout } from './layoutScale.js';
 import { chooseMotor, type MotorChoice } from './motor.js';
 import { sizeArms, type ArmSizing } from './stiffness.js';
-import { bodyKeptWheelbaseMm, fitBody, requiredBodyClearanceMm, type BodyFit } from './body.js';
+import { bodyKeptWheelbaseMm, fitBody, fitBodyWidthForH, requiredBodyClearanceMm, type BodyFit } from './body.js';
 
 /** What the user asks for. Lengths in mm; `props` as written ("7in", "178mm"). */
 export type VariantRequest = Readonly<{
@@ -126,25 +126,57 @@ export function makeVariant(sourceText: string, req: VariantRequest, sourceName 
   }
   cur = edit(layoutChanges);
 
-  // 3. Body: only what the new prop clearances need.
+  // 3. Body: only what the new layout and prop clearances need.
+  cur = edit(fitBodyWidthForH(source, cur));
   const body = fitBody(source, cur);
   cur = edit(body.changes);
 
   // 4. Arms by the stiffness rule.
-  const arms = sizeArms(source, motor.sourceClass.massG, cur, motor.variantClass.massG);
+  // Buildable with the design's root fillet or a smaller one the build step below may fall back to.
+  const minFillet = ceilToStep(cur.cutting.toolDiameterMm / 2, 0.5);
+  const buildable = (d: Design): boolean => {
+    for (let f = d.arms.rootFilletMm; ; f -= 0.5) {
+      try {
+        buildFrame({ ...d, arms: { ...d.arms, rootFilletMm: f } });
+        return true;
+      } catch (e) {
+        if (!(e instanceof DesignError)) throw e;
+        if (!e.issues.some((i) => i.path === 'arms.rootFilletMm') || f - 0.5 < minFillet) return false;
+      }
+    }
+  };
+  const arms = sizeArms(source, motor.sourceClass.massG, cur, motor.variantClass.massG, buildable);
   cur = edit(arms.changes);
 
-  const design = cur;
-  let frame: Frame;
-  try {
-    frame = buildFrame(design);
-  } catch (e) {
-    if (e instanceof DesignError) {
-      const hint = body.factor < 1 ? `; the body had to be shortened to ${design.body.lengthMm} mm for the props to clear its standoffs and stack, and its hardware no longer fits: give --wheelbase ${body.keepBodyWheelbaseMm} or more to keep the body` : '';
+  // 5. Build. A slimmer arm may have no room for the source's root fillet: reduce it in 0.5 mm
+  // steps, never below the router bit's radius (an inside corner cannot be sharper).
+  let frame: Frame | null = null;
+  for (;;) {
+    try {
+      frame = buildFrame(cur);
+      break;
+    } catch (e) {
+      if (!(e instanceof DesignError)) throw e;
+      const filletAtFault = e.issues.some((i) => i.path === 'arms.rootFilletMm');
+      const next = cur.arms.rootFilletMm - 0.5;
+      if (filletAtFault && next >= minFillet) {
+        cur = edit([{ path: ['arms', 'rootFilletMm'], old: cur.arms.rootFilletMm, new: next, why: `the resized arm has no room for a ${cur.arms.rootFilletMm} mm fillet (kept ≥ bit radius ${minFillet} mm)` }]);
+        continue;
+      }
+      const hint = body.factor < 1 ? `; the body had to be shortened to ${cur.body.lengthMm} mm for the props to clear its standoffs and stack, and its hardware no longer fits: give --wheelbase ${body.keepBodyWheelbaseMm} or more to keep the body` : '';
       throw new VariantRequestError('--props', propsText, `gives a variant that cannot be built${hint}:\n${e.message}`);
     }
-    throw e;
   }
+  const design = cur;
+  // Merge repeated edits of one key (the fillet steps) into one row: first old, last new.
+  const merged = new Map<string, Change>();
+  for (const c of changes) {
+    const key = c.path.join('.');
+    const prev = merged.get(key);
+    merged.set(key, prev ? { ...c, old: prev.old } : c);
+  }
+  changes.length = 0;
+  changes.push(...realChanges([...merged.values()]));
   return {
     text,
     design,
