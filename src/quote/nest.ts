@@ -15,6 +15,8 @@ export type NestOptions = Readonly<{
   marginMm: number;
   /** Raster cell; smaller packs tighter and runs slower. mm. Default 0.5. */
   cellMm?: number;
+  /** Retry groups that use more sheets than the area bound on a raster of half the cell (default true). */
+  refine?: boolean;
   /** Called after each placed part, for a progress bar. */
   onProgress?: (placed: number, total: number) => void;
 }>;
@@ -51,6 +53,9 @@ export type NestGroup = Readonly<{
   /** Sum of part areas / sheet area: no packing can use fewer sheets than its ceiling. */
   areaBoundSheets: number;
   utilisation: number;
+  /** Raster cell and placement rule of the layout kept. */
+  cellMm: number;
+  rule: string;
 }>;
 
 export type NestResult = Readonly<{
@@ -101,20 +106,9 @@ export function nestParts(items: readonly NestItem[], options: NestOptions): Nes
   if (Math.min(W, H) - 2 * m + s <= cell) {
     throw new DesignError([{ path: 'sheet', value: `${W}x${H}`, message: `leaves no room inside the ${m} mm sheet margin` }]);
   }
-  const shapes = items.map((it) => allowedRotations(it.part).map((rot) => rasterise(it.part, rot, s / 2, cell)));
-  const boxes = shapes.map((rs) => rs.map(boxRaster));
-  const rasters = shapes;
-  const grid = (w: number, h: number): Grid => ({
-    gw: Math.floor((w - 2 * m + s) / cell),
-    gh: Math.floor((h - 2 * m + s) / cell),
-    // The grid spans the usable area grown by half the spacing: dilated parts may reach that far.
-    origin: [m - s / 2, m - s / 2],
-    cell,
-  });
-  const upright = grid(W, H);
-  const turned = grid(H, W);
+  const coarse = level(items, options, cell);
   for (let i = 0; i < items.length; i++) {
-    const fits = rasters[i].some((r) => r.w <= upright.gw && r.h <= upright.gh);
+    const fits = coarse.shapes[i].some((r) => r.w <= coarse.upright.gw && r.h <= coarse.upright.gh);
     if (items[i].count > 0 && !fits) {
       throw new DesignError([{
         path: 'sheet',
@@ -129,41 +123,78 @@ export function nestParts(items: readonly NestItem[], options: NestOptions): Nes
     const key = groupKey(it.part);
     groups.set(key, [...(groups.get(key) ?? []), i]);
   });
-  const total = items.reduce((a, it) => a + Math.max(0, it.count), 0) * STRATEGIES.length;
+  const copies = items.reduce((a, it) => a + Math.max(0, it.count), 0);
+  const total = copies * (STRATEGIES.length + REFINE_STRATEGIES);
   let progress = 0;
-  const tick = () => options.onProgress?.(++progress, total);
+  const tick = () => options.onProgress?.(Math.min(++progress, total), total);
   const sheets: NestedSheet[] = [];
   const summary: NestGroup[] = [];
   const sheetArea = W * H;
+  let fine: Level | null = null;
   for (const key of [...groups.keys()].sort()) {
     const members = groups.get(key)!;
-    let best: SheetState[] | null = null;
-    let bestStrategy = STRATEGIES[0];
-    for (const strategy of STRATEGIES) {
-      const g = strategy.turned ? turned : upright;
-      const result = nestGroup(items, strategy.boxes ? boxes : shapes, members, g, strategy.score, tick);
-      if (result && (!best || better(result, best))) {
-        best = result;
-        bestStrategy = strategy;
+    const tried = STRATEGIES.map((strategy) => ({ strategy, result: runStrategy(coarse, items, members, strategy, tick) }))
+      .filter((t): t is { strategy: Strategy; result: SheetState[] } => t.result !== null)
+      .sort((a, b) => (better(a.result, b.result) ? -1 : better(b.result, a.result) ? 1 : 0));
+    if (!tried.length) throw new Error(`nesting: no strategy placed group ${key}`);
+    let best = tried[0];
+    let bestCell = cell;
+    const area = best.result.reduce((a, sh) => a + sh.partAreaMm2, 0);
+    const groupCopies = members.reduce((a, i) => a + items[i].count, 0);
+    if (options.refine !== false && best.result.length > Math.ceil(area / sheetArea - 1e-9)) {
+      // Not provably optimal by area: a finer raster (less rounding of the gaps) with the best rules
+      // so far may save a sheet.
+      fine ??= level(items, options, cell / 2);
+      for (const t of tried.slice(0, REFINE_STRATEGIES)) {
+        const r = runStrategy(fine, items, members, t.strategy, tick);
+        if (r && r.length < best.result.length) {
+          best = { strategy: t.strategy, result: r };
+          bestCell = cell / 2;
+        }
       }
+    } else {
+      for (let k = 0; k < groupCopies * REFINE_STRATEGIES; k++) tick();
     }
-    if (!best) throw new Error(`nesting: no strategy placed group ${key}`);
-    let area = 0;
-    for (const sh of best) {
-      const placements = bestStrategy.turned ? sh.placements.map((p) => ({ ...p, transform: turnSheet(p.transform, W), rotationDeg: normDeg(p.rotationDeg + 90) })) : sh.placements;
+    for (const sh of best.result) {
+      const placements = best.strategy.turned ? sh.placements.map((p) => ({ ...p, transform: turnSheet(p.transform, W), rotationDeg: normDeg(p.rotationDeg + 90) })) : sh.placements;
       sheets.push({ thicknessMm: sh.thicknessMm, material: sh.material, widthMm: W, heightMm: H, placements, partAreaMm2: sh.partAreaMm2, utilisation: sh.partAreaMm2 / sheetArea });
-      area += sh.partAreaMm2;
     }
     summary.push({
-      thicknessMm: best[0].thicknessMm,
-      material: best[0].material,
-      sheets: best.length,
+      thicknessMm: best.result[0].thicknessMm,
+      material: best.result[0].material,
+      sheets: best.result.length,
       partAreaMm2: area,
       areaBoundSheets: area / sheetArea,
-      utilisation: area / (best.length * sheetArea),
+      utilisation: area / (best.result.length * sheetArea),
+      cellMm: bestCell,
+      rule: best.strategy.name,
     });
   }
   return { sheets, groups: summary, spacingMm: s, marginMm: m, cellMm: cell };
+}
+
+/** How many of the best rules are retried on the finer raster. */
+const REFINE_STRATEGIES = 2;
+
+/** Rasters and grids for one cell size. */
+type Level = Readonly<{ shapes: Raster[][]; boxes: Raster[][]; upright: Grid; turned: Grid }>;
+
+function level(items: readonly NestItem[], options: NestOptions, cell: number): Level {
+  const s = options.spacingMm;
+  const m = options.marginMm;
+  const grid = (w: number, h: number): Grid => ({
+    gw: Math.floor((w - 2 * m + s) / cell),
+    gh: Math.floor((h - 2 * m + s) / cell),
+    // The grid spans the usable area grown by half the spacing: dilated parts may reach that far.
+    origin: [m - s / 2, m - s / 2],
+    cell,
+  });
+  const shapes = items.map((it) => (it.count > 0 ? allowedRotations(it.part).map((rot) => rasterise(it.part, rot, s / 2, cell)) : []));
+  return { shapes, boxes: shapes.map((rs) => rs.map(boxRaster)), upright: grid(options.sheet.widthMm, options.sheet.heightMm), turned: grid(options.sheet.heightMm, options.sheet.widthMm) };
+}
+
+function runStrategy(l: Level, items: readonly NestItem[], members: readonly number[], strategy: Strategy, tick: () => void): SheetState[] | null {
+  return nestGroup(items, strategy.boxes ? l.boxes : l.shapes, members, strategy.turned ? l.turned : l.upright, strategy.score, tick);
 }
 
 type Grid = Readonly<{ gw: number; gh: number; origin: readonly [number, number]; cell: number }>;
@@ -177,7 +208,8 @@ type Score = (x: number, y: number, r: Raster) => number;
 const topEdge: Score = (x, y, r) => (y + r.h) * 1e6 + x;
 const bottomLeft: Score = (x, y) => y * 1e6 + x;
 const centre: Score = (x, y, r) => (2 * y + r.h) * 1e6 + x;
-const STRATEGIES: ReadonlyArray<{ name: string; turned: boolean; boxes: boolean; score: Score }> = [
+type Strategy = Readonly<{ name: string; turned: boolean; boxes: boolean; score: Score }>;
+const STRATEGIES: readonly Strategy[] = [
   { name: 'lowest top edge', turned: false, boxes: false, score: topEdge },
   { name: 'lowest top edge, turned sheet', turned: true, boxes: false, score: topEdge },
   { name: 'bottom-left', turned: false, boxes: false, score: bottomLeft },

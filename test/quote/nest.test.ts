@@ -99,6 +99,22 @@ describe('nesting', () => {
     expect(c.outside).toBe(0);
   });
 
+  it.skipIf(!haveShapely)('the finer raster pass keeps a layout only when it saves a sheet, and it passes the same checks', () => {
+    // 54 Tessel 5 arms: on the 0.5 mm raster 26 fit a 400 × 300 sheet (3 sheets), on the 0.25 mm one 27 (2 sheets).
+    const arm = demoFrame('tessel-5').parts.find((p) => p.name === 'arm')!;
+    const coarse = nestParts([{ part: arm, count: 54 }], { sheet: { widthMm: 400, heightMm: 300 }, spacingMm: SPACING, marginMm: MARGIN, refine: false });
+    const r = nestParts([{ part: arm, count: 54 }], { sheet: { widthMm: 400, heightMm: 300 }, spacingMm: SPACING, marginMm: MARGIN });
+    expect(r.sheets.length).toBeLessThanOrEqual(coarse.sheets.length);
+    if (r.sheets.length < coarse.sheets.length) expect(r.groups[0].cellMm).toBe(0.25);
+    // Pins the current arm outline (1892 mm²; 54 copies are 0.85 sheet by area): update if the arm changes.
+    expect(r.sheets.length).toBe(2);
+    const c = shapelyCheck([arm], r);
+    expect(c.parts).toBe(54);
+    expect(c.overlaps).toBe(0);
+    expect(c.outside).toBe(0);
+    expect(c.minGap!).toBeGreaterThanOrEqual(SPACING - 1e-6);
+  });
+
   it('a part larger than the sheet is a clear input error naming the sheet', () => {
     const big = plate('big', roundedRect([0, 0], 390, 100, 4), [], 2);
     expect(() => nestParts([{ part: big, count: 1 }], { sheet: { widthMm: 400, heightMm: 300 }, spacingMm: SPACING, marginMm: MARGIN })).toThrow(DesignError);
