@@ -87,6 +87,8 @@ export type ArmSizing = Readonly<{
   /** Tip deflection of the softest arm under 1 N, source and variant (for the printout). mm/N. */
   complianceMmPerN: readonly [number, number];
   met: boolean;
+  /** The widths stopped at their lower limit (root bolts or strut minimum), so f1 is above the target by more than a snapping step. */
+  atMinimumWidth: boolean;
   changes: readonly Change[];
   /** Human-readable statement of the rule and its numbers. */
   lines: readonly string[];
@@ -156,6 +158,8 @@ export function sizeArms(source: Design, sourceTipMassG: number, variant: Design
     `  ideal thickness ${idealT.toFixed(2)} mm -> stock ${chosen.t} mm (stock list ${STOCK_THICKNESSES_MM.join(', ')} mm, common practice); width factor ${chosen.k.toFixed(3)}`,
     `  variant ${achieved.beam.site}: ${b(achieved.beam)} -> f1 ${achieved.frequencyHz.toFixed(1)} Hz, tip deflection ${compliance[1].toFixed(4)} mm/N`,
   ];
+  const atMinimumWidth = chosen.k <= kLo + 1e-12;
+  if (atMinimumWidth) lines.push(`  widths at their lower limit (${params.map((p) => `${p.path[p.path.length - 1]} ≥ ${p.minMm.toFixed(1)} mm`).join(', ')}), so f1 is above the target`);
   if (!chosen.met) lines.push(`  NOT MET: the stiffest allowed arm (${chosen.t} mm, widths at their limits) reaches ${achieved.frequencyHz.toFixed(1)} Hz of ${target.toFixed(1)} Hz`);
-  return { targetHz: target, source: src, idealThicknessMm: idealT, thicknessMm: chosen.t, widthFactor: chosen.k, widths, achieved, complianceMmPerN: compliance, met: chosen.met, changes, lines };
+  return { targetHz: target, source: src, idealThicknessMm: idealT, thicknessMm: chosen.t, widthFactor: chosen.k, widths, achieved, complianceMmPerN: compliance, met: chosen.met, atMinimumWidth, changes, lines };
 }

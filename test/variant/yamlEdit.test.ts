@@ -1,0 +1,114 @@
+import { describe, expect, it } from 'vitest';
+import YAML, { isMap, isPair, isScalar, isSeq, parseDocument, visit } from 'yaml';
+import { editDesignText, makeVariant } from '../../src/variant/index.js';
+import { demoText } from './helpers.js';
+
+/** Every comment of a YAML text, in order, as the `yaml` package's own parser sees it. */
+function comments(text: string): string[] {
+  const out: string[] = [];
+  const doc = parseDocument(text);
+  if (doc.commentBefore) out.push(doc.commentBefore);
+  visit(doc, (_k, node) => {
+    if ((isScalar(node) || isMap(node) || isSeq(node)) && (node.commentBefore || node.comment)) out.push(`${node.commentBefore ?? ''}|${node.comment ?? ''}`);
+  });
+  if (doc.comment) out.push(doc.comment);
+  return out;
+}
+
+/** Key paths in document order. */
+function keyOrder(text: string): string[] {
+  const out: string[] = [];
+  visit(parseDocument(text), {
+    Pair: (_k, pair, path) => {
+      if (isPair(pair) && isScalar(pair.key)) {
+        const keys = path.filter(isPair).map((p) => String((p.key as { value: unknown }).value));
+        out.push([...keys, String(pair.key.value)].join('.'));
+      }
+    },
+  });
+  return out;
+}
+
+const COMMENTED = `# Test frame — header comment survives
+name: Test X # the name
+layout:
+  kind: x
+  # wheelbase is the diagonal
+  wheelbaseMm: 224 # set by the tip gap
+  armAngleDeg: 45
+`;
+
+describe('design file edits keep comments and key order', () => {
+  it('a value changes in place; its trailing comment and every other byte stay', () => {
+    const out = editDesignText(COMMENTED, [{ path: ['layout', 'wheelbaseMm'], old: 224, new: 261.5, why: '' }]);
+    expect(out).toBe(COMMENTED.replace('wheelbaseMm: 224 #', 'wheelbaseMm: 261.5 #'));
+  });
+
+  it('a missing key is appended to its map; comments survive', () => {
+    const out = editDesignText(COMMENTED, [{ path: ['layout', 'extraMm'], old: undefined, new: [16, 19], why: '' }]);
+    expect(YAML.parse(out).layout.extraMm).toEqual([16, 19]);
+    expect(comments(out)).toEqual(comments(COMMENTED));
+  });
+
+  for (const demo of ['tessel-5', 'mote-3', 'farline-7']) {
+    it(`${demo}: every comment and the key order survive a variant (yaml's own parser)`, () => {
+      const src = demoText(demo);
+      const v = makeVariant(src, { props: '6in', motor: 'auto' });
+      expect(comments(v.text)).toEqual(comments(src));
+      // order of the source's keys is unchanged (new keys may only follow)
+      const before = keyOrder(src);
+      const after = keyOrder(v.text);
+      expect(after.filter((k) => before.includes(k))).toEqual(before);
+      // lines not touched by a change are byte-identical
+      const changed = v.changes.length;
+      const diff = src.split('\n').filter((l, i) => l !== v.text.split('\n')[i]).length;
+      expect(diff).toBeLessThanOrEqual(changed);
+    });
+  }
+
+  it('a JSON design stays JSON-readable after an edit', () => {
+    const json = JSON.stringify(YAML.parse(demoText('tessel-5')), null, 2);
+    const v = makeVariant(json, { props: '6in' });
+    const parsed = JSON.parse(v.text);
+    expect(parsed.props.diameter).toBe('6in');
+    expect(parsed.layout.wheelbaseMm).toBe(v.wheelbase.chosenMm);
+  });
+});
+
+describe('stability', () => {
+  it('a variant of a variant at the same size changes nothing (byte-identical)', () => {
+    for (const [demo, props] of [['tessel-5', '7in'], ['farline-7', '5in'], ['mote-3', '4in']]) {
+      const v1 = makeVariant(demoText(demo), { props });
+      const v2 = makeVariant(v1.text, { props });
+      expect(v2.changes).toEqual([]);
+      expect(v2.text).toBe(v1.text);
+    }
+  });
+
+  it('there and back: 5.1in → 7in → 5.1in returns the source within one snapping step', () => {
+    // The wheelbase is rounded up on each trip, so it may come back one 1 mm step larger; each trip
+    // rounds arm widths up by under one 0.5 mm step (two trips: under 1 mm), and the arm frequency
+    // stays at or a little above the source's; thickness and body come back exactly.
+    const src = demoText('tessel-5');
+    const a = YAML.parse(src);
+    const trip = makeVariant(makeVariant(src, { props: '7in' }).text, { props: '5.1in' });
+    const back = YAML.parse(trip.text);
+    const f0 = makeVariant(src, { props: '5.1in' }).arms.targetHz;
+    expect(trip.arms.achieved.frequencyHz / f0).toBeGreaterThanOrEqual(1);
+    expect(trip.arms.achieved.frequencyHz / f0).toBeLessThan(1.05);
+    expect(back.layout.armAngleDeg).toBe(a.layout.armAngleDeg);
+    expect(back.layout.wheelbaseMm - a.layout.wheelbaseMm).toBeGreaterThanOrEqual(0);
+    expect(back.layout.wheelbaseMm - a.layout.wheelbaseMm).toBeLessThanOrEqual(1);
+    expect(back.arms.thicknessMm).toBe(a.arms.thicknessMm);
+    for (const k of ['mainWidthMm', 'secondaryWidthMm', 'spreadMm']) {
+      expect(back.arms.truss[k] - a.arms.truss[k]).toBeGreaterThanOrEqual(0);
+      expect(back.arms.truss[k] - a.arms.truss[k]).toBeLessThanOrEqual(1);
+    }
+    expect(back.body).toEqual(a.body);
+  });
+
+  it('same input, same bytes', () => {
+    const src = demoText('farline-7');
+    expect(makeVariant(src, { props: '6in' }).text).toBe(makeVariant(src, { props: '6in' }).text);
+  });
+});
