@@ -1,9 +1,12 @@
 import { performance } from 'node:perf_hooks';
 import type { BenchCase } from './types.js';
 import { cases as geometryCases } from './geometry.js';
+import { cases as importCases } from './import.js';
+import { cases as checksCases } from './checks.js';
+import { cases as variantCases } from './variant.js';
 
 /** Every area's benchmark cases; add one import per area. */
-const ALL: BenchCase[] = [...geometryCases];
+const ALL: BenchCase[] = [...geometryCases, ...importCases, ...checksCases, ...variantCases];
 
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);

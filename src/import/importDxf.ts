@@ -35,7 +35,7 @@ export type ImportOptions = Readonly<{
   curveTolMm?: number;
   /** Segments shorter than this are reported as tiny (default 0.05 mm). mm. */
   tinySegmentMm?: number;
-  /** A part whose nearest point is further from the origin than this is reported (default 1000 mm). mm. */
+  /** A drawing whose nearest part is further from the origin than this is reported (default 1000 mm). mm. */
   farFromOriginMm?: number;
   limits?: ImportLimits;
 }>;
@@ -101,7 +101,7 @@ export function importDxf(text: string, options: ImportOptions): ImportResult {
     placements: [],
     sourcePath: `${options.name} (layer ${p.source.layer}, ${p.source.entity} line ${p.source.line})`,
   }));
-  findings.push(...partFindings(parts, options.farFromOriginMm ?? 1000));
+  findings.push(...farFromOrigin(parts, options.farFromOriginMm ?? 1000));
   findings.push(...unitDoubt(cleaned.segments.map((d) => segmentBBox(d.seg)), units));
   return { parts, findings: cap(attachParts(findings, parts)), units, cutLayers: [...exploded.layersUsed].sort() };
 }
@@ -164,19 +164,33 @@ function allLayerNames(doc: DxfDocument): Set<string> {
   return names;
 }
 
-/** Parts far from the origin. */
-function partFindings(parts: readonly Part[], farMm: number): Finding[] {
-  const out: Finding[] = [];
+/**
+ * Parts far from the origin: shops expect a drawing at 0,0. Judged on the nearest part, so that a
+ * sheet of many parts laid out from the origin is not reported part by part.
+ */
+function farFromOrigin(parts: readonly Part[], farMm: number): Finding[] {
+  let nearest: { d: number; part: Part; at: [number, number] } | null = null;
   for (const p of parts) {
     const b = partBBox(p);
     const dx = Math.max(b[0], 0, -b[2]);
     const dy = Math.max(b[1], 0, -b[3]);
     const d = Math.hypot(dx, dy);
-    if (d > farMm) {
-      out.push({ rule: 'dxf-far-from-origin', severity: 'warning', part: p.name, measured: d, limit: farMm, unit: 'mm', atMm: [b[0], b[1]], message: `${p.name} lies ${d.toFixed(1)} mm from the origin; shops expect parts near 0,0 and some machines' work areas end sooner` });
-    }
+    if (!nearest || d < nearest.d) nearest = { d, part: p, at: [b[0], b[1]] };
   }
-  return out;
+  if (!nearest || nearest.d <= farMm) return [];
+  const who = parts.length === 1 ? nearest.part.name : `the nearest of the ${parts.length} parts (${nearest.part.name})`;
+  return [
+    {
+      rule: 'dxf-far-from-origin',
+      severity: 'warning',
+      part: parts.length === 1 ? nearest.part.name : '',
+      measured: nearest.d,
+      limit: farMm,
+      unit: 'mm',
+      atMm: parts.length === 1 ? nearest.at : null,
+      message: `${who} lies ${nearest.d.toFixed(1)} mm from the origin; shops expect parts near 0,0 and some machines' work areas end sooner`,
+    },
+  ];
 }
 
 /**

@@ -5,6 +5,7 @@ import { arc, pointAt } from '../geometry/segment.js';
 import type { BBox, Loop, Vec2 } from '../geometry/types.js';
 import { dist } from '../geometry/vec.js';
 import type { ChainedLoop } from './chain.js';
+import { overlappingPairs } from './spatial.js';
 
 /** One plate found in the drawing: its outline (counter-clockwise) and inner contours (clockwise). */
 export type NestedPart = Readonly<{ outline: Loop; features: Feature[]; source: ChainedLoop['source'] }>;
@@ -20,13 +21,19 @@ export function nestLoops(loops: readonly ChainedLoop[]): NestedPart[] {
     .map((l) => ({ l, area: Math.abs(signedArea(l.loop)), box: loopBBox(l.loop) }))
     .filter((x) => x.area > 0)
     .sort((a, b) => b.area - a.area || a.box[0] - b.box[0] || a.box[1] - b.box[1]);
+  // Candidate containers: boxes that overlap (sweep and prune), then the box must hold the loop's box.
+  const containers: number[][] = items.map(() => []);
+  for (const [a, b] of overlappingPairs(items.map((x) => x.box), 0)) {
+    // Items are sorted by area, largest first: only an earlier item can contain a later one.
+    if (boxInside(items[b].box, items[a].box)) containers[b].push(a);
+  }
   const depth: number[] = [];
   const parentOf: number[] = [];
   for (let i = 0; i < items.length; i++) {
     let parent = -1;
-    // Later items are smaller: the first container found walking back is the innermost one.
-    for (let j = i - 1; j >= 0; j--) {
-      if (!boxInside(items[i].box, items[j].box)) continue;
+    // The container found last in area order (the smallest) is the innermost one.
+    const cands = containers[i].sort((x, y) => y - x);
+    for (const j of cands) {
       if (insideByVote(items[j].l.loop, items[i].l.loop)) {
         parent = j;
         break;
@@ -47,12 +54,12 @@ export function nestLoops(loops: readonly ChainedLoop[]): NestedPart[] {
     if (depth[i] % 2 === 1) parts[partIndex.get(parentOf[i])!].features.push(feature(it.l.loop));
   });
   parts.sort((a, b) => a.box[0] - b.box[0] || a.box[1] - b.box[1]);
-  for (const p of parts) p.features.sort((a, b) => featureKey(a) - featureKey(b) || featureKey2(a) - featureKey2(b));
-  return parts.map(({ outline, features, source }) => ({ outline, features, source }));
+  return parts.map(({ outline, features, source }) => {
+    const keyed = features.map((f) => ({ f, box: loopBBox(f.loop) }));
+    keyed.sort((a, b) => a.box[0] - b.box[0] || a.box[1] - b.box[1]);
+    return { outline, features: keyed.map((k) => k.f), source };
+  });
 }
-
-const featureKey = (f: Feature): number => loopBBox(f.loop)[0];
-const featureKey2 = (f: Feature): number => loopBBox(f.loop)[1];
 
 /**
  * Is the inner loop inside the outer one? Three probe points on the inner loop vote, so that a

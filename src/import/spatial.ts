@@ -5,11 +5,12 @@ import type { BBox, Vec2 } from '../geometry/types.js';
  * Cells are r wide, so a query looks at the 3 × 3 cells around p.
  */
 export class PointGrid {
-  private readonly cells = new Map<string, number[]>();
+  private readonly cells = new Map<number, number[]>();
   constructor(private readonly cellMm: number) {}
 
-  private key(ix: number, iy: number): string {
-    return `${ix},${iy}`;
+  /** Hashed cell key; two cells may share a key, which only adds candidates the caller discards. */
+  private key(ix: number, iy: number): number {
+    return Math.imul(ix | 0, 73856093) ^ Math.imul(iy | 0, 19349663);
   }
 
   add(id: number, p: Vec2): void {
@@ -27,7 +28,7 @@ export class PointGrid {
     for (let dx = -1; dx <= 1; dx++) {
       for (let dy = -1; dy <= 1; dy++) {
         const c = this.cells.get(this.key(ix + dx, iy + dy));
-        if (c) out.push(...c);
+        if (c) for (const id of c) out.push(id);
       }
     }
     return out;
