@@ -1,0 +1,125 @@
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { drawingToPdf } from '../../src/export/pdfDrawing.js';
+import { drawingToSvgs } from '../../src/export/svgDrawing.js';
+import { chooseScale, drawingSet, partDimensions, quoteParts, type DrawingSet } from '../../src/quote/index.js';
+import { commandAvailable, requireTool } from '../helpers/reference.js';
+import { demoFrame, exampleShop, plate, roundedRect, roundHole } from './fixtures.js';
+
+const frame = demoFrame('tessel-5');
+const quote = quoteParts(frame.parts, { quantity: 2, shop: exampleShop(), toolDiameterMm: 3.175 });
+const set: DrawingSet = drawingSet(frame.parts, quote, { design: frame.name, revision: frame.revision, date: '2026-11-30', checks: { errors: 0, warnings: 3 } });
+let dir = '';
+let pdf: Uint8Array;
+
+beforeAll(async () => {
+  dir = mkdtempSync(join(tmpdir(), 'fw-drawing-'));
+  pdf = await drawingToPdf(set);
+  writeFileSync(join(dir, 'drawing.pdf'), pdf);
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+describe('drawing data', () => {
+  it('one sheet per part plus a summary sheet', () => {
+    expect(set.sheets).toHaveLength(frame.parts.length + 1);
+    expect(set.sheets[0].kind).toBe('summary');
+  });
+
+  it('scale: the largest ISO 5455 preferred scale that fits the 140 × 95 mm view', () => {
+    expect(chooseScale(30, 20).label).toBe('2:1'); // 60 × 40 fits, 150 × 100 does not
+    expect(chooseScale(124, 87).label).toBe('1:1');
+    expect(chooseScale(200, 87).label).toBe('1:2');
+    expect(chooseScale(10, 10).label).toBe('5:1');
+  });
+
+  it('dimensions: overall size and hole positions from the lower-left corner, hand-checked', () => {
+    // 100 × 50 plate centred on the origin: holes at x = −40, 0, 40 → 10, 50, 90 from the left edge;
+    // y = −15, 15 → 10, 40 from the bottom edge.
+    const p = plate('dims', roundedRect([0, 0], 100, 50, 5), [roundHole([-40, -15], 3.4), roundHole([0, 15], 3.4), roundHole([40, 15], 3.4)]);
+    const d = partDimensions(p);
+    expect(d.filter((x) => x.level === 1).map((x) => `${x.axis} ${x.text}`)).toEqual(['x 100.0', 'y 50.0']);
+    expect(d.filter((x) => x.axis === 'x' && x.level < 0).map((x) => x.valueMm)).toEqual([10, 50, 90]);
+    expect(d.filter((x) => x.axis === 'y' && x.level < 0).map((x) => x.valueMm)).toEqual([10, 40]);
+  });
+});
+
+describe('PDF drawing', () => {
+  it('is deterministic: the same set gives the same bytes', async () => {
+    const again = await drawingToPdf(set);
+    expect(Buffer.from(again).equals(Buffer.from(pdf))).toBe(true);
+    expect(Buffer.from(pdf).subarray(0, 5).toString()).toBe('%PDF-');
+  });
+
+  it.skipIf(!requireTool(commandAvailable('pdftotext'), 'poppler-utils (pdftotext)'))('pdftotext finds the hole table, the totals, the title block and the safety notes', () => {
+    const r = spawnSync('pdftotext', ['-layout', join(dir, 'drawing.pdf'), '-'], { encoding: 'utf8' });
+    expect(r.status).toBe(0);
+    const text = r.stdout;
+    const pages = text.split('\f').filter((p) => p.trim().length > 0);
+    expect(pages).toHaveLength(frame.parts.length + 1);
+    // Hole table of the bottom plate: counts and diameters from the quote's own hole rows.
+    const bottom = quote.parts.find((p) => p.cut.name === 'bottom-plate')!;
+    const bottomPage = pages.find((p) => /bottom-plate/.test(p) && /Hole table/.test(p))!;
+    expect(bottomPage).toBeDefined();
+    for (const h of bottom.cut.holes) expect(bottomPage).toMatch(new RegExp(`${h.count}\\s*x\\s+${h.diameterMm.toFixed(2)}`));
+    // Totals on the summary sheet.
+    expect(pages[0]).toMatch(new RegExp(`total\\s+${quote.batchTime.totalMin.toFixed(1)}\\s+${quote.batchCost.total.toFixed(2)}`));
+    expect(pages[0]).toMatch(new RegExp(`per frame\\s+${quote.perFrame.timeMin.toFixed(1)}\\s+${quote.perFrame.cost.toFixed(2)}`));
+    expect(text).toMatch(/sheet 1 of 6/);
+    expect(text).toMatch(/rev B/);
+    expect(text).toMatch(/date: 2026-11-30/);
+    expect(text).toMatch(/Design-rule checks: 0 errors, 3 warnings/);
+    expect(text).toMatch(/respirator/);
+    expect(text).toMatch(/props off/);
+    expect(text).toMatch(/scale 1:1/);
+  });
+
+  it.skipIf(!requireTool(commandAvailable('pdftoppm'), 'poppler-utils (pdftoppm)'))('pdftoppm renders every page, none blank', () => {
+    const r = spawnSync('pdftoppm', ['-r', '30', '-gray', join(dir, 'drawing.pdf'), join(dir, 'page')], { encoding: 'utf8' });
+    expect(r.status).toBe(0);
+    for (let i = 1; i <= set.sheets.length; i++) {
+      const pgm = readFileSync(join(dir, `page-${i}.pgm`));
+      const { pixels } = parsePgm(pgm);
+      const dark = pixels.filter((v) => v < 128).length;
+      // A drawn sheet has its frame, text and geometry: well over 1 % dark pixels, far from all.
+      expect(dark / pixels.length).toBeGreaterThan(0.01);
+      expect(dark / pixels.length).toBeLessThan(0.5);
+    }
+  });
+});
+
+describe('SVG drawing', () => {
+  const svgs = drawingToSvgs(set);
+  it('one file per sheet, each renders with rsvg-convert', () => {
+    expect(svgs).toHaveLength(set.sheets.length);
+    expect(svgs[1]).toContain('Hole table');
+    expect(svgs[0]).toContain(quote.batchCost.total.toFixed(2));
+    if (!requireTool(commandAvailable('rsvg-convert'), 'librsvg2-bin (rsvg-convert)')) return;
+    for (const [i, s] of svgs.entries()) {
+      const f = join(dir, `s${i}.svg`);
+      writeFileSync(f, s);
+      const r = spawnSync('rsvg-convert', ['-w', '300', '-o', join(dir, `s${i}.png`), f]);
+      expect(r.status).toBe(0);
+    }
+  });
+});
+
+/** Binary PGM (P5) reader: width, height and 8-bit pixels. */
+function parsePgm(buf: Buffer): { width: number; height: number; pixels: Uint8Array } {
+  let pos = 0;
+  const tokens: string[] = [];
+  while (tokens.length < 4) {
+    while (/\s/.test(String.fromCharCode(buf[pos]))) pos++;
+    if (buf[pos] === 0x23) { while (buf[pos] !== 0x0a) pos++; continue; }
+    let t = '';
+    while (!/\s/.test(String.fromCharCode(buf[pos]))) t += String.fromCharCode(buf[pos++]);
+    tokens.push(t);
+  }
+  pos++;
+  const width = Number(tokens[1]);
+  const height = Number(tokens[2]);
+  expect(tokens[0]).toBe('P5');
+  return { width, height, pixels: buf.subarray(pos, pos + width * height) };
+}
