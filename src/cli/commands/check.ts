@@ -17,8 +17,20 @@ import { frameOverviewSvg } from '../../export/svgOverview.js';
 import { buildFrame, type Frame, type Part } from '../../geometry/index.js';
 import { DesignError } from '../../params/errors.js';
 import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
+import { runDxfCheck } from './checkDxf.js';
 
-export type CheckCliOptions = { json?: boolean; annotate?: string; relieveCorners?: boolean; tool?: string; limit?: string[] };
+export type CheckCliOptions = {
+  json?: boolean;
+  annotate?: string;
+  relieveCorners?: boolean;
+  tool?: string;
+  limit?: string[];
+  /** DXF input only (see checkDxf.ts). */
+  thickness?: string;
+  material?: string;
+  units?: string;
+  layers?: string;
+};
 
 /** What `check` works on. The DXF import adds a branch here (a `.dxf` path gives parts without a frame). */
 type CheckInput = Readonly<{ kind: 'design'; frame: Frame }>;
@@ -90,13 +102,18 @@ export function registerCheck(program: Command): void {
   program
     .command('check')
     .description('design-rule checks before cutting: webs, hole edges, router-bit reach, weave direction, hole stress, prop clearance, props in the camera view')
-    .argument('<design>', 'design file (YAML or JSON)')
+    .argument('<design>', 'design file (YAML or JSON), or a DXF cut file drawn elsewhere (.dxf)')
     .option('--json', 'print the report as JSON (the report contract in the README)')
     .option('--annotate <dir>', 'write an SVG per part with each finding marked, and an overview with prop discs and the camera view')
     .option('--relieve-corners', 'add dogbone reliefs to sharp inside corners of slots and cut-outs, then check the edited parts')
     .option('--tool <mm>', 'router bit diameter in mm (default: cutting.toolDiameterMm of the design)')
     .option('--limit <rule.key=value...>', 'override a limit of the checks section, e.g. --limit web-width.minMm=2 (repeatable)')
+    .option('--thickness <mm>', 'DXF only: plate thickness in mm (else the sidecar FILE.dxf.yaml, else 2 mm with a warning)')
+    .option('--material <name>', 'DXF only: material name (woven-cf, or one defined in the sidecar)')
+    .option('--units <unit>', 'DXF only: drawing units mm, cm, m, in, ft (overrides $INSUNITS)')
+    .option('--layers <a,b>', 'DXF only: the layers that hold cut geometry (default: all but frozen, off and annotation layers)')
     .action((path: string, opts: CheckCliOptions) => {
+      if (/\.dxf$/i.test(path)) return runDxfCheck(path, opts, parseLimitFlags(opts.limit ?? []));
       const input = loadCheckInput(path);
       let frame = input.frame;
       const o = mergedOptions(frame, opts);
