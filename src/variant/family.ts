@@ -18,6 +18,8 @@ export type FamilyRow = Readonly<{
   massG: number;
   /** First bending frequency of the softest arm with its motor (cantilever estimate). */
   armFrequencyHz: number;
+  /** Whether the stiffness rule was met ('source' for the source design itself). */
+  stiffnessRule: 'source' | 'kept' | 'not met';
   errors: number | null;
   warnings: number | null;
   status: 'ok' | 'warnings' | 'errors' | 'not checked';
@@ -26,7 +28,7 @@ export type FamilyRow = Readonly<{
 const r = (x: number, d: number) => Math.round(x * 10 ** d) / 10 ** d;
 
 /** A comparison row for a design and its frame; `tipMassG` is its motor's mass (motor table). */
-export function familyRow(label: string, d: Design, frame: Frame, tipMassG: number, report: CheckReport | null): FamilyRow {
+export function familyRow(label: string, d: Design, frame: Frame, tipMassG: number, report: CheckReport | null, stiffnessRule: FamilyRow['stiffnessRule']): FamilyRow {
   const widths: Record<string, number> = {};
   for (const p of armWidthParams(d)) widths[p.path.join('.')] = p.value;
   const s = report?.summary;
@@ -38,6 +40,7 @@ export function familyRow(label: string, d: Design, frame: Frame, tipMassG: numb
     armThicknessMm: armPlateThicknessMm(d),
     massG: r(frameMassG(frame), 1),
     armFrequencyHz: r(softestArm(d, tipMassG).frequencyHz, 1),
+    stiffnessRule,
     errors: s ? s.errors : null,
     warnings: s ? s.warnings : null,
     status: !s ? 'not checked' : s.errors > 0 ? 'errors' : s.warnings > 0 ? 'warnings' : 'ok',
@@ -46,9 +49,9 @@ export function familyRow(label: string, d: Design, frame: Frame, tipMassG: numb
 
 /** Rows for a variant's source and the variant itself. */
 export const variantRow = (v: VariantResult, report: CheckReport | null): FamilyRow =>
-  familyRow(v.design.name, v.design, v.frame, v.motor.variantClass.massG, report);
+  familyRow(v.design.name, v.design, v.frame, v.motor.variantClass.massG, report, v.arms.met ? 'kept' : 'not met');
 export const sourceRow = (v: VariantResult, report: CheckReport | null): FamilyRow =>
-  familyRow(`${v.sourceDesign.name} (source)`, v.sourceDesign, v.sourceFrame, v.motor.sourceClass.massG, report);
+  familyRow(`${v.sourceDesign.name} (source)`, v.sourceDesign, v.sourceFrame, v.motor.sourceClass.massG, report, 'source');
 
 /** Arm size as one short text: widths joined by "/", then thickness, e.g. "10.5/8/36 × 6". */
 export const armSizeText = (row: FamilyRow): string => `${Object.values(row.armWidthsMm).join('/')} × ${row.armThicknessMm}`;

@@ -76,7 +76,7 @@ describe('framewright variant (built CLI)', () => {
     expect(radii.filter((_, i) => i % 4 === 0)).toEqual([88.9, 63.5, 76.2, 88.9]);
 
     const text = cli('designs/farline-7.yaml', '--props', '5in,6in,7in', '--out', join(tmp(), 'f2'));
-    expect(text.stdout).toMatch(/frame\s+props in\s+wheelbase mm\s+arm widths × t mm\s+mass g\s+arm f1 Hz\s+checks/);
+    expect(text.stdout).toMatch(/frame\s+props in\s+wheelbase mm\s+arm widths × t mm\s+mass g\s+arm f1 Hz\s+f1 rule\s+checks/);
     expect(text.stdout.split('\n').filter((l) => /^Farline 7 \(/.test(l))).toHaveLength(4);
   });
 

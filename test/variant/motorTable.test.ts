@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { classTurnsProp, MOTOR_CLASSES, motorClassesForPattern, motorClassOf } from '../../src/params/motorTable.js';
 import { parseDesignText } from '../../src/params/design.js';
@@ -46,5 +47,16 @@ describe('motor-size table', () => {
     // auto picks the class that turns the prop
     expect(chooseMotor(d, 'auto', 50.8).variantClass.name).toBe('12xx-18xx');
     expect(chooseMotor(d, 'auto', 127).changes).toEqual([]);
+  });
+});
+
+describe('README motor table', () => {
+  it('lists every class exactly as the code has it', () => {
+    const readme = readFileSync(new URL('../../README.md', import.meta.url), 'utf8');
+    const section = readme.slice(readme.indexOf('<!-- section:variants -->'), readme.indexOf('<!-- /section:variants -->'));
+    for (const c of MOTOR_CLASSES) {
+      const row = `| ${c.name} | ${c.boltCirclesMm.join(' or ')} mm | ${c.boltSize} | ${c.propsIn[0]}–${c.propsIn[1]} in | ${c.bellDiameterMm} mm | ${c.boreMm} mm | ${c.massG} g |`;
+      expect(section).toContain(row);
+    }
   });
 });

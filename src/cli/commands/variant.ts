@@ -78,7 +78,7 @@ function changeTable(v: VariantResult): string {
 
 function comparisonTable(rows: readonly FamilyRow[]): string {
   return textTable(
-    ['frame', 'props in', 'wheelbase mm', 'arm widths × t mm', 'mass g', 'arm f1 Hz', 'checks'],
+    ['frame', 'props in', 'wheelbase mm', 'arm widths × t mm', 'mass g', 'arm f1 Hz', 'f1 rule', 'checks'],
     rows.map((r) => [
       r.label,
       fmt(r.propsIn, 2),
@@ -86,6 +86,7 @@ function comparisonTable(rows: readonly FamilyRow[]): string {
       armSizeText(r),
       fmt(r.massG, 1),
       fmt(r.armFrequencyHz, 1),
+      r.stiffnessRule,
       r.status === 'not checked' ? 'not checked' : `${r.errors} errors, ${r.warnings} warnings`,
     ]),
   );
