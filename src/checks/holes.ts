@@ -8,7 +8,7 @@ import { finding, mid, mm } from './finding.js';
 import { heywoodKtn, lekhnitskiiKt } from './laminate.js';
 import type { CheckOptions } from './options.js';
 import type { PartIndex } from './partIndex.js';
-import { buildBoxGrid, queryBoxGrid } from './spatial.js';
+import { buildBoxGrid, queryBoxGrid, type BoxGrid } from './spatial.js';
 import type { Finding } from './types.js';
 
 export const EDGE_RULE = 'hole-edge-distance';
@@ -31,16 +31,24 @@ export function boltHoles(ix: PartIndex): BoltHole[] {
 /** A contour that is a free edge for the edge distance: the outline or any inner contour that is not a round hole. */
 const isFreeEdge = (ix: PartIndex, k: number): boolean => k === 0 || ix.contours[k].feature?.diameterMm === undefined;
 
+/** The free-edge segments of a part (ids into ix.segs) with their own grid, so hole queries skip the holes. */
+export type FreeEdges = Readonly<{ ids: readonly number[]; grid: BoxGrid }>;
+
+export function freeEdges(ix: PartIndex): FreeEdges {
+  const ids = ix.segs.map((_, i) => i).filter((i) => isFreeEdge(ix, ix.segs[i].contour));
+  return { ids, grid: buildBoxGrid(ids.map((i) => ix.segs[i].box)) };
+}
+
 /**
  * Distance from the hole centre to the nearest free edge, searching outward with a doubling radius
  * (exact: closest points on lines and arcs). mm.
  */
-export function edgeDistance(ix: PartIndex, h: BoltHole): { eMm: number; at: Vec2; edge: number } | null {
+export function edgeDistance(ix: PartIndex, h: BoltHole, free: FreeEdges = freeEdges(ix)): { eMm: number; at: Vec2; edge: number } | null {
   for (let r = h.diameterMm; ; r *= 2) {
     let best: { eMm: number; at: Vec2; edge: number } | null = null;
-    for (const id of queryBoxGrid(ix.segGrid, [h.center[0], h.center[1], h.center[0], h.center[1]], r)) {
-      const s = ix.segs[id];
-      if (s.contour === h.contour || !isFreeEdge(ix, s.contour)) continue;
+    for (const k of queryBoxGrid(free.grid, [h.center[0], h.center[1], h.center[0], h.center[1]], r)) {
+      const s = ix.segs[free.ids[k]];
+      if (s.contour === h.contour) continue;
       const c = closestPoint(s.s, h.center);
       if (c.distance <= r && (!best || c.distance < best.eMm)) best = { eMm: c.distance, at: c.point, edge: s.contour };
     }
@@ -58,8 +66,9 @@ export function holeEdgeRule(ix: PartIndex, o: CheckOptions, holes: readonly Bol
   const name = ix.part.name;
   const findings: Finding[] = [];
   let minRatio: number | null = null;
+  const free = freeEdges(ix);
   for (const h of holes) {
-    const e = edgeDistance(ix, h);
+    const e = edgeDistance(ix, h, free);
     if (!e) continue;
     const ratio = e.eMm / h.diameterMm;
     minRatio = minRatio === null ? ratio : Math.min(minRatio, ratio);

@@ -11,9 +11,14 @@ export type BoxGrid = Readonly<{
   cellMm: number;
   originMm: readonly [number, number];
   cells: ReadonlyMap<number, readonly number[]>;
+  /** Scratch marks for de-duplicating a query (each query fills its result before the next starts). */
+  marks: { stamp: number; seen: Int32Array };
 }>;
 
 const KEY_SPAN = 1 << 20;
+
+/** Items spanning more cells than this are kept in one spill list instead. */
+const SPILL_CELLS = 64;
 const key = (ix: number, iy: number): number => ix * KEY_SPAN + iy;
 
 /** Build a grid over the boxes (index = item id). cellMm defaults to twice the median box size. */
@@ -31,11 +36,12 @@ export function buildBoxGrid(boxes: readonly BBox[], cellMm?: number): BoxGrid {
   }
   if (!Number.isFinite(ox)) ox = oy = 0;
   const cells = new Map<number, number[]>();
-  const grid: BoxGrid = { boxes, cellMm: cell, originMm: [ox, oy], cells };
+  const grid: BoxGrid = { boxes, cellMm: cell, originMm: [ox, oy], cells, marks: { stamp: 0, seen: new Int32Array(boxes.length) } };
   boxes.forEach((b, id) => {
     const [ix0, iy0, ix1, iy1] = cellRange(grid, b, 0);
-    // A huge item (a plate outline) would fill every cell: cap the fan-out, the spill list holds it.
-    if ((ix1 - ix0 + 1) * (iy1 - iy0 + 1) > 4096) {
+    // A large item (a long outline edge) would sit in many cells and be met again and again by
+    // wide queries: it goes to the spill list, which every query scans once.
+    if ((ix1 - ix0 + 1) * (iy1 - iy0 + 1) > SPILL_CELLS) {
       const spill = cells.get(-1) ?? [];
       spill.push(id);
       cells.set(-1, spill);
@@ -63,22 +69,36 @@ function cellRange(g: BoxGrid, b: BBox, padMm: number): [number, number, number,
   ];
 }
 
-/** Ids of items whose box comes within padMm of the query box (ascending, each once). */
+/** Ids of items whose box comes within padMm of the query box (each once, in a deterministic order). */
 export function queryBoxGrid(g: BoxGrid, b: BBox, padMm = 0): number[] {
-  const seen = new Set<number>();
-  const [ix0, iy0, ix1, iy1] = cellRange(g, b, padMm);
-  const cellsSpanned = (ix1 - ix0 + 1) * (iy1 - iy0 + 1);
-  const visit = (id: number): void => {
-    const o = g.boxes[id];
-    if (o[0] > b[2] + padMm || b[0] > o[2] + padMm || o[1] > b[3] + padMm || b[1] > o[3] + padMm) return;
-    seen.add(id);
+  const out: number[] = [];
+  const marks = g.marks;
+  const stamp = ++marks.stamp;
+  const x0 = b[0] - padMm;
+  const y0 = b[1] - padMm;
+  const x1 = b[2] + padMm;
+  const y1 = b[3] + padMm;
+  const visit = (list: readonly number[]): void => {
+    for (const id of list) {
+      if (marks.seen[id] === stamp) continue;
+      marks.seen[id] = stamp;
+      const o = g.boxes[id];
+      if (o[0] > x1 || x0 > o[2] || o[1] > y1 || y0 > o[3]) continue;
+      out.push(id);
+    }
   };
-  if (cellsSpanned > g.cells.size) {
+  const [ix0, iy0, ix1, iy1] = cellRange(g, b, padMm);
+  if ((ix1 - ix0 + 1) * (iy1 - iy0 + 1) > g.cells.size) {
     // The query covers more cells than exist: scanning the occupied ones is cheaper.
-    for (const [k, list] of g.cells) if (k !== -1) for (const id of list) visit(id);
+    for (const [k, list] of g.cells) if (k !== -1) visit(list);
   } else {
-    for (let ix = ix0; ix <= ix1; ix++) for (let iy = iy0; iy <= iy1; iy++) for (const id of g.cells.get(key(ix, iy)) ?? []) visit(id);
+    for (let ix = ix0; ix <= ix1; ix++) {
+      for (let iy = iy0; iy <= iy1; iy++) {
+        const list = g.cells.get(key(ix, iy));
+        if (list) visit(list);
+      }
+    }
   }
-  for (const id of g.cells.get(-1) ?? []) visit(id);
-  return [...seen].sort((a, b2) => a - b2);
+  visit(g.cells.get(-1) ?? []);
+  return out;
 }

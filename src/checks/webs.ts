@@ -45,13 +45,31 @@ export function contourPairsWithin(ix: PartIndex, radiusMm: number, want: (a: nu
   return out;
 }
 
+/** For each inner contour within radiusMm of the outline, its closest pair to the outline (queried from the outline side). */
+export function outlinePairsWithin(ix: PartIndex, radiusMm: number): ContourPair[] {
+  const best = new Map<number, ContourPair>();
+  for (let k = 0; k < ix.contours[0].loop.length; k++) {
+    const so = ix.segs[ix.firstSeg[0] + k];
+    for (const id of queryBoxGrid(ix.segGrid, so.box, radiusMm)) {
+      const sb = ix.segs[id];
+      if (sb.contour === 0) continue;
+      const cur = best.get(sb.contour);
+      const bound = Math.min(radiusMm, cur ? cur.distance : Infinity);
+      if (bboxGap(so.box, sb.box) > bound) continue;
+      const c = segmentDistance(sb.s, so.s);
+      if (c.distance <= bound && (!cur || c.distance < cur.distance)) best.set(sb.contour, { ...c, a: sb.contour, b: 0 });
+    }
+  }
+  return [...best.values()].sort((x, y) => x.a - y.a);
+}
+
 /**
  * Smallest distance between an inner contour and a contour accepted by `want`, searching with a
  * radius that doubles until something is found (exact: every pair nearer than the radius is seen).
  */
-export function nearestPair(ix: PartIndex, startMm: number, want: (a: number, b: number) => boolean): ContourPair | null {
+export function nearestPair(ix: PartIndex, startMm: number, want: ((a: number, b: number) => boolean) | 'outline'): ContourPair | null {
   for (let r = Math.max(startMm, 1e-3); ; r *= 2) {
-    const pairs = contourPairsWithin(ix, r, want);
+    const pairs = want === 'outline' ? outlinePairsWithin(ix, r) : contourPairsWithin(ix, r, want);
     if (pairs.length) return pairs.reduce((m, p) => (p.distance < m.distance ? p : m));
     if (r > 2 * ix.spanMm) return null;
   }
@@ -86,7 +104,7 @@ export function webRule(ix: PartIndex, o: CheckOptions, chords: readonly Chord[]
     minNeck = minNeck === null ? c.widthMm : Math.min(minNeck, c.widthMm);
     report(c.widthMm, mid(c.p, c.q), `narrow neck in the ${ix.contours[c.contour].label}`);
   }
-  const edge = nearestPair(ix, warn, (_a, b) => b === 0);
+  const edge = nearestPair(ix, warn, 'outline');
   const holeHole = nearestPair(ix, warn, (_a, b) => b !== 0);
   const candidates = [edge?.distance, holeHole?.distance, minNeck ?? undefined].filter((x): x is number => x !== undefined);
   return {

@@ -16,6 +16,7 @@ import { partToSvg } from '../../export/svgPart.js';
 import { frameOverviewSvg } from '../../export/svgOverview.js';
 import { buildFrame, type Frame, type Part } from '../../geometry/index.js';
 import { DesignError } from '../../params/errors.js';
+import type { Design } from '../../params/design.js';
 import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { runDxfCheck } from './checkDxf.js';
 
@@ -33,11 +34,11 @@ export type CheckCliOptions = {
 };
 
 /** What `check` works on. The DXF import adds a branch here (a `.dxf` path gives parts without a frame). */
-type CheckInput = Readonly<{ kind: 'design'; frame: Frame }>;
+type CheckInput = Readonly<{ kind: 'design'; design: Design }>;
 
 /** Load the thing to check from a path (the only file access of this command besides --annotate). */
 function loadCheckInput(path: string): CheckInput {
-  return { kind: 'design', frame: buildFrame(readDesign(path)) };
+  return { kind: 'design', design: readDesign(path) };
 }
 
 /**
@@ -58,9 +59,9 @@ export function parseLimitFlags(pairs: readonly string[]): Record<string, Record
 }
 
 /** The design's limits with the command-line ones on top; throws DesignError naming `checks.RULE.KEY`. */
-export function mergedOptions(frame: Frame, opts: CheckCliOptions): CheckOptions {
+export function mergedOptions(design: Design, opts: CheckCliOptions): CheckOptions {
   const flags = parseLimitFlags(opts.limit ?? []);
-  const base = frame.design.checks as Record<string, Record<string, unknown>>;
+  const base = design.checks as Record<string, Record<string, unknown>>;
   const merged: Record<string, unknown> = { ...base };
   for (const [rule, keys] of Object.entries(flags)) merged[rule] = { ...(base[rule] ?? {}), ...keys };
   const limits = parseLimits(merged);
@@ -71,7 +72,7 @@ export function mergedOptions(frame: Frame, opts: CheckCliOptions): CheckOptions
       throw new DesignError([{ path: '--tool', value: opts.tool, message: 'must be a router bit diameter from 0.3 to 12 mm' }]);
     }
   }
-  return optionsForDesign(frame.design, { limits, ...(toolDiameterMm !== undefined ? { toolDiameterMm } : {}) });
+  return optionsForDesign(design, { limits, ...(toolDiameterMm !== undefined ? { toolDiameterMm } : {}) });
 }
 
 /** Apply dogbone reliefs to every part of the frame; returns the edited frame and the counts. */
@@ -115,8 +116,9 @@ export function registerCheck(program: Command): void {
     .action((path: string, opts: CheckCliOptions) => {
       if (/\.dxf$/i.test(path)) return runDxfCheck(path, opts, parseLimitFlags(opts.limit ?? []));
       const input = loadCheckInput(path);
-      let frame = input.frame;
-      const o = mergedOptions(frame, opts);
+      // Limits are judged before the (slower) geometry is built, so bad input fails fast.
+      const o = mergedOptions(input.design, opts);
+      let frame = buildFrame(input.design);
       let reliefNote = '';
       if (opts.relieveCorners) {
         const r = relieveFrame(frame, o.toolDiameterMm);
