@@ -69,6 +69,8 @@ describe('file hygiene findings', () => {
     const text = r.findings.find((x) => x.rule === 'dxf-annotation-on-cut-layer')!;
     expect(text.severity).toBe('warning');
     expect(text.message).toContain('layer CUT');
+    expect(text.message).toContain('(DIMENSION, TEXT)');
+    expect(text.measured).toBe(2);
     const skipped = r.findings.filter((x) => x.rule === 'dxf-layer-skipped').map((x) => x.message);
     expect(skipped.some((m) => m.startsWith('layer NOTES') && m.includes('annotation'))).toBe(true);
     expect(skipped.some((m) => m.startsWith('layer OLD') && m.includes('frozen'))).toBe(true);

@@ -1,5 +1,7 @@
+import * as DxfParserModule from 'dxf-parser';
 import { describe, expect, it } from 'vitest';
-import { lengthOf, pointAt, signedArea, type Segment } from '../../src/geometry/index.js';
+import { dist, distanceToLoop, lengthOf, pointAt, signedArea, tangentAt, type Segment } from '../../src/geometry/index.js';
+import { headerValue, parseDocument } from '../../src/import/document.js';
 import { bulgeSegment, DxfReadError, ellipseCurve, fitArcs, importDxf, nurbsCurve, parseDrawingUnit, unitFromInsunits } from '../../src/import/index.js';
 import { fixtureText } from './helpers.js';
 
@@ -141,5 +143,69 @@ describe('robust reading: a clear DxfReadError, never a crash or a hang', () => 
     const r = importDxf(dxf('0\nCIRCLE\n8\n0\n10\n10\n20\n5\n40\n20\n210\n0\n220\n0\n230\n-1\n'), { name: 'p', thicknessMm: 2 });
     const outline = r.parts[0].outline[0] as Extract<Segment, { kind: 'arc' }>;
     expect(outline.center).toEqual([-10, 5]);
+  });
+});
+
+describe('the reader agrees with the independent npm dxf-parser on every fixture', () => {
+  // dxf-parser's default export under NodeNext (library-notes.md)
+  type Parsed = { header: Record<string, unknown>; blocks: Record<string, unknown>; entities: Array<Record<string, any>> };
+  const Parser = ((DxfParserModule as any).default ?? DxfParserModule) as new () => { parseSync(s: string): Parsed };
+  for (const f of ['line-arc-plate.dxf', 'bulge-arm.dxf', 'bulge-arm-r12.dxf', 'blocks.dxf', 'splines.dxf', 'annotation.dxf', 'inch-plate.dxf']) {
+    it(f, () => {
+      const text = fixtureText(f);
+      const theirs = new Parser().parseSync(text);
+      const ours = parseDocument(text, 1e7);
+      const count = (types: string[]) => types.reduce<Record<string, number>>((m, t) => ({ ...m, [t]: (m[t] ?? 0) + 1 }), {});
+      expect(count(ours.entities.map((e) => e.type))).toEqual(count(theirs.entities.map((e) => e.type)));
+      expect([...ours.blocks.keys()].sort()).toEqual(Object.keys(theirs.blocks).sort());
+      expect(headerValue(ours, '$INSUNITS', 70) === undefined ? undefined : Number(headerValue(ours, '$INSUNITS', 70))).toBe(theirs.header.$INSUNITS);
+      // Circle centres and radii, and polyline vertices with their bulges, value for value.
+      const circles = ours.entities.filter((e) => e.type === 'CIRCLE');
+      const theirCircles = theirs.entities.filter((e) => e.type === 'CIRCLE');
+      circles.forEach((c, i) => {
+        const v = (code: number) => Number(c.pairs.find((p) => p.code === code)!.value);
+        expect([v(10), v(20), v(40)]).toEqual([theirCircles[i].center.x, theirCircles[i].center.y, theirCircles[i].radius]);
+      });
+      const polys = theirs.entities.filter((e) => e.type === 'LWPOLYLINE');
+      ours.entities.filter((e) => e.type === 'LWPOLYLINE').forEach((e, i) => {
+        const xs = e.pairs.filter((p) => p.code === 10).map((p) => Number(p.value));
+        expect(xs).toEqual(polys[i].vertices.map((v: { x: number }) => v.x));
+        const bulges = e.pairs.filter((p) => p.code === 42).map((p) => Number(p.value));
+        expect(bulges.filter((b) => b !== 0)).toEqual(polys[i].vertices.map((v: { bulge?: number }) => v.bulge ?? 0).filter((b: number) => b !== 0));
+      });
+    });
+  }
+});
+
+describe('more entity cases', () => {
+  it('fitted arcs meet with a common tangent (G1): no false corners for the bit-reach rule', () => {
+    const w = 0.7;
+    const c = nurbsCurve([[0, 0], [10, 20], [30, -10], [40, 10], [60, 0]], [1, w, 1, 2, 1], [0, 0, 0, 0, 0.5, 1, 1, 1, 1], 3);
+    const segs = fitArcs(c, 0.002);
+    expect(segs.length).toBeGreaterThan(4);
+    for (let i = 0; i + 1 < segs.length; i++) {
+      const a = tangentAt(segs[i], 1);
+      const b = tangentAt(segs[i + 1], 0);
+      expect(Math.abs(a[0] * b[1] - a[1] * b[0])).toBeLessThan(1e-6);
+      expect(dist(pointAt(segs[i], 1), pointAt(segs[i + 1], 0))).toBeLessThan(1e-9);
+    }
+  });
+
+  it('a SPLINE with fit points only passes through them and is flagged', () => {
+    const fit = [[0, 0], [20, 15], [40, 0], [20, -15]];
+    const spline = `0\nSPLINE\n8\n0\n70\n8\n71\n3\n74\n${fit.length + 1}\n${[...fit, fit[0]].map(([x, y]) => `11\n${x}\n21\n${y}\n`).join('')}`;
+    const r = importDxf(dxf(spline), { name: 'p', thicknessMm: 2 });
+    expect(r.findings.some((f) => f.rule === 'dxf-curve-approximated' && f.message.includes('SPLINE'))).toBe(true);
+    expect(r.parts).toHaveLength(1);
+    for (const p of fit) expect(distanceToLoop(r.parts[0].outline, p as [number, number])).toBeLessThan(1e-9);
+  });
+
+  it('an INSERT array (3 columns × 2 rows) gives six copies; block entities on layer 0 take the INSERT layer', () => {
+    const blocks = '0\nSECTION\n2\nBLOCKS\n0\nBLOCK\n8\n0\n2\nHOLE\n70\n0\n10\n0\n20\n0\n0\nCIRCLE\n8\n0\n10\n0\n20\n0\n40\n1\n0\nENDBLK\n0\nENDSEC\n';
+    const entities = `${rect(0, 0, 60, 40, 'CUT')}0\nINSERT\n8\nCUT\n2\nHOLE\n10\n10\n20\n10\n70\n3\n71\n2\n44\n20\n45\n20\n`;
+    const text = `0\nSECTION\n2\nHEADER\n9\n$INSUNITS\n70\n4\n0\nENDSEC\n${blocks}0\nSECTION\n2\nENTITIES\n${entities}0\nENDSEC\n0\nEOF\n`;
+    const r = importDxf(text, { name: 'p', thicknessMm: 2, layers: ['CUT'] });
+    const centres = r.parts[0].features.map((f) => f.centerMm);
+    expect(centres).toEqual([[10, 10], [10, 30], [30, 10], [30, 30], [50, 10], [50, 30]]);
   });
 });
