@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { checkOptions, checkParts } from '../../src/checks/index.js';
-import { partArea, partCutLength } from '../../src/geometry/index.js';
+import { partArea, partCutLength, signedArea } from '../../src/geometry/index.js';
 import { pythonModuleAvailable, requireTool, runPythonJson } from '../helpers/reference.js';
 import { fixturePath, importFixture } from './helpers.js';
 import { join } from 'node:path';
@@ -49,6 +49,9 @@ describe('imported fixtures against ezdxf + Shapely ground truth', () => {
       const report = checkParts(r.parts, checkOptions({ toolDiameterMm: 1 }));
       r.parts.forEach((p, i) => {
         const t = truth.polygons[i];
+        // Orientation convention (src/geometry/types.ts): outline counter-clockwise, features clockwise.
+        expect(signedArea(p.outline)).toBeGreaterThan(0);
+        for (const f of p.features) expect(signedArea(f.loop)).toBeLessThan(0);
         // Shapely area and ring lengths of the flattened drawing: 0.01 %
         expect(Math.abs(partArea(p) - t.area) / t.area).toBeLessThan(1e-4);
         expect(Math.abs(partCutLength(p) - t.length) / t.length).toBeLessThan(1e-4);

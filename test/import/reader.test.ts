@@ -1,6 +1,7 @@
 import * as DxfParserModule from 'dxf-parser';
 import { describe, expect, it } from 'vitest';
-import { dist, distanceToLoop, lengthOf, pointAt, signedArea, tangentAt, type Segment } from '../../src/geometry/index.js';
+import { arc, dist, distanceToLoop, lengthOf, line, pointAt, signedArea, tangentAt, type Segment } from '../../src/geometry/index.js';
+import { overlap } from '../../src/import/clean.js';
 import { headerValue, parseDocument } from '../../src/import/document.js';
 import { bulgeSegment, DxfReadError, ellipseCurve, fitArcs, importDxf, nurbsCurve, parseDrawingUnit, unitFromInsunits } from '../../src/import/index.js';
 import { fixtureText } from './helpers.js';
@@ -207,5 +208,26 @@ describe('more entity cases', () => {
     const r = importDxf(text, { name: 'p', thicknessMm: 2, layers: ['CUT'] });
     const centres = r.parts[0].features.map((f) => f.centerMm);
     expect(centres).toEqual([[10, 10], [10, 30], [30, 10], [30, 30], [50, 10], [50, 30]]);
+  });
+});
+
+describe('overlaps on one circle', () => {
+  it('an arc over 0°–180° and one over 90°–270°: the second keeps only 180°–270°', () => {
+    const first = arc([0, 0], 5, 0, Math.PI);
+    const second = arc([0, 0], 5, Math.PI / 2, Math.PI);
+    const o = overlap(first, second, 0.01)!;
+    expect(o.kind).toBe('overlap');
+    expect(o.lengthMm).toBeCloseTo((5 * Math.PI) / 2, 9);
+    expect(o.rest).toHaveLength(1);
+    const rest = o.rest[0] as Extract<Segment, { kind: 'arc' }>;
+    expect(rest.startRad).toBeCloseTo(Math.PI, 12);
+    expect(rest.sweepRad).toBeCloseTo(Math.PI / 2, 12);
+  });
+
+  it('a clockwise arc keeps its direction; a line inside another vanishes', () => {
+    const o = overlap(arc([0, 0], 5, 0, Math.PI), arc([0, 0], 5, (3 * Math.PI) / 2, -Math.PI), 0.01)!;
+    expect(o.rest).toHaveLength(1);
+    expect((o.rest[0] as Extract<Segment, { kind: 'arc' }>).sweepRad).toBeCloseTo(-Math.PI / 2, 12);
+    expect(overlap(line([0, 0], [10, 0]), line([2, 0], [8, 0]), 0.01)!.rest).toEqual([]);
   });
 });
