@@ -138,7 +138,8 @@ export function sizeArms(source: Design, sourceTipMassG: number, variant: Design
     }
   }
   chosen ??= firstMeeting;
-  if (!chosen) chosen = { t: STOCK_THICKNESSES_MM[STOCK_THICKNESSES_MM.length - 1], k: Math.max(kLo, Math.min(kHi, kHi)), met: false };
+  // Nothing meets the target: the stiffest arm allowed (thickest stock, widest widths), flagged.
+  if (!chosen) chosen = { t: STOCK_THICKNESSES_MM[STOCK_THICKNESSES_MM.length - 1], k: kLo <= kHi ? kHi : kLo, met: false };
   const widths = rounded(chosen.k);
   const sized = withArmSize(variant, widths, chosen.t);
   const achieved = softestArm(sized, variantTipMassG);

@@ -90,6 +90,16 @@ describe('framewright variant (built CLI)', () => {
     expect(readFileSync(png).subarray(1, 4).toString()).toBe('PNG');
   });
 
+  it('--out may be a directory for one size; a file is refused for a family', () => {
+    const dir = tmp();
+    const one = cli('designs/mote-3.yaml', '--props', '4in', '--out', dir);
+    expect([0, 1]).toContain(one.status);
+    expect(readdirSync(dir)).toEqual(['mote-3-4in.yaml']);
+    const fam = cli('designs/mote-3.yaml', '--props', '3in,4in', '--out', join(dir, 'mote-3-4in.yaml'));
+    expect(fam.status).toBe(2);
+    expect(fam.stderr).toMatch(/--out: .* is a file; a family needs a directory/);
+  });
+
   it('a family with an impossible member writes nothing and says which', () => {
     const base = tmp();
     const dir = join(base, 'fam');

@@ -43,10 +43,9 @@ describe('stiffness rule: the variant arm keeps the source arm frequency', () =>
       expect(t).toBe(v.arms.thicknessMm);
       // within the snapping step: one width step narrower on every width misses the target
       const d = v.design;
-      const widths = armWidthParams(d).map((p) => p.value);
       const narrower = armWidthParams(d).map((p) => Math.max(p.minMm, p.value - WIDTH_STEP_MM));
       if (v.arms.atMinimumWidth) {
-        // the lower width limit binds: every width is its minimum rounded up to the step
+        // the lower width limit binds: a width sits at its minimum rounded up to the step
         const params = armWidthParams(d);
         expect(params.some((p) => p.value === Math.ceil(p.minMm / WIDTH_STEP_MM) * WIDTH_STEP_MM)).toBe(true);
       } else {
@@ -55,6 +54,12 @@ describe('stiffness rule: the variant arm keeps the source arm frequency', () =>
       }
     });
   }
+
+  it('growing sizes are set by the target, not by a width limit', () => {
+    for (const [demo, props] of [['tessel-5', '7in'], ['farline-7', '8in'], ['mote-3', '4in']]) {
+      expect(makeVariant(demoText(demo), { props }).arms.atMinimumWidth, `${demo} ${props}`).toBe(false);
+    }
+  });
 
   it('the rule\'s frequency is the cantilever formula on lengths read from the file', () => {
     // Independent reading of a separate-arm frame (tessel-5 is a truss of separate arms, weave along the arm):

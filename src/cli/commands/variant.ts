@@ -1,4 +1,5 @@
 import type { Command } from 'commander';
+import { existsSync, statSync } from 'node:fs';
 import { basename, extname, join } from 'node:path';
 import { checkFrame, type CheckReport } from '../../checks/index.js';
 import type { Frame } from '../../geometry/frame.js';
@@ -114,6 +115,7 @@ function variantJson(v: VariantResult, report: CheckReport | null, file: string)
     massG: v.massG,
     sourceMassG: v.sourceMassG,
     checks: report ? report.summary : null,
+    cautions: CAUTIONS,
   };
 }
 
@@ -162,7 +164,9 @@ export function registerVariant(program: Command): void {
 function singleVariant(text: string, designPath: string, stem: string, req: VariantRequest, opts: VariantOptions, check: FrameChecker | null): void {
   const v = runOne(text, req, designPath);
   const report = check ? check(v.frame) : null;
-  const file = opts.out ?? join('out', `${stem}-${propsSlug(req.props)}.yaml`);
+  const name = `${stem}-${propsSlug(req.props)}.yaml`;
+  // --out may name the file or a directory to put it in.
+  const file = opts.out === undefined ? join('out', name) : existsSync(opts.out) && statSync(opts.out).isDirectory() ? join(opts.out, name) : opts.out;
   writeAllAtomically([{ path: file, data: v.text }]);
   if (opts.json) {
     process.stdout.write(`${JSON.stringify(variantJson(v, report, file), null, 2)}\n`);
@@ -205,6 +209,7 @@ function family(text: string, designPath: string, stem: string, sizes: readonly 
   const reports = results.map((v) => (check ? check(v.frame) : null));
   const sourceReport = check ? check(results[0].sourceFrame) : null;
   const dir = opts.out ?? join('out', `${stem}-family`);
+  if (existsSync(dir) && !statSync(dir).isDirectory()) throw new UsageError(`--out: ${dir} is a file; a family needs a directory`);
   const files: OutputFile[] = results.map((v, i) => ({ path: join(dir, `${stem}-${propsSlug(sizes[i])}.yaml`), data: v.text }));
   const rows = [sourceRow(results[0], sourceReport), ...results.map((v, i) => variantRow(v, reports[i]))];
   const members = [
@@ -215,7 +220,7 @@ function family(text: string, designPath: string, stem: string, sizes: readonly 
   files.push({ path: svgPath, data: familySheetSvg(members, { title: `${results[0].sourceDesign.name}: size family`, footer: CAUTIONS }) });
   writeAllAtomically(files);
   if (opts.json) {
-    process.stdout.write(`${JSON.stringify({ units: 'mm', source: designPath, sheet: svgPath, rows, variants: results.map((v, i) => variantJson(v, reports[i], files[i].path)) }, null, 2)}\n`);
+    process.stdout.write(`${JSON.stringify({ units: 'mm', source: designPath, sheet: svgPath, cautions: CAUTIONS, rows, variants: results.map((v, i) => variantJson(v, reports[i], files[i].path)) }, null, 2)}\n`);
   } else {
     const out = [
       `${results[0].sourceDesign.name}: ${results.length} variants in ${dir} (sheet: ${svgPath})`,
