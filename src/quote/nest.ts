@@ -130,7 +130,6 @@ export function nestParts(items: readonly NestItem[], options: NestOptions): Nes
   const sheets: NestedSheet[] = [];
   const summary: NestGroup[] = [];
   const sheetArea = W * H;
-  let fine: Level | null = null;
   for (const key of [...groups.keys()].sort()) {
     const members = groups.get(key)!;
     const tried = STRATEGIES.map((strategy) => ({ strategy, result: runStrategy(coarse, items, members, strategy, tick) }))
@@ -144,7 +143,7 @@ export function nestParts(items: readonly NestItem[], options: NestOptions): Nes
     if (options.refine !== false && best.result.length > Math.ceil(area / sheetArea - 1e-9)) {
       // Not provably optimal by area: a finer raster (less rounding of the gaps) with the best rules
       // so far may save a sheet.
-      fine ??= level(items, options, cell / 2);
+      const fine = level(items, options, cell / 2, new Set(members));
       for (const t of tried.slice(0, REFINE_STRATEGIES)) {
         const r = runStrategy(fine, items, members, t.strategy, tick);
         if (r && r.length < best.result.length) {
@@ -179,7 +178,8 @@ const REFINE_STRATEGIES = 2;
 /** Rasters and grids for one cell size. */
 type Level = Readonly<{ shapes: Raster[][]; boxes: Raster[][]; upright: Grid; turned: Grid }>;
 
-function level(items: readonly NestItem[], options: NestOptions, cell: number): Level {
+/** Rasters of the items (only those in `only`, when given) and the grids, at one cell size. */
+function level(items: readonly NestItem[], options: NestOptions, cell: number, only?: ReadonlySet<number>): Level {
   const s = options.spacingMm;
   const m = options.marginMm;
   const grid = (w: number, h: number): Grid => ({
@@ -189,7 +189,7 @@ function level(items: readonly NestItem[], options: NestOptions, cell: number): 
     origin: [m - s / 2, m - s / 2],
     cell,
   });
-  const shapes = items.map((it) => (it.count > 0 ? allowedRotations(it.part).map((rot) => rasterise(it.part, rot, s / 2, cell)) : []));
+  const shapes = items.map((it, i) => (it.count > 0 && (!only || only.has(i)) ? allowedRotations(it.part).map((rot) => rasterise(it.part, rot, s / 2, cell)) : []));
   return { shapes, boxes: shapes.map((rs) => rs.map(boxRaster)), upright: grid(options.sheet.widthMm, options.sheet.heightMm), turned: grid(options.sheet.heightMm, options.sheet.widthMm) };
 }
 
