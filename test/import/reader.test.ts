@@ -231,3 +231,17 @@ describe('overlaps on one circle', () => {
     expect(overlap(line([0, 0], [10, 0]), line([2, 0], [8, 0]), 0.01)!.rest).toEqual([]);
   });
 });
+
+describe('entities that cannot be cut geometry', () => {
+  it('unsupported types, tilted planes and paper space: reported or ignored, the plate still read', () => {
+    const face = '0\n3DFACE\n8\n0\n10\n0\n20\n0\n30\n0\n11\n1\n21\n0\n31\n0\n12\n1\n22\n1\n32\n0\n13\n0\n23\n1\n33\n0\n';
+    const tilted = '0\nCIRCLE\n8\n0\n10\n5\n20\n5\n40\n1\n210\n1\n220\n0\n230\n0\n';
+    const paper = '0\nCIRCLE\n67\n1\n8\n0\n10\n500\n20\n500\n40\n3\n';
+    const r = importDxf(dxf(face + tilted + paper + rect(0, 0, 50, 30)), { name: 'p', thicknessMm: 2 });
+    const byRule = (rule: string) => r.findings.filter((f) => f.rule === rule);
+    expect(byRule('dxf-unsupported-entity')[0].message).toContain('3DFACE');
+    expect(byRule('dxf-not-planar')[0].message).toContain('extrusion 1, 0, 0');
+    expect(r.parts).toHaveLength(1);
+    expect(r.parts[0].features).toHaveLength(0); // neither the tilted nor the paper-space circle
+  });
+});
