@@ -1,0 +1,55 @@
+import { describe, expect, it } from 'vitest';
+import YAML from 'yaml';
+import { makeVariant } from '../../src/variant/index.js';
+import { demoText, motorsFromRaw, propMmFromRaw } from './helpers.js';
+
+/**
+ * Plan-view clearance between the prop discs and the standoffs, read from a design file: motor
+ * centre to standoff centre, minus the prop radius, minus the standoff radius (M3 standoff ≈ 6 mm
+ * across, taken as the thread diameter as radius: common practice, from memory). mm.
+ */
+function standoffClearance(raw: any, bodyScale = 1): number {
+  const P = propMmFromRaw(raw.props.diameter);
+  const m = motorsFromRaw(raw.layout);
+  const r = Number(String(raw.body.standoffs.boltSize ?? 'M3').slice(1));
+  let best = Infinity;
+  for (const c of [m.fl, m.fr, m.rl, m.rr]) {
+    for (const [x, y] of raw.body.standoffs.positionsMm as [number, number][]) best = Math.min(best, Math.hypot(c[0] - x * bodyScale, c[1] - y) - P / 2 - r);
+  }
+  return best;
+}
+
+describe('body length: only what the new clearances need', () => {
+  it('auto wheelbase keeps the body and the source clearance', () => {
+    const src = YAML.parse(demoText('tessel-5'));
+    const v = makeVariant(demoText('tessel-5'), { props: '7in' });
+    const raw = YAML.parse(v.text);
+    expect(raw.body).toEqual(src.body);
+    expect(standoffClearance(raw)).toBeGreaterThanOrEqual(Math.min(standoffClearance(src), src.props.minTipGapMm) - 1e-6);
+  });
+
+  it('a given wheelbase that crowds the standoffs shortens the body just enough; sizes stay', () => {
+    const src = YAML.parse(demoText('tessel-5'));
+    const auto = makeVariant(demoText('tessel-5'), { props: '7in' });
+    const given = Math.ceil((auto.wheelbase.minimumMm + auto.wheelbase.bodyKeptMm) / 2);
+    expect(given).toBeLessThan(auto.wheelbase.bodyKeptMm);
+    const v = makeVariant(demoText('tessel-5'), { props: '7in', wheelbase: given });
+    const raw = YAML.parse(v.text);
+    const need = Math.min(standoffClearance(src), src.props.minTipGapMm);
+    expect(raw.layout.wheelbaseMm).toBe(given);
+    expect(raw.body.lengthMm).toBeLessThan(src.body.lengthMm);
+    expect(standoffClearance(raw)).toBeGreaterThanOrEqual(need - 0.01); // positions written to 0.01 mm
+    // just enough: half a millimetre more body (positions scaled alike) would crowd them again
+    const longer = (raw.body.lengthMm + 0.5) / raw.body.lengthMm;
+    expect(standoffClearance(raw, longer)).toBeLessThan(need);
+    // positions scale with the length; widths, patterns and sizes stay
+    const k = raw.body.lengthMm / src.body.lengthMm;
+    raw.body.standoffs.positionsMm.forEach((p: number[], i: number) => {
+      expect(p[0]).toBeCloseTo(src.body.standoffs.positionsMm[i][0] * k, 2);
+      expect(p[1]).toBe(src.body.standoffs.positionsMm[i][1]);
+    });
+    expect(raw.body.widthMm).toBe(src.body.widthMm);
+    expect(raw.stacks).toEqual(src.stacks);
+    expect(raw.topPlate.strapSlots.strapWidthMm).toBe(src.topPlate.strapSlots.strapWidthMm);
+  });
+});
