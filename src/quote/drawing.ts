@@ -153,7 +153,7 @@ export function drawingSet(parts: readonly Part[], quote: Quote, options: Drawin
     tables: [
       {
         title: 'Parts',
-        header: ['part', 'per frame', 'total', 'thickness mm', 'tool path mm', 'pierces', 'time min', `each ${cur}`, `all ${cur}`],
+        header: ['part', 'per frame', 'total', 'thickness mm', 'tool path mm', 'pierces', 'time min', `direct each ${cur}`, `direct all ${cur}`],
         rows: quote.parts.map((p) => {
           const n = p.cut.quantity * quote.frames;
           return [p.cut.name, String(p.cut.quantity), String(n), mm(p.cut.thicknessMm, 2), mm(p.cut.toolPathMm), String(p.cut.pierces), minutes(p.time.totalMin), money(p.cost.total), money(p.cost.total * n)];

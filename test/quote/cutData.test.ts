@@ -88,11 +88,27 @@ describe('offset of a concave outline (L shape, sharp corners)', () => {
   });
 });
 
+describe('an inlet narrower than the tool', () => {
+  // A 60 × 40 plate with a 2 mm wide, 20 mm deep inlet in the middle of its top edge; tool r = 1.5875.
+  // The tool cannot enter: its centre bridges the mouth on two arcs about the mouth corners (29, 40)
+  // and (31, 40) that meet above x = 30, each turning π/2 − acos(1/r).
+  // Hand: 2(60 + 40) + 2πr (outer corners) − 2 (the mouth) + 2r(π/2 − acos(1/r)) = 210.1382 mm.
+  it('bridges the mouth (polygon offset, flagged) with the hand-computed length', () => {
+    const U = polygon([[0, 0], [60, 0], [60, 40], [31, 40], [31, 20], [29, 20], [29, 40], [0, 40]]);
+    const o = offsetRight(U, R);
+    expect(o.kind).toBe('polygon');
+    if (o.kind === 'collapsed') return;
+    const hand = 200 + 2 * Math.PI * R - 2 + 2 * R * (Math.PI / 2 - Math.acos(1 / R));
+    expect(hand).toBeCloseTo(210.1382, 3);
+    expect(loopLength(o.loop)).toBeCloseTo(hand, 2);
+  });
+});
+
 describe('tool paths of the demo parts against Shapely buffers (GEOS)', () => {
-  it.skipIf(!requireTool(pythonModuleAvailable('shapely'), 'python3-shapely'))('every contour of Tessel 5 and Mote 3 within 0.01 mm', () => {
+  it.skipIf(!requireTool(pythonModuleAvailable('shapely'), 'python3-shapely'))('every contour of the three demo designs within 0.01 mm', () => {
     const cases: Array<{ points: number[][]; dist: number; inward: boolean }> = [];
     const ours: number[] = [];
-    for (const name of ['tessel-5', 'mote-3']) {
+    for (const name of ['tessel-5', 'mote-3', 'farline-7']) {
       for (const p of demoFrame(name).parts) {
         const cut = partCutData(p, TOOL);
         const loops = [...p.features.map((f) => f.loop), p.outline];
@@ -116,3 +132,86 @@ describe('tool paths of the demo parts against Shapely buffers (GEOS)', () => {
     expect(ours.length).toBeGreaterThan(40);
   });
 });
+
+describe('offsets of seeded random shapes against Shapely buffers (GEOS)', () => {
+  it.skipIf(!requireTool(pythonModuleAvailable('shapely'), 'python3-shapely'))('40 star polygons with rounded and sharp corners, outward and inward', () => {
+    // Deterministic pseudo-random stars (LCG), some corners filleted by arcs: concave and convex
+    // corners, short edges, arcs tighter than the tool.
+    let seed = 12345;
+    const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+    const cases: Array<{ points: number[][]; dist: number; inward: boolean }> = [];
+    const ours: number[] = [];
+    const kinds: string[] = [];
+    for (let k = 0; k < 40; k++) {
+      const n = 5 + Math.floor(rnd() * 8);
+      const pts: Array<[number, number]> = [];
+      for (let i = 0; i < n; i++) {
+        const a = (2 * Math.PI * (i + 0.3 * rnd())) / n;
+        const rr = 10 + 25 * rnd();
+        pts.push([rr * Math.cos(a), rr * Math.sin(a)]);
+      }
+      const loop = k % 2 === 0 ? polygon(pts) : roundedStar(pts, 0.5 + 3 * rnd());
+      for (const inward of [false, true]) {
+        const d = 0.5 + 2.5 * rnd();
+        const o = offsetRight(inward ? reverseLoop(loop) : loop, d);
+        kinds.push(o.kind);
+        ours.push(o.kind === 'collapsed' ? 0 : loopLength(o.loop));
+        cases.push({ points: flattenLoop(loop, 0.0005).map((q) => [q[0], q[1]]), dist: d, inward });
+      }
+    }
+    const ref = runPythonJson<{ lengths: number[] }>('test/quote/shapely_offset.py', { cases });
+    let worst = 0;
+    ref.lengths.forEach((l, i) => { worst = Math.max(worst, Math.abs(l - ours[i]) / Math.max(1, l)); });
+    console.log(`random shapes: worst relative difference ${worst.toExponential(2)}; ${kinds.filter((x) => x === "exact").length} exact, ${kinds.filter((x) => x === "polygon").length} polygon, ${kinds.filter((x) => x === "collapsed").length} collapsed`);
+    expect(worst).toBeLessThan(2e-4);
+    // Most offsets stay exact; the rest fall back to the guarded polygon offset.
+    expect(kinds.filter((x) => x === 'exact').length).toBeGreaterThan(kinds.length / 2);
+  });
+});
+
+/** Star polygon with every corner rounded by a tangent arc of radius r where it fits (else sharp). */
+function roundedStar(pts: ReadonlyArray<readonly [number, number]>, r: number) {
+  const n = pts.length;
+  const segs: Array<ReturnType<typeof polygon>[number]> = [];
+  const corner: Array<{ a: [number, number]; b: [number, number]; arc: ReturnType<typeof polygon>[number] | null }> = [];
+  for (let i = 0; i < n; i++) {
+    const p = pts[i];
+    const prev = pts[(i - 1 + n) % n];
+    const next = pts[(i + 1) % n];
+    const u = unit2([prev[0] - p[0], prev[1] - p[1]]);
+    const v = unit2([next[0] - p[0], next[1] - p[1]]);
+    const cosT = u[0] * v[0] + u[1] * v[1];
+    const theta = Math.acos(Math.max(-1, Math.min(1, cosT)));
+    const t = r / Math.tan(theta / 2);
+    const lp = Math.hypot(prev[0] - p[0], prev[1] - p[1]);
+    const ln = Math.hypot(next[0] - p[0], next[1] - p[1]);
+    if (!(t < 0.4 * Math.min(lp, ln)) || theta < 0.05) {
+      corner.push({ a: [p[0], p[1]], b: [p[0], p[1]], arc: null });
+      continue;
+    }
+    const a: [number, number] = [p[0] + u[0] * t, p[1] + u[1] * t];
+    const b: [number, number] = [p[0] + v[0] * t, p[1] + v[1] * t];
+    const bis = unit2([u[0] + v[0], u[1] + v[1]]);
+    const h = r / Math.sin(theta / 2);
+    const c: [number, number] = [p[0] + bis[0] * h, p[1] + bis[1] * h];
+    const a0 = Math.atan2(a[1] - c[1], a[0] - c[0]);
+    const a1 = Math.atan2(b[1] - c[1], b[0] - c[0]);
+    let sweep = a1 - a0;
+    const turnLeft = (p[0] - prev[0]) * (next[1] - p[1]) - (p[1] - prev[1]) * (next[0] - p[0]) > 0;
+    while (turnLeft && sweep <= 0) sweep += 2 * Math.PI;
+    while (!turnLeft && sweep >= 0) sweep -= 2 * Math.PI;
+    corner.push({ a, b, arc: { kind: 'arc', center: c, radius: r, startRad: a0, sweepRad: sweep } });
+  }
+  for (let i = 0; i < n; i++) {
+    const c = corner[i];
+    if (c.arc) segs.push(c.arc);
+    const nx = corner[(i + 1) % n];
+    segs.push({ kind: 'line', start: c.b, end: nx.a });
+  }
+  return segs;
+}
+
+function unit2(v: [number, number]): [number, number] {
+  const l = Math.hypot(v[0], v[1]);
+  return [v[0] / l, v[1] / l];
+}

@@ -115,7 +115,7 @@ export function registerQuote(program: Command): void {
       const cur = quote.currency;
       const rows = quote.parts.map((p) => [p.cut.name, String(p.cut.quantity * quantity), p.cut.thicknessMm.toFixed(1), p.cut.toolPathMm.toFixed(0), String(p.time.passes), String(p.cut.pierces), p.time.totalMin.toFixed(1), p.cost.total.toFixed(2)]);
       process.stdout.write(`${design.name} rev ${design.revision}: ${quantity} frame${quantity === 1 ? '' : 's'}, quoted for ${shop.name}\n\n`);
-      process.stdout.write(`${textTable(['part', 'copies', 'mm', 'path mm', 'passes', 'pierces', 'min each', `${cur} each`], rows)}\n\n`);
+      process.stdout.write(`${textTable(['part', 'copies', 'mm', 'path mm', 'passes', 'pierces', 'min each', `direct ${cur} each`], rows)}\n\n`);
       const srows = quote.nesting.groups.map((g) => [g.thicknessMm.toFixed(1), g.material, String(g.sheets), g.areaBoundSheets.toFixed(2), `${(g.utilisation * 100).toFixed(1)} %`]);
       process.stdout.write(`${textTable(['mm', 'material', 'sheets', 'area bound', 'utilisation'], srows)}\n\n`);
       const t = quote.batchTime;
