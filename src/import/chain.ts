@@ -33,15 +33,19 @@ export function chainLoops(segs: readonly DrawnSegment[], gapTolMm: number): Cha
     return i;
   };
   const grid = new PointGrid(Math.max(gapTolMm, 1e-9));
+  // Only representatives go into the grid: an end within the tolerance of one joins its cluster.
+  // Representatives lie more than the tolerance apart, so a 3 × 3 query sees a handful at most.
   pts.forEach((p, i) => {
+    let joined = false;
     for (const j of grid.near(p)) {
       if (dist(p, pts[j]) <= gapTolMm) {
         const a = find(i);
         const b = find(j);
         if (a !== b) parent[Math.max(a, b)] = Math.min(a, b);
+        joined = true;
       }
     }
-    grid.add(i, p);
+    if (!joined) grid.add(i, p);
   });
   const node = pts.map((_, i) => find(i));
   const atNode = new Map<number, number[]>();

@@ -1,8 +1,14 @@
 import type { BBox, Vec2 } from '../geometry/types.js';
+import { DxfReadError } from './errors.js';
+
+/** Box pairs one drawing may produce before the reader gives up (thousands of copies of one entity). */
+export const MAX_BOX_PAIRS = 2_000_000;
 
 /**
  * Uniform grid of points for "everything within r of p" queries in near-constant time.
- * Cells are r wide, so a query looks at the 3 × 3 cells around p.
+ * Cells are r wide, so a query looks at the 3 × 3 cells around p. Callers that only need one
+ * representative per cluster add only points that found no neighbour, which keeps every cell small
+ * even when thousands of ends meet at one point.
  */
 export class PointGrid {
   private readonly cells = new Map<number, number[]>();
@@ -51,7 +57,12 @@ export function overlappingPairs(boxes: readonly BBox[], padMm: number): Array<[
       if (boxes[j][2] + padMm < b[0]) continue; // can never meet a box further right
       active[w++] = j;
       const a = boxes[j];
-      if (a[1] <= b[3] + padMm && b[1] <= a[3] + padMm) pairs.push(i < j ? [i, j] : [j, i]);
+      if (a[1] <= b[3] + padMm && b[1] <= a[3] + padMm) {
+        pairs.push(i < j ? [i, j] : [j, i]);
+        if (pairs.length > MAX_BOX_PAIRS) {
+          throw new DxfReadError(`the drawing has more than ${MAX_BOX_PAIRS} pairs of entities whose extents overlap (thousands of entities on one spot), the reader's limit`);
+        }
+      }
     }
     active.length = w;
     active.push(i);

@@ -245,3 +245,10 @@ describe('entities that cannot be cut geometry', () => {
     expect(r.parts[0].features).toHaveLength(0); // neither the tilted nor the paper-space circle
   });
 });
+
+describe('pathological drawings end in a clear error, not a hang', () => {
+  it('30,000 lines through one point', () => {
+    const star = Array.from({ length: 30000 }, (_, i) => `0\nLINE\n8\n0\n10\n0\n20\n0\n11\n${Math.cos(i) * 50}\n21\n${Math.sin(i) * 50}\n`).join('');
+    expect(() => importDxf(dxf(star), { name: 'p', thicknessMm: 2 })).toThrow(/extents overlap/);
+  });
+});
