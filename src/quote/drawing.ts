@@ -185,6 +185,11 @@ export function drawingSet(parts: readonly Part[], quote: Quote, options: Drawin
           ['margin', '', money(c.margin)],
           ['total', minutes(t.totalMin), money(c.total)],
           ['per frame', minutes(quote.perFrame.timeMin), money(quote.perFrame.cost)],
+          [
+            'per frame: material / machine / setup',
+            '',
+            `${money(quote.perFrame.breakdown.material)} / ${money(quote.perFrame.breakdown.machine)} / ${money(quote.perFrame.breakdown.setup)}`,
+          ],
         ],
       },
     ],

@@ -60,7 +60,7 @@ export type Quote = Readonly<{
   batchTime: BatchTime;
   batchCost: BatchCost;
   /** Batch total divided by the number of frames (setup shared). */
-  perFrame: Readonly<{ timeMin: number; cost: number; massG: number }>;
+  perFrame: Readonly<{ timeMin: number; cost: number; massG: number; breakdown: BatchCost }>;
   warnings: readonly string[];
 }>;
 
@@ -200,7 +200,12 @@ export function quoteParts(parts: readonly Part[], options: QuoteOptions): Quote
     toolChanges,
     batchTime,
     batchCost,
-    perFrame: { timeMin: totalMin / quantity, cost: batchCost.total / quantity, massG },
+    perFrame: {
+      timeMin: totalMin / quantity,
+      cost: batchCost.total / quantity,
+      massG,
+      breakdown: Object.fromEntries(Object.entries(batchCost).map(([k, v]) => [k, v / quantity])) as BatchCost,
+    },
     warnings,
   };
 }

@@ -58,7 +58,12 @@ export function quoteReport(q: Quote, meta: Readonly<{ design: string; revision:
       timeMin: Object.fromEntries(Object.entries(q.batchTime).map(([k, v]) => [k, r4(v)])),
       cost: Object.fromEntries(Object.entries(q.batchCost).map(([k, v]) => [k, r4(v)])),
     },
-    perFrame: { timeMin: r4(q.perFrame.timeMin), cost: r4(q.perFrame.cost), massG: r4(q.perFrame.massG) },
+    perFrame: {
+      timeMin: r4(q.perFrame.timeMin),
+      cost: r4(q.perFrame.cost),
+      massG: r4(q.perFrame.massG),
+      breakdown: Object.fromEntries(Object.entries(q.perFrame.breakdown).map(([k, v]) => [k, r4(v)])),
+    },
     warnings: q.warnings,
   };
 }

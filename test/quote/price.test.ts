@@ -97,6 +97,11 @@ describe('time and price, hand-worked example', () => {
     expect(q10.batchTime.cutMin).toBeCloseTo(10 * 0.694065, 5);
     expect(q10.batchTime.setupMin).toBe(26);
     expect(q10.perFrame.cost).toBeLessThan(q.perFrame.cost / 3);
+    // Per frame: the batch breakdown shared over 10 frames (setup 26 min × 1.5 / 10 = 3.9).
+    expect(q10.perFrame.breakdown.setup).toBeCloseTo(3.9, 9);
+    expect(q10.perFrame.breakdown.material).toBeCloseTo(9, 9);
+    const b = q10.perFrame.breakdown;
+    expect(b.material + b.machine + b.setup + b.tooling + b.margin).toBeCloseTo(q10.perFrame.cost, 9);
   });
 
   it('passes: a plate exactly n depths thick takes n passes', () => {
