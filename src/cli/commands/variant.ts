@@ -138,7 +138,7 @@ export function registerVariant(program: Command): void {
     .description('derive a frame for other props from an existing design: wheelbase from the tip gap, arms by a stiffness rule, hardware kept; checks re-run')
     .argument('<design>', 'source design file (YAML or JSON)')
     .requiredOption('--props <sizes>', 'prop diameter with a unit (7in, 178mm), or a comma list for a family (3in,4in,5in)')
-    .option('--wheelbase <auto|mm>', 'auto: smallest keeping the design\'s tip gap; or a wheelbase in mm', 'auto')
+    .option('--wheelbase <auto|mm>', 'auto: smallest keeping the design\'s tip gap and the props clear of the body hardware; or a wheelbase in mm', 'auto')
     .option('--wheelbase-step <mm>', 'round the auto wheelbase up to a multiple of this (0: exact)', '1')
     .option('--motor <class>', 'motor size class (2207, 22xx, 20xx-24xx) or auto; default keeps the motor')
     .option('--out <path>', 'new design file (one size; default out/<design>-<props>.yaml) or directory (family; default out/<design>-family)')
@@ -194,10 +194,13 @@ function singleVariant(text: string, designPath: string, stem: string, req: Vari
 
 function family(text: string, designPath: string, stem: string, sizes: readonly string[], base: Omit<VariantRequest, 'props'>, opts: VariantOptions, check: FrameChecker | null): void {
   const results: VariantResult[] = [];
+  const reports: Array<CheckReport | null> = [];
   const problems: string[] = [];
   sizes.forEach((props, i) => {
     try {
-      results.push(makeVariant(text, { ...base, props }, designPath));
+      const v = makeVariant(text, { ...base, props }, designPath);
+      results.push(v);
+      reports.push(check ? check(v.frame) : null);
     } catch (e) {
       if (e instanceof VariantRequestError) problems.push(`${props}: ${e.message}`);
       else if (e instanceof DesignError) problems.push(`${props}: ${e.message}`);
@@ -206,7 +209,6 @@ function family(text: string, designPath: string, stem: string, sizes: readonly 
     progress(i + 1, sizes.length, props);
   });
   if (problems.length) throw new UsageError(`cannot make ${problems.length === 1 ? 'one member' : `${problems.length} members`} of the family; nothing was written.\n${problems.join('\n')}`);
-  const reports = results.map((v) => (check ? check(v.frame) : null));
   const sourceReport = check ? check(results[0].sourceFrame) : null;
   const dir = opts.out ?? join('out', `${stem}-family`);
   if (existsSync(dir) && !statSync(dir).isDirectory()) throw new UsageError(`--out: ${dir} is a file; a family needs a directory`);
