@@ -13,10 +13,29 @@ const num = (x: number | null, unit: string): string => {
   return unit === 'mm' ? `${v} mm` : unit ? `${v} ${unit}` : v;
 };
 
-function line(f: Finding): string {
+/** Findings that say the same thing at several places print once, with every place. */
+function grouped(fs: readonly Finding[]): Array<{ f: Finding; at: Array<readonly [number, number]> }> {
+  const out: Array<{ f: Finding; at: Array<readonly [number, number]> }> = [];
+  const byKey = new Map<string, { f: Finding; at: Array<readonly [number, number]> }>();
+  for (const f of fs) {
+    const key = JSON.stringify([f.severity, f.rule, f.measured, f.limit, f.unit, f.message]);
+    let g = byKey.get(key);
+    if (!g) {
+      g = { f, at: [] };
+      byKey.set(key, g);
+      out.push(g);
+    }
+    if (f.atMm) g.at.push(f.atMm);
+  }
+  return out;
+}
+
+function line(g: { f: Finding; at: ReadonlyArray<readonly [number, number]> }): string {
+  const f = g.f;
   const sev = f.severity === 'error' ? 'ERROR  ' : f.severity === 'warning' ? 'warning' : 'info   ';
   const value = f.measured === null ? '' : ` ${num(f.measured, f.unit)}${f.limit === null ? '' : ` (limit ${num(f.limit, f.unit)})`}`;
-  const at = f.atMm ? ` at (${f.atMm[0].toFixed(2)}, ${f.atMm[1].toFixed(2)})` : '';
+  const pts = g.at.map((p) => `(${p[0].toFixed(2)}, ${p[1].toFixed(2)})`);
+  const at = pts.length === 0 ? '' : pts.length === 1 ? ` at ${pts[0]}` : ` ×${pts.length} at ${pts.join(' ')}`;
   return `  ${sev} ${f.rule}${value}${at}\n           ${f.message}`;
 }
 
@@ -29,7 +48,7 @@ export function summaryLine(r: CheckReport): string {
 
 /**
  * The report as plain text for a terminal: findings grouped by part (severity, rule, measured
- * value, limit, location, advice; part coordinates for parts, frame coordinates for "frame"), a
+ * value, limit, location, advice; the same finding at several places printed once with each place; part coordinates for parts, frame coordinates for "frame"), a
  * footer with the counts and the safety cautions. Deterministic.
  */
 export function formatCheckReport(r: CheckReport, heading: string): string {
@@ -44,7 +63,7 @@ export function formatCheckReport(r: CheckReport, heading: string): string {
     out.push(`${name || '(file)'}${facts}`);
     const fs = r.findings.filter((f) => f.part === name);
     if (fs.length === 0) out.push('  no findings');
-    for (const f of fs) out.push(line(f));
+    for (const g of grouped(fs)) out.push(line(g));
     out.push('');
   }
   out.push(`${summaryLine(r)}.`, '', ...CHECK_CAUTIONS.map((c) => `Caution: ${c}`), '');

@@ -78,7 +78,7 @@ export function weaveRule(part: Part, o: CheckOptions): Finding[] {
     const b = bestWeave(mat, part.members);
     out.push(
       finding(WEAVE_RULE, 'info', part.name, b.minExGpa / onAxis, lim.minModulusFraction, 'Ex/E', null,
-        `lay the part with its weave at ${b.weaveDeg.toFixed(2)}° (weaveDeg) to raise the weakest member to Ex ${b.minExGpa.toFixed(1)} GPa (${(100 * b.minExGpa / onAxis).toFixed(0)} %)`),
+        `lay the part with its weave at ${b.weaveDeg.toFixed(2)}° (${part.role === 'imported' ? 'weaveDeg' : `${part.sourcePath}.weaveDeg`}) to raise the weakest member to Ex ${b.minExGpa.toFixed(1)} GPa (${(100 * b.minExGpa / onAxis).toFixed(0)} %)`),
     );
   }
   return out;
