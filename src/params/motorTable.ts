@@ -33,6 +33,7 @@ export const MOTOR_CLASSES: readonly MotorClass[] = [
   { name: '30xx-40xx', statorMinMm: 30, statorMaxMm: 40, boltCirclesMm: [19, 25], boltSize: 'M3', propsIn: [7, 12], bellDiameterMm: 37, boreMm: 9, massG: 85 },
 ];
 
+/** Every class name, comma separated, for messages. */
 export const motorClassNames = (): string => MOTOR_CLASSES.map((c) => c.name).join(', ');
 
 /**

@@ -8,6 +8,7 @@ export type Change = Readonly<{
   why: string;
 }>;
 
+/** A change's path as users see it in the change table: `layout.wheelbaseMm`, `stacks.0.place`. */
 export const pathText = (path: readonly (string | number)[]): string => path.map(String).join('.');
 
 const same = (a: unknown, b: unknown): boolean => JSON.stringify(a) === JSON.stringify(b);

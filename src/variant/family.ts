@@ -50,6 +50,7 @@ export function familyRow(label: string, d: Design, frame: Frame, tipMassG: numb
 /** Rows for a variant's source and the variant itself. */
 export const variantRow = (v: VariantResult, report: CheckReport | null): FamilyRow =>
   familyRow(v.design.name, v.design, v.frame, v.motor.variantClass.massG, report, v.arms.met ? 'kept' : 'not met');
+/** The source design's row, measured the same way as its variants. */
 export const sourceRow = (v: VariantResult, report: CheckReport | null): FamilyRow =>
   familyRow(`${v.sourceDesign.name} (source)`, v.sourceDesign, v.sourceFrame, v.motor.sourceClass.massG, report, 'source');
 

@@ -22,6 +22,7 @@ export type VariantRequest = Readonly<{
   motor?: string;
 }>;
 
+/** Auto wheelbases are rounded up to whole millimetres unless asked otherwise. mm. */
 export const DEFAULT_WHEELBASE_STEP_MM = 1;
 
 export type VariantResult = Readonly<{
