@@ -110,7 +110,8 @@ function visit(ctx: Ctx, e: RawEntity, m: Affine, parentLayer: string | null, de
   const extrusionZ = numOr(e, 230, 1);
   const ex = numOr(e, 210, 0);
   const ey = numOr(e, 220, 0);
-  if (Math.abs(ex) > 1e-6 || Math.abs(ey) > 1e-6 || extrusionZ === 0) {
+  // A LINE's points are world coordinates whatever its extrusion (which only orients its thickness).
+  if (e.type !== 'LINE' && (Math.abs(ex) > 1e-6 || Math.abs(ey) > 1e-6 || extrusionZ === 0)) {
     ctx.findings.push(finding('dxf-not-planar', 'warning', `${e.type} on layer ${layer} (line ${e.line}) is drawn in a tilted plane (extrusion ${ex}, ${ey}, ${extrusionZ}) and was skipped; flatten it to the XY plane`));
     return;
   }

@@ -2,6 +2,7 @@ import * as DxfParserModule from 'dxf-parser';
 import { describe, expect, it } from 'vitest';
 import { arc, dist, distanceToLoop, lengthOf, line, pointAt, signedArea, tangentAt, type Segment } from '../../src/geometry/index.js';
 import { overlap } from '../../src/import/clean.js';
+import { overlappingPairs } from '../../src/import/spatial.js';
 import { headerValue, parseDocument } from '../../src/import/document.js';
 import { bulgeSegment, DxfReadError, ellipseCurve, fitArcs, importDxf, nurbsCurve, parseDrawingUnit, unitFromInsunits } from '../../src/import/index.js';
 import { fixtureText } from './helpers.js';
@@ -250,5 +251,31 @@ describe('pathological drawings end in a clear error, not a hang', () => {
   it('30,000 lines through one point', () => {
     const star = Array.from({ length: 30000 }, (_, i) => `0\nLINE\n8\n0\n10\n0\n20\n0\n11\n${Math.cos(i) * 50}\n21\n${Math.sin(i) * 50}\n`).join('');
     expect(() => importDxf(dxf(star), { name: 'p', thicknessMm: 2 })).toThrow(/extents overlap/);
+  });
+});
+
+describe('spatial index', () => {
+  it('overlappingPairs finds exactly the pairs a brute-force comparison finds (seeded random boxes, some huge)', () => {
+    let s = 7;
+    const r = () => ((s = (s * 16807) % 2147483647) / 2147483647);
+    const boxes: Array<[number, number, number, number]> = [];
+    for (let i = 0; i < 600; i++) {
+      const x = r() * 500;
+      const y = r() * 300;
+      const w = i % 97 === 0 ? 400 * r() : 8 * r();
+      const h = i % 89 === 0 ? 300 * r() : 8 * r();
+      boxes.push([x, y, x + w, y + h]);
+    }
+    const pad = 0.5;
+    const brute: Array<[number, number]> = [];
+    for (let i = 0; i < boxes.length; i++) {
+      for (let j = i + 1; j < boxes.length; j++) {
+        const a = boxes[i];
+        const b = boxes[j];
+        if (a[0] <= b[2] + pad && b[0] <= a[2] + pad && a[1] <= b[3] + pad && b[1] <= a[3] + pad) brute.push([i, j]);
+      }
+    }
+    expect(brute.length).toBeGreaterThan(100);
+    expect(overlappingPairs(boxes, pad)).toEqual(brute);
   });
 });
