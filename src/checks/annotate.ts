@@ -6,6 +6,7 @@ import { optionsForDesign } from './options.js';
 import { cameraPose, FRAME_PART, propDiscs, tipGaps } from './props.js';
 import { discViewMargin } from './camera.js';
 import type { CheckReport, Severity } from './types.js';
+import { CHECK_CAUTIONS } from './text.js';
 
 /** A finding's marker: where, how bad, and its number in the report (1-based, per drawing). */
 export type Marker = Readonly<{ atMm: Vec2; severity: Severity; label: string; title: string }>;
@@ -25,6 +26,8 @@ export type FrameAnnotation = Readonly<{
   viewRegion: readonly Vec2[] | null;
   eyeMm: Vec2 | null;
   tipGaps: ReadonlyArray<Readonly<{ a: Vec2; b: Vec2; gapMm: number }>>;
+  /** Safety lines and where the first one starts (frame coordinates; the rest follow below it). */
+  cautions: Readonly<{ atMm: Vec2; lines: readonly string[] }>;
   bbox: BBox;
 }>;
 
@@ -53,6 +56,8 @@ export function frameAnnotation(frame: Frame, report: CheckReport, options: Part
     eyeMm: pose ? [pose.eyeMm[0], pose.eyeMm[1]] : null,
     // Adjacent pairs: as many of the smallest gaps as there are props (the ring round the frame).
     tipGaps: gaps.slice(0, discs.length),
-    bbox: [bb[0] - 10, bb[1] - 10, bb[2] + 10, bb[3] + 10],
+    // The cautions sit behind the rear props, in room added to the drawing for them.
+    cautions: { atMm: [bb[0] - 12, bb[3] + 8], lines: CHECK_CAUTIONS },
+    bbox: [bb[0] - 12 - 5 * CHECK_CAUTIONS.length, bb[1] - 10, bb[2] + 10, bb[3] + 10],
   };
 }

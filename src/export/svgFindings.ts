@@ -27,7 +27,8 @@ export function markersOverlay(markers: readonly Marker[], options: { radiusMm?:
 
 /**
  * Overlay for the plan-view overview (frame coordinates): the camera's view in the prop plane,
- * prop discs that show in it, adjacent tip-gap lines with their gaps, and the frame findings.
+ * prop discs that show in it, adjacent tip-gap lines with their gaps, the frame findings and the
+ * safety cautions.
  */
 export function frameFindingsOverlay(a: FrameAnnotation): string {
   const flip = 'matrix(0 -1 -1 0 0 0)';
@@ -47,5 +48,10 @@ export function frameFindingsOverlay(a: FrameAnnotation): string {
     out.push(`<g transform="translate(${fmt(m[0], 3)} ${fmt(m[1], 3)}) ${flip}"><text font-size="3.5" font-family="sans-serif" fill="#3b82c4" text-anchor="middle">${xmlEscape(`${fmt(g.gapMm, 1)} mm`)}</text></g>`);
   }
   out.push(markersOverlay(a.markers, { flip, radiusMm: 3 }));
+  a.cautions.lines.forEach((text, i) => {
+    // One line every 5 mm towards the rear (down the page).
+    const at = [a.cautions.atMm[0] - 5 * i, a.cautions.atMm[1]];
+    out.push(`<g transform="translate(${fmt(at[0], 3)} ${fmt(at[1], 3)}) ${flip}"><text font-size="3.2" font-family="sans-serif" fill="#444444">${xmlEscape(text)}</text></g>`);
+  });
   return out.join('\n');
 }

@@ -1,6 +1,7 @@
 import type { Command } from 'commander';
 import { join } from 'node:path';
 import {
+  CHECK_CAUTIONS,
   checkFrame,
   formatCheckReport,
   frameAnnotation,
@@ -92,7 +93,7 @@ export function relieveFrame(frame: Frame, toolDiameterMm: number): { frame: Fra
 export function annotatedFiles(frame: Frame, report: CheckReport, dir: string, o: CheckOptions): OutputFile[] {
   const files: OutputFile[] = frame.parts.map((p) => ({
     path: join(dir, `${p.name}.check.svg`),
-    data: partToSvg(p, { marginMm: 4, overlay: markersOverlay(partMarkers(report, p.name)), comment: `${p.name}: numbered markers follow the order of the check report` }),
+    data: partToSvg(p, { marginMm: 4, overlay: markersOverlay(partMarkers(report, p.name)), comment: `${p.name}: numbered markers follow the order of the check report. ${CHECK_CAUTIONS.join(' ')}` }),
   }));
   const a = frameAnnotation(frame, report, o);
   files.push({ path: join(dir, 'overview.check.svg'), data: frameOverviewSvg(frame, { overlay: frameFindingsOverlay(a), extraBBox: a.bbox }) });
