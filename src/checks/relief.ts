@@ -1,3 +1,4 @@
+import type { Frame } from '../geometry/frame.js';
 import type { Feature, Part } from '../geometry/part.js';
 import { arc, endOf, line, startOf, tangentAt } from '../geometry/segment.js';
 import type { Loop, Segment, Vec2 } from '../geometry/types.js';
@@ -92,4 +93,20 @@ function relieveLoop(loop: Loop, r: number): { loop: Loop; added: number; skippe
   }
   if (loopProblem(out)) return { loop, added: 0, skipped: skipped + reliefs.size };
   return { loop: out, added: reliefs.size, skipped };
+}
+
+/**
+ * Dogbone reliefs on every part of a frame (see relieveCorners); the frame's other data is kept.
+ * Returns the edited frame and how many reliefs were added and skipped. Pure.
+ */
+export function relieveFrame(frame: Frame, toolDiameterMm: number): { frame: Frame; added: number; skipped: number } {
+  let added = 0;
+  let skipped = 0;
+  const parts: Part[] = frame.parts.map((p) => {
+    const r = relieveCornersDetailed(p, toolDiameterMm);
+    added += r.added;
+    skipped += r.skipped;
+    return r.part;
+  });
+  return { frame: { ...frame, parts }, added, skipped };
 }

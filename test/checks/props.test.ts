@@ -42,6 +42,13 @@ describe('adjacent prop tip gaps', () => {
 });
 
 describe('prop-clearance rule (planted designs)', () => {
+  it('camera side plates pushed far forward into the front prop discs are an error', () => {
+    const r = checkFrame(frameWith({ camera: { forwardOffsetMm: 60 } }));
+    const f = r.findings.filter((x) => x.rule === 'prop-clearance' && x.message.includes('camera-side'));
+    expect(f.length).toBeGreaterThan(0);
+    expect(f.every((x) => x.severity === 'error' && x.measured! < 3)).toBe(true);
+  });
+
   it('tip gap below props.minTipGapMm is an error between the two props', () => {
     // Wheelbase 190, 5.1" (129.54 mm): 190/√2 − 129.54 = 4.81 mm < 6 mm.
     const r = checkFrame(frameWith({ layout: { kind: 'x', wheelbaseMm: 190, armAngleDeg: 45 } }));

@@ -173,6 +173,16 @@ describe('hole-stress rule', () => {
     // Along the weave, woven 70/70/5: Lekhnitskii 4.975 (reference-values.md [CALC]).
     expect(f[0].message).toMatch(/orthotropic Kt 4\.975/);
   });
+  it('an off-centre hole: W = d + 2 × the smaller ligament, computed by hand', () => {
+    // Strip y −6..6, Ø3.4 at y = 1: ligaments 6 − 1 − 1.7 = 3.3 and 1 + 6 − 1.7 = 5.3; W = 3.4 + 2 × 3.3 = 10;
+    // Ktn = 2 + (1 − 0.34)³ = 2.287496.
+    const p = testPart(rect(0, -6, 80, 6), [{ ...roundHole([40, 1], 3.4, 'arm-root-bolt'), screw: 'M3' as const }], {
+      members: [{ name: 'arm', startMm: [0, 0], endMm: [80, 0], widthMm: 12 }],
+    });
+    const f = of(p, 'hole-stress');
+    expect(f[0].measured).toBeCloseTo(2.2875, 4);
+    expect(f[0].message).toMatch(/W 10\.00 mm/);
+  });
 });
 
 describe('demo designs', () => {

@@ -8,14 +8,14 @@ import {
   optionsForDesign,
   parseLimits,
   partMarkers,
-  relieveCornersDetailed,
+  relieveFrame,
   type CheckOptions,
   type CheckReport,
 } from '../../checks/index.js';
 import { frameFindingsOverlay, markersOverlay } from '../../export/svgFindings.js';
 import { partToSvg } from '../../export/svgPart.js';
 import { frameOverviewSvg } from '../../export/svgOverview.js';
-import { buildFrame, type Frame, type Part } from '../../geometry/index.js';
+import { buildFrame, type Frame } from '../../geometry/index.js';
 import { DesignError } from '../../params/errors.js';
 import type { Design } from '../../params/design.js';
 import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
@@ -74,19 +74,6 @@ export function mergedOptions(design: Design, opts: CheckCliOptions): CheckOptio
     }
   }
   return optionsForDesign(design, { limits, ...(toolDiameterMm !== undefined ? { toolDiameterMm } : {}) });
-}
-
-/** Apply dogbone reliefs to every part of the frame; returns the edited frame and the counts. */
-export function relieveFrame(frame: Frame, toolDiameterMm: number): { frame: Frame; added: number; skipped: number } {
-  let added = 0;
-  let skipped = 0;
-  const parts: Part[] = frame.parts.map((p) => {
-    const r = relieveCornersDetailed(p, toolDiameterMm);
-    added += r.added;
-    skipped += r.skipped;
-    return r.part;
-  });
-  return { frame: { ...frame, parts }, added, skipped };
 }
 
 /** Annotated SVG files: one per part with its findings marked, and the overview with props and camera view. */
