@@ -42,17 +42,17 @@ export class PointGrid {
 }
 
 /**
- * Every pair (i < j) of boxes that overlap once grown by padMm, in a stable order. Boxes go into a
- * uniform grid (cells twice the median box size); a pair is reported only in the cell holding the
- * lower-left corner of the two boxes' overlap, so it is found once. Boxes spanning many cells (a
- * plate outline) are compared with every box directly. Near-linear for drawings whose entities
- * are spread out; capped at MAX_BOX_PAIRS with a DxfReadError for those that are not.
+ * Every pair (i < j) of boxes that overlap once grown by padMm, in a stable order. A hierarchy of
+ * uniform grids (cells 4× larger per level) holds each box at the finest level where it covers at
+ * most 16 cells, so a plate outline does not sit in hundreds of small cells nor meet every hole one
+ * by one. A box looks for partners at its own level and the coarser ones; a pair is reported only
+ * from the cell holding the lower-left corner of the overlap, so it is found once. Capped at
+ * MAX_BOX_PAIRS with a DxfReadError.
  */
 export function overlappingPairs(boxes: readonly BBox[], padMm: number): Array<[number, number]> {
   const n = boxes.length;
   const half = padMm / 2;
   const g: BBox[] = boxes.map((b) => [b[0] - half, b[1] - half, b[2] + half, b[3] + half]);
-  const meet = (a: BBox, b: BBox) => a[0] <= b[2] && b[0] <= a[2] && a[1] <= b[3] && b[1] <= a[3];
   const pairs: Array<[number, number]> = [];
   const add = (i: number, j: number) => {
     pairs.push(i < j ? [i, j] : [j, i]);
@@ -60,54 +60,59 @@ export function overlappingPairs(boxes: readonly BBox[], padMm: number): Array<[
       throw new DxfReadError(`the drawing has more than ${MAX_BOX_PAIRS} pairs of entities whose extents overlap (thousands of entities on one spot), the reader's limit`);
     }
   };
+  const meet = (a: BBox, b: BBox) => a[0] <= b[2] && b[0] <= a[2] && a[1] <= b[3] && b[1] <= a[3];
   if (n < 64) {
     for (let i = 0; i < n; i++) for (let j = i + 1; j < n; j++) if (meet(g[i], g[j])) add(i, j);
     return pairs;
   }
   const sizes = g.map((b) => Math.max(b[2] - b[0], b[3] - b[1])).sort((a, b) => a - b);
-  const cell = Math.max(2 * sizes[Math.floor(n / 2)], 1e-6);
-  const cellOf = (v: number) => Math.floor(v / cell);
-  const grid = new Map<number, Map<number, number[]>>();
-  const big: number[] = [];
+  const base = Math.max(2 * sizes[Math.floor(n / 2)], 1e-6);
+  const MAX_LEVEL = 20;
+  const cellAt = (level: number) => base * 4 ** level;
+  const levelOf = new Array<number>(n);
+  const grids: Array<Map<number, Map<number, number[]>>> = [];
   for (let i = 0; i < n; i++) {
     const b = g[i];
-    const x0 = cellOf(b[0]);
-    const x1 = cellOf(b[2]);
-    const y0 = cellOf(b[1]);
-    const y1 = cellOf(b[3]);
-    if ((x1 - x0 + 1) * (y1 - y0 + 1) > 16) {
-      big.push(i);
-      continue;
+    let L = 0;
+    for (; L < MAX_LEVEL; L++) {
+      const c = cellAt(L);
+      if ((Math.floor(b[2] / c) - Math.floor(b[0] / c) + 1) * (Math.floor(b[3] / c) - Math.floor(b[1] / c) + 1) <= 16) break;
     }
-    for (let x = x0; x <= x1; x++) {
+    levelOf[i] = L;
+    const c = cellAt(L);
+    const grid = (grids[L] ??= new Map());
+    for (let x = Math.floor(b[0] / c); x <= Math.floor(b[2] / c); x++) {
       let col = grid.get(x);
       if (!col) grid.set(x, (col = new Map()));
-      for (let y = y0; y <= y1; y++) {
+      for (let y = Math.floor(b[1] / c); y <= Math.floor(b[3] / c); y++) {
         const l = col.get(y);
         if (l) l.push(i);
         else col.set(y, [i]);
       }
     }
   }
-  for (const [x, col] of grid) {
-    for (const [y, l] of col) {
-      for (let a = 0; a < l.length; a++) {
-        const A = g[l[a]];
-        for (let b = a + 1; b < l.length; b++) {
-          const B = g[l[b]];
-          if (!meet(A, B)) continue;
-          // Report the pair only in the cell of the overlap's lower-left corner.
-          if (cellOf(Math.max(A[0], B[0])) !== x || cellOf(Math.max(A[1], B[1])) !== y) continue;
-          add(l[a], l[b]);
+  for (let i = 0; i < n; i++) {
+    const A = g[i];
+    for (let L = levelOf[i]; L < grids.length; L++) {
+      const grid = grids[L];
+      if (!grid) continue;
+      const c = cellAt(L);
+      for (let x = Math.floor(A[0] / c); x <= Math.floor(A[2] / c); x++) {
+        const col = grid.get(x);
+        if (!col) continue;
+        for (let y = Math.floor(A[1] / c); y <= Math.floor(A[3] / c); y++) {
+          const l = col.get(y);
+          if (!l) continue;
+          for (const j of l) {
+            // Same level: visit each pair from its lower index only; coarser levels: from the finer box only.
+            if (L === levelOf[i] && j <= i) continue;
+            const B = g[j];
+            if (!meet(A, B)) continue;
+            if (Math.floor(Math.max(A[0], B[0]) / c) !== x || Math.floor(Math.max(A[1], B[1]) / c) !== y) continue;
+            add(i, j);
+          }
         }
       }
-    }
-  }
-  const isBig = new Set(big);
-  for (const i of big) {
-    for (let j = 0; j < n; j++) {
-      if (j === i || (isBig.has(j) && j < i)) continue;
-      if (meet(g[i], g[j])) add(i, j);
     }
   }
   return pairs.sort((p, q) => p[0] - q[0] || p[1] - q[1]);
