@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { runCli, STACK_LINE } from '../helpers/cli.js';
-import { pythonModuleAvailable, requireTool, SYSTEM_PYTHON } from '../helpers/reference.js';
+import { commandAvailable, pythonModuleAvailable, requireTool, SYSTEM_PYTHON } from '../helpers/reference.js';
 import { demoFrame } from './fixtures.js';
 
 const root = mkdtempSync(join(tmpdir(), 'fw-quote-cli-'));
@@ -88,6 +88,19 @@ describe('framewright quote (the built CLI)', () => {
     expect(t.stdout).toMatch(/cost EUR \d+\.\d\d = material/);
     expect(t.stdout).toMatch(/utilisation/);
     expect(t.stderr).toBe(''); // no progress bar when stderr is not a terminal
+  });
+});
+
+describe('framewright quote on a terminal', () => {
+  // `script` (util-linux) runs the CLI on a pseudo-terminal, where the progress bar appears.
+  it.skipIf(!commandAvailable('script'))('shows a progress bar on stderr while nesting a large batch', () => {
+    const out = join(root, 'tty');
+    const cmd = `${JSON.stringify(process.execPath)} dist/cli/main.js quote designs/tessel-5.yaml --qty 12 --out ${JSON.stringify(out)}`;
+    const r = spawnSync('script', ['-qec', cmd, '/dev/null'], { encoding: 'utf8' });
+    expect(r.status).toBe(0);
+    expect(r.stdout).toMatch(/\rnesting \[#*\.*\]\s+\d+ %/);
+    expect(r.stdout).toContain('100 %');
+    expect(r.stdout).toMatch(/per frame EUR/);
   });
 });
 

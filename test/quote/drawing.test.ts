@@ -5,7 +5,8 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { drawingToPdf } from '../../src/export/pdfDrawing.js';
 import { drawingToSvgs } from '../../src/export/svgDrawing.js';
-import { chooseScale, drawingSet, partDimensions, quoteParts, type DrawingSet } from '../../src/quote/index.js';
+import { loopBBox } from '../../src/geometry/index.js';
+import { chooseScale, drawingSet, layoutDrawing, partDimensions, quoteParts, type DrawingSet } from '../../src/quote/index.js';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
 import { demoFrame, exampleShop, plate, roundedRect, roundHole } from './fixtures.js';
 
@@ -43,6 +44,31 @@ describe('drawing data', () => {
     expect(d.filter((x) => x.level === 1).map((x) => `${x.axis} ${x.text}`)).toEqual(['x 100.0', 'y 50.0']);
     expect(d.filter((x) => x.axis === 'x' && x.level < 0).map((x) => x.valueMm)).toEqual([10, 50, 90]);
     expect(d.filter((x) => x.axis === 'y' && x.level < 0).map((x) => x.valueMm)).toEqual([10, 40]);
+  });
+});
+
+describe('drawing layout', () => {
+  it('draws each part at its stated scale: paper size of the outline = part size × scale', () => {
+    const sheets = layoutDrawing(set);
+    set.sheets.forEach((sh, i) => {
+      if (sh.kind !== 'part') return;
+      const outline = sheets[i].items.find((it) => it.kind === 'loop' && it.stroke === 'outline');
+      expect(outline?.kind).toBe('loop');
+      if (outline?.kind !== 'loop') return;
+      const b = loopBBox(outline.loop);
+      const p = loopBBox(sh.part.outline);
+      expect(b[2] - b[0]).toBeCloseTo((p[2] - p[0]) * sh.scale.factor, 9);
+      expect(b[3] - b[1]).toBeCloseTo((p[3] - p[1]) * sh.scale.factor, 9);
+      // Everything on the A4 sheet.
+      for (const it of sheets[i].items) {
+        if (it.kind !== 'loop') continue;
+        const q = loopBBox(it.loop);
+        expect(q[0]).toBeGreaterThanOrEqual(0);
+        expect(q[1]).toBeGreaterThanOrEqual(0);
+        expect(q[2]).toBeLessThanOrEqual(297);
+        expect(q[3]).toBeLessThanOrEqual(210);
+      }
+    });
   });
 });
 
