@@ -279,3 +279,13 @@ describe('spatial index', () => {
     expect(overlappingPairs(boxes, pad)).toEqual(brute);
   });
 });
+
+describe('line endings and byte-order mark', () => {
+  it('CRLF line endings and a UTF-8 byte-order mark read the same as the original', () => {
+    const text = fixtureText('line-arc-plate.dxf');
+    const plain = importDxf(text, { name: 'p', thicknessMm: 2 });
+    const windows = importDxf(`\uFEFF${text.replace(/\r?\n/g, '\r\n')}`, { name: 'p', thicknessMm: 2 });
+    expect(windows.parts).toEqual(plain.parts);
+    expect(windows.findings).toEqual(plain.findings);
+  });
+});
