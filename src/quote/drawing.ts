@@ -53,6 +53,8 @@ export type SummarySheet = Readonly<{
   kind: 'summary';
   title: string;
   tables: readonly Table[];
+  /** One row per nested sheet: its utilisation (part area / sheet area). */
+  sheetRows: Table;
   lines: readonly string[];
 }>;
 
@@ -193,6 +195,11 @@ export function drawingSet(parts: readonly Part[], quote: Quote, options: Drawin
         ],
       },
     ],
+    sheetRows: {
+      title: 'Sheet layouts (files sheets/sheet-NN-*)',
+      header: ['sheet', 'thickness mm', 'parts', 'utilisation'],
+      rows: quote.nesting.sheets.map((sh, i) => [String(i + 1).padStart(2, '0'), mm(sh.thicknessMm, 2), String(sh.placements.length), `${mm(sh.utilisation * 100, 1)} %`]),
+    },
     lines: [
       `Quoted for ${quote.shopName}; ${quote.toolDiameterMm} mm end mill; part spacing ${mm(quote.nesting.spacingMm, 2)} mm, sheet margin ${mm(quote.nesting.marginMm, 1)} mm.`,
       `Frame mass (plates only): ${mm(quote.perFrame.massG, 1)} g.`,

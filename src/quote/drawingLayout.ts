@@ -186,7 +186,12 @@ function summaryView(sheet: SummarySheet, items: PaperItem[]): void {
   const [parts, sheets, batch] = sheet.tables;
   y = table(parts, 16, y, items, 2.3, 180);
   const y2 = table(sheets, 16, y - 5, items, 2.3, 180);
-  table(batch, 205, FRAME.y1 - 14, items, 2.3, 78);
+  const yb = table(batch, 205, FRAME.y1 - 14, items, 2.3, 78);
+  // Per-sheet utilisation below the batch table, as many rows as fit above the title block.
+  const room = Math.max(1, Math.floor((yb - 8 - 45) / (2.3 * 1.6)) - 2);
+  const rows = sheet.sheetRows.rows;
+  const shown = rows.length <= room ? rows : [...rows.slice(0, room - 1), [`+ ${rows.length - room + 1} more`, '', '', '']];
+  table({ ...sheet.sheetRows, rows: shown }, 205, yb - 6, items, 2.3, 78);
   let ly = y2 - 6;
   for (const l of sheet.lines) {
     items.push(text([16, ly], l, 2.3));
