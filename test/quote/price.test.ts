@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { dist, transformPoint } from '../../src/geometry/index.js';
 import { DesignError, formatIssue } from '../../src/params/errors.js';
-import { parseShopText, validateShop, type ShopProfile } from '../../src/params/shop.js';
+import { feedFor, parseShopText, stockFor, validateShop, type ShopProfile } from '../../src/params/shop.js';
 import { passesFor, quoteParts } from '../../src/quote/index.js';
 import { exampleShop, plate, polygon, roundHole } from './fixtures.js';
 
@@ -116,6 +116,16 @@ describe('shop profile validation', () => {
     const s = exampleShop();
     expect(s.name).toBe('Hollin Row Routing');
     expect(s.feeds.length).toBeGreaterThan(0);
+  });
+
+  it('picks the thinnest feed band that covers a plate, and the stocked sheet of its thickness', () => {
+    const s = exampleShop(); // bands up to 2, 3 and 6 mm
+    expect(feedFor(s, 2)?.maxThicknessMm).toBe(2);
+    expect(feedFor(s, 2.5)?.maxThicknessMm).toBe(3);
+    expect(feedFor(s, 5)?.feedMmPerMin).toBe(764);
+    expect(feedFor(s, 6.5)).toBeNull();
+    expect(stockFor(s, 2.5)?.price).toBe(46);
+    expect(stockFor(s, 2.4)).toBeNull();
   });
 
   it('names path, value and range', () => {
