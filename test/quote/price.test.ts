@@ -104,6 +104,14 @@ describe('time and price, hand-worked example', () => {
     expect(b.material + b.machine + b.setup + b.tooling + b.margin).toBeCloseTo(q10.perFrame.cost, 9);
   });
 
+  it('a sheet size other than the stocked one is priced pro rata by area', () => {
+    // 600 × 450 is 2.25 × the stocked 400 × 300 sheet: 2.25 × 90 = 202.5 per sheet.
+    const big = quoteParts([part], { quantity: 1, shop: SHOP, toolDiameterMm: 3, sheet: { widthMm: 600, heightMm: 450 } });
+    expect(big.sheetCosts[0].pricePerSheet).toBeCloseTo(202.5, 9);
+    expect(big.sheetCosts[0].widthMm).toBe(600);
+    expect(big.batchCost.material).toBeCloseTo(202.5, 9);
+  });
+
   it('passes: a plate exactly n depths thick takes n passes', () => {
     expect(passesFor(3, { maxThicknessMm: 6, feedMmPerMin: 955, depthPerPassMm: 3 })).toBe(1);
     expect(passesFor(3.01, { maxThicknessMm: 6, feedMmPerMin: 955, depthPerPassMm: 3 })).toBe(2);
