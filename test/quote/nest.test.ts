@@ -126,6 +126,36 @@ describe('nesting', () => {
     }
   });
 
+  it.skipIf(!haveShapely)('seeded random star plates, random weave angles, two thicknesses: the same independent checks', () => {
+    let seed = 4242;
+    const rnd = () => ((seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648);
+    const parts: Part[] = [];
+    for (let k = 0; k < 7; k++) {
+      const n = 5 + Math.floor(rnd() * 6);
+      const pts: Array<[number, number]> = [];
+      for (let i = 0; i < n; i++) {
+        const a = (2 * Math.PI * (i + 0.3 * rnd())) / n;
+        const rr = 12 + 30 * rnd();
+        pts.push([rr * Math.cos(a), rr * Math.sin(a)]);
+      }
+      parts.push(plate(`star${k}`, polygon(pts), [], k % 2 ? 2 : 3, (rnd() - 0.5) * Math.PI));
+    }
+    const counts = parts.map(() => 2 + Math.floor(rnd() * 5));
+    const r = nestParts(parts.map((part, i) => ({ part, count: counts[i] })), { sheet: { widthMm: 300, heightMm: 200 }, spacingMm: SPACING, marginMm: MARGIN });
+    const c = shapelyCheck(parts, r);
+    expect(c.parts).toBe(counts.reduce((a, b) => a + b, 0));
+    expect(c.overlaps).toBe(0);
+    expect(c.outside).toBe(0);
+    expect(c.minGap!).toBeGreaterThanOrEqual(SPACING - 1e-6);
+    for (const sh of r.sheets) {
+      for (const pl of sh.placements) {
+        const k = (parts[pl.item].weaveRad + pl.transform.rotateRad) / (Math.PI / 2);
+        expect(Math.abs(k - Math.round(k))).toBeLessThan(1e-9);
+        expect(parts[pl.item].thicknessMm).toBe(sh.thicknessMm);
+      }
+    }
+  });
+
   it('is deterministic', () => {
     const again = nestParts(items.map((part, i) => ({ part, count: counts[i] })), { sheet: { widthMm: 300, heightMm: 200 }, spacingMm: SPACING, marginMm: MARGIN });
     expect(JSON.stringify(again)).toBe(JSON.stringify(result));
