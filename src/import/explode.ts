@@ -31,8 +31,8 @@ export type ExplodeResult = Readonly<{ segments: DrawnSegment[]; findings: Findi
 
 /** Entities that annotate a drawing and are never cut. */
 const ANNOTATION = new Set(['TEXT', 'MTEXT', 'DIMENSION', 'ARC_DIMENSION', 'LEADER', 'MULTILEADER', 'MLEADER', 'TOLERANCE', 'ATTDEF', 'ATTRIB', 'HATCH']);
-/** Entities with no bearing on cut geometry, ignored without comment. */
-const SILENT = new Set(['VIEWPORT', 'POINT']);
+/** Entities with no bearing on cut geometry, ignored without comment. POINT is not among them: a shop may read it as a drill mark. */
+const SILENT = new Set(['VIEWPORT']);
 
 type Ctx = {
   opts: ExplodeOptions;
