@@ -9,6 +9,10 @@ import { closestPoint, endOf, pointAt, startOf } from './segment.js';
  * Points on the boundary give an arbitrary answer; use distanceToLoop first when that matters.
  */
 export function windingNumber(loop: Loop, p: Vec2): number {
+  // A point on an arc's chord sits on the seam between the chord polygon and the circular segment,
+  // where neither count includes it. The chord is not the real boundary, so the winding is the
+  // same a hair away: move off the seam and count there.
+  if (onSomeChord(loop, p)) return windingNumber(loop, [p[0] + 3e-8, p[1] + 7e-8]);
   let w = 0;
   const [px, py] = p;
   for (const s of loop) {
@@ -27,6 +31,23 @@ export function windingNumber(loop: Loop, p: Vec2): number {
     if (s.kind === 'arc' && inCircularSegment(s, p)) w += Math.sign(s.sweepRad);
   }
   return w;
+}
+
+function onSomeChord(loop: Loop, p: Vec2): boolean {
+  for (const s of loop) {
+    if (s.kind !== 'arc' || Math.abs(s.sweepRad) >= 2 * Math.PI - 1e-12) continue;
+    const a = startOf(s);
+    const b = endOf(s);
+    const dx = b[0] - a[0];
+    const dy = b[1] - a[1];
+    const l2 = dx * dx + dy * dy;
+    if (l2 === 0) continue;
+    const t = ((p[0] - a[0]) * dx + (p[1] - a[1]) * dy) / l2;
+    if (t < -1e-9 || t > 1 + 1e-9) continue;
+    const off = Math.abs(dx * (p[1] - a[1]) - dy * (p[0] - a[0])) / Math.sqrt(l2);
+    if (off < 1e-9) return true;
+  }
+  return false;
 }
 
 /** Is p inside the region between the arc and its chord? */

@@ -73,6 +73,13 @@ describe('winding number on arcs', () => {
     expect(windingNumber(c, [0, 0])).toBe(1);
     expect(windingNumber(c, [0, -1e-16])).toBe(1);
     expect(windingNumber(circle([0, 0], 3, false), [1, 0])).toBe(-1);
+    // regression (reported by the DXF import work): a point exactly on an arc's chord, here a hole
+    // centre on the line between the ends of a half-round arm end
+    const arm = slot([0, 0], [100, 0], 12);
+    expect(windingNumber(arm, [100, -1.6])).toBe(1);
+    expect(windingNumber(arm, [100, 1.6])).toBe(1);
+    expect(windingNumber(arm, [0, 0])).toBe(1);
+    expect(windingNumber(arm, [106.01, 0])).toBe(0);
   });
 });
 
