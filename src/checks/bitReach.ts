@@ -15,6 +15,23 @@ export const BIT_RULE = 'bit-reach';
 /** A joint turning right by more than this is a sharp inside corner (material on the left). rad. */
 const SHARP_TURN_RAD = 1e-4;
 
+/**
+ * Material the cutter leaves in an inside corner below this depth is not reported: a finely
+ * divided curve turns a little at every vertex. mm. Common practice, no source: about what a
+ * router holds.
+ */
+export const CORNER_LEFTOVER_MM = 0.01;
+
+/**
+ * Depth of material a tool of radius R leaves in an inside corner that turns by turnRad (radius
+ * rho: 0 for a sharp corner), measured on the bisector: (R − rho)(1/cos(turn/2) − 1). mm.
+ */
+export function cornerLeftoverMm(toolRadiusMm: number, cornerRadiusMm: number, turnRad: number): number {
+  const half = Math.abs(turnRad) / 2;
+  if (half >= Math.PI / 2 - 1e-9) return Infinity;
+  return Math.max(0, toolRadiusMm - cornerRadiusMm) * (1 / Math.cos(half) - 1);
+}
+
 /** Chord tolerance for the polygon offset that decides whether a cut-out vanishes. mm. */
 const VANISH_CHORD_MM = 0.002;
 
@@ -95,12 +112,13 @@ export function bitReachRule(ix: PartIndex, o: CheckOptions, chords: readonly Ch
   for (const c of ix.contours) {
     if (blocked.has(c.index)) continue;
     for (const k of sharpInsideCorners(c.loop, c.index)) {
+      if (cornerLeftoverMm(R, 0, k.turnRad) < CORNER_LEFTOVER_MM) continue;
       out.push(finding(BIT_RULE, 'warning', name, 0, R, 'mm', k.at,
         `sharp inside corner of the ${c.label} (turns ${Math.abs(radToDeg(k.turnRad)).toFixed(0)}°): the cutter leaves a ${mm(R)} radius; use --relieve-corners if a square part must fit here`));
     }
     c.loop.forEach((s) => {
       if (s.kind !== 'arc' || s.sweepRad >= 0 || Math.abs(s.sweepRad) >= 2 * Math.PI - 1e-9) return;
-      if (s.radius >= R - TOOL_TOL_MM) return;
+      if (s.radius >= R - TOOL_TOL_MM || cornerLeftoverMm(R, s.radius, s.sweepRad) < CORNER_LEFTOVER_MM) return;
       const at = endOf({ ...s, sweepRad: s.sweepRad / 2 });
       out.push(finding(BIT_RULE, 'warning', name, s.radius, R, 'mm', at,
         `inside radius ${mm(s.radius)} of the ${c.label} is below the tool radius: the cutter leaves ${mm(R)}`));

@@ -1,5 +1,5 @@
-import { segmentDistance, type ClosestPair } from '../geometry/distance.js';
-import { arcParamOfAngle, closestPoint, pointAt, tangentAt } from '../geometry/segment.js';
+import { bboxGap, segmentDistance, type ClosestPair } from '../geometry/distance.js';
+import { arcParamOfAngle, closestPoint, lengthOf, pointAt, tangentAt } from '../geometry/segment.js';
 import type { Arc, Line, Segment, Vec2 } from '../geometry/types.js';
 import { cross, dist, dot, normAngle, sub } from '../geometry/vec.js';
 import { distanceToBoundary, inMaterial, type PartIndex } from './partIndex.js';
@@ -31,6 +31,12 @@ export function loopChords(ix: PartIndex, maxWidthMm: number): Chord[] {
     const n = c.loop.length;
     if (n < 3) continue;
     const baseId = ix.firstSeg[c.index];
+    // cum[k]: loop length before segment k. A chord whose disc is empty splits the loop into two
+    // paths that go round the disc, each at least π/2 × the chord; pairs of pieces closer than
+    // that along the loop cannot carry one (this prunes neighbours on a finely divided curve).
+    const cum: number[] = [0];
+    for (let k = 0; k < n; k++) cum.push(cum[k] + lengthOf(c.loop[k]));
+    const total = cum[n];
     for (let i = 0; i < n; i++) {
       const si = ix.segs[baseId + i];
       for (const id of queryBoxGrid(ix.segGrid, si.box, maxWidthMm)) {
@@ -38,6 +44,8 @@ export function loopChords(ix: PartIndex, maxWidthMm: number): Chord[] {
         if (sj.contour !== c.index) continue;
         const j = sj.seg;
         if (j <= i || j === i + 1 || (i === 0 && j === n - 1)) continue;
+        const alongMax = Math.min(cum[j + 1] - cum[i], total - cum[j] + cum[i + 1]);
+        if (alongMax < (Math.PI / 2) * bboxGap(si.box, sj.box) * (1 - 1e-9)) continue;
         const pair = facingPair(si.s, sj.s);
         if (pair.distance > maxWidthMm || pair.distance <= 0) continue;
         if (!isNormalAtEnds(c.loop, i, pair.t, pair.p, pair.q) || !isNormalAtEnds(c.loop, j, pair.u, pair.q, pair.p)) continue;

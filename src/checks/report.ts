@@ -12,8 +12,11 @@ import type { CheckReport, Finding, PartMetrics, Severity } from './types.js';
 import { webLimitMm, webRule } from './webs.js';
 import { weaveRule } from './weave.js';
 
-/** Necks and gaps wider than this many times the largest limit are not searched for. */
-const CHORD_SEARCH_FACTOR = 4;
+/**
+ * Necks and gaps wider than this many times the larger of the web warning level and the tool
+ * diameter are not searched for (they can break no rule); `minWebMm` counts necks up to there.
+ */
+const CHORD_SEARCH_FACTOR = 3;
 
 /** Everything the part rules found about one part. */
 export type PartCheck = Readonly<{ metrics: PartMetrics; findings: readonly Finding[] }>;
@@ -22,7 +25,7 @@ export type PartCheck = Readonly<{ metrics: PartMetrics; findings: readonly Find
 export function checkPart(part: Part, o: CheckOptions): PartCheck {
   const ix = indexPart(part);
   const warnWeb = webLimitMm(o, part.thicknessMm) * o.limits['web-width'].warnFactor;
-  const chords = loopChords(ix, Math.max(CHORD_SEARCH_FACTOR * Math.max(warnWeb, o.toolDiameterMm), 20));
+  const chords = loopChords(ix, CHORD_SEARCH_FACTOR * Math.max(warnWeb, o.toolDiameterMm));
   const webs = webRule(ix, o, chords);
   const holes = boltHoles(ix);
   const edge = holeEdgeRule(ix, o, holes);

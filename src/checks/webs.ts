@@ -4,7 +4,7 @@ import type { Chord } from './chords.js';
 import { finding, mid, mm } from './finding.js';
 import type { CheckOptions } from './options.js';
 import { type PartIndex } from './partIndex.js';
-import { queryBoxGrid } from './spatial.js';
+import { buildBoxGrid, queryBoxGrid } from './spatial.js';
 import type { Finding } from './types.js';
 
 export const WEB_RULE = 'web-width';
@@ -45,31 +45,47 @@ export function contourPairsWithin(ix: PartIndex, radiusMm: number, want: (a: nu
   return out;
 }
 
-/** For each inner contour within radiusMm of the outline, its closest pair to the outline (queried from the outline side). */
-export function outlinePairsWithin(ix: PartIndex, radiusMm: number): ContourPair[] {
-  const best = new Map<number, ContourPair>();
-  for (let k = 0; k < ix.contours[0].loop.length; k++) {
-    const so = ix.segs[ix.firstSeg[0] + k];
-    for (const id of queryBoxGrid(ix.segGrid, so.box, radiusMm)) {
-      const sb = ix.segs[id];
-      if (sb.contour === 0) continue;
-      const cur = best.get(sb.contour);
-      const bound = Math.min(radiusMm, cur ? cur.distance : Infinity);
-      if (bboxGap(so.box, sb.box) > bound) continue;
-      const c = segmentDistance(sb.s, so.s);
-      if (c.distance <= bound && (!cur || c.distance < cur.distance)) best.set(sb.contour, { ...c, a: sb.contour, b: 0 });
+/**
+ * Smallest distance from any inner contour to the outline: each inner contour searches an
+ * outline-only grid with a radius that doubles until it meets the outline (exact), so holes deep
+ * inside a large plate cost a few cheap queries each. Null for a part without inner contours.
+ */
+export function nearestToOutline(ix: PartIndex, startMm: number): ContourPair | null {
+  const outline = ix.contours[0].loop.map((_, k) => ix.segs[ix.firstSeg[0] + k]);
+  const grid = buildBoxGrid(outline.map((s) => s.box));
+  let best: ContourPair | null = null;
+  for (let a = 1; a < ix.contours.length; a++) {
+    const box = ix.contours[a].bbox;
+    for (let r = Math.max(startMm, 1e-3); r <= 4 * ix.spanMm + 1; r *= 2) {
+      let found: ContourPair | null = null;
+      const near = queryBoxGrid(grid, box, r);
+      for (let k = 0; k < ix.contours[a].loop.length; k++) {
+        const sa = ix.segs[ix.firstSeg[a] + k];
+        for (const o of near) {
+          const so = outline[o];
+          const bound = Math.min(r, found ? found.distance : Infinity);
+          if (bboxGap(sa.box, so.box) > bound) continue;
+          const c = segmentDistance(sa.s, so.s);
+          if (c.distance <= bound && (!found || c.distance < found.distance)) found = { ...c, a, b: 0 };
+        }
+      }
+      if (found) {
+        if (!best || found.distance < best.distance) best = found;
+        break;
+      }
     }
   }
-  return [...best.values()].sort((x, y) => x.a - y.a);
+  return best;
 }
 
 /**
  * Smallest distance between an inner contour and a contour accepted by `want`, searching with a
  * radius that doubles until something is found (exact: every pair nearer than the radius is seen).
  */
-export function nearestPair(ix: PartIndex, startMm: number, want: ((a: number, b: number) => boolean) | 'outline'): ContourPair | null {
+export function nearestPair(ix: PartIndex, startMm: number, want: (a: number, b: number) => boolean): ContourPair | null {
+  if (ix.contours.length < 2) return null;
   for (let r = Math.max(startMm, 1e-3); ; r *= 2) {
-    const pairs = want === 'outline' ? outlinePairsWithin(ix, r) : contourPairsWithin(ix, r, want);
+    const pairs = contourPairsWithin(ix, r, want);
     if (pairs.length) return pairs.reduce((m, p) => (p.distance < m.distance ? p : m));
     if (r > 2 * ix.spanMm) return null;
   }
@@ -104,7 +120,7 @@ export function webRule(ix: PartIndex, o: CheckOptions, chords: readonly Chord[]
     minNeck = minNeck === null ? c.widthMm : Math.min(minNeck, c.widthMm);
     report(c.widthMm, mid(c.p, c.q), `narrow neck in the ${ix.contours[c.contour].label}`);
   }
-  const edge = nearestPair(ix, warn, 'outline');
+  const edge = nearestToOutline(ix, warn);
   const holeHole = nearestPair(ix, warn, (_a, b) => b !== 0);
   const candidates = [edge?.distance, holeHole?.distance, minNeck ?? undefined].filter((x): x is number => x !== undefined);
   return {

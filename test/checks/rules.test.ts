@@ -53,6 +53,22 @@ describe('bit-reach rule (planted parts)', () => {
     }
     expect(f.map((x) => x.atMm).sort()).toEqual([[10, 10], [10, 16], [25, 10], [25, 16]].sort());
   });
+  it('shallow corners leave less than 0.01 mm and are not reported (a finely divided curve is no corner)', () => {
+    // Leftover on the bisector: R(1/cos(turn/2) − 1) with R = 1.5875: 20° → 0.0245 mm, 10° → 0.0061 mm.
+    const notch = (turnDeg: number) => {
+      const h = 10 * Math.tan((turnDeg * Math.PI) / 360); // a shallow V in the top edge, turning by turnDeg at its bottom
+      return testPart(polygon([[0, 0], [40, 0], [40, 30], [30, 30], [20, 30 - h], [10, 30], [0, 30]]), []);
+    };
+    expect(of(notch(20), 'bit-reach').length).toBe(1);
+    expect(of(notch(10), 'bit-reach')).toEqual([]);
+    // Regression: a 4,000-vertex wavy outline once gave 1,329 "sharp corners".
+    const pts = Array.from({ length: 4000 }, (_, i) => {
+      const a = (2 * Math.PI * i) / 4000;
+      const r = 100 + 5 * Math.sin(7 * a);
+      return [r * Math.cos(a), r * Math.sin(a)] as const;
+    });
+    expect(of(testPart(polygon(pts), []), 'bit-reach')).toEqual([]);
+  });
   it('an inside fillet smaller than the tool radius is reported with the radius the cutter leaves', () => {
     const p = testPart(rect(0, 0, 40, 30), [{ shape: roundedRect([20, 15], 16, 10, 1), kind: 'cutout' }]);
     const f = of(p, 'bit-reach');
