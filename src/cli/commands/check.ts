@@ -96,7 +96,7 @@ export function registerCheck(program: Command): void {
     .option('--annotate <dir>', 'write an SVG per part with each finding marked, and an overview with prop discs and the camera view')
     .option('--relieve-corners', 'add dogbone reliefs to sharp inside corners of slots and cut-outs, then check the edited parts')
     .option('--tool <mm>', 'router bit diameter in mm (default: cutting.toolDiameterMm of the design)')
-    .option('--limit <rule.key=value...>', 'override a limit of the checks section, e.g. --limit web-width.minMm=2 (repeatable)')
+    .option('--limit <rule.key=value>', 'override a limit of the checks section, e.g. --limit web-width.minMm=2 (repeat for more)', (v: string, acc: string[]) => [...acc, v], [] as string[])
     .option('--thickness <mm>', 'DXF only: plate thickness in mm (else the sidecar FILE.dxf.yaml, else 2 mm with a warning)')
     .option('--material <name>', 'DXF only: material name (woven-cf, or one defined in the sidecar)')
     .option('--units <unit>', 'DXF only: drawing units mm, cm, m, in, ft (overrides $INSUNITS)')
