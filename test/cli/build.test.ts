@@ -102,3 +102,30 @@ describe('README design reference', () => {
     expect(readme).toContain(r.stdout.trimEnd());
   });
 });
+
+describe('build runs the checks first', () => {
+  // Square X at 180 mm with 5.1-inch props: adjacent tip gap 180/√2 − 129.5 = −2.3 mm, props overlap
+  const crowded = () => {
+    const dir = tmp();
+    const path = join(dir, 'crowded.yaml');
+    writeFileSync(path, YAML.stringify(designWith('tessel-5.yaml', { layout: { kind: 'x', wheelbaseMm: 180, armAngleDeg: 45 } })));
+    return { dir, path };
+  };
+  it('refuses to write cut files when the checks find errors: exit 1, nothing written', () => {
+    const { dir, path } = crowded();
+    const out = join(dir, 'out');
+    const r = runCli(['build', path, '--out', out]);
+    expect(r.code).toBe(1);
+    expect(r.stderr).toMatch(/check errors?; no cut files were written \(use --force/);
+    expect(existsSync(out)).toBe(false);
+  });
+  it('--force writes them, and every file says it was forced', () => {
+    const { dir, path } = crowded();
+    const out = join(dir, 'out');
+    const r = runCli(['build', path, '--out', out, '--force']);
+    expect(r.code).toBe(1);
+    for (const f of readdirSync(out).filter((x) => x !== 'overview.svg')) {
+      expect(readFileSync(join(out, f), 'utf8')).toMatch(/written with --force despite \d+ check errors/);
+    }
+  });
+});

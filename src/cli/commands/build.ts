@@ -2,6 +2,7 @@ import type { Command } from 'commander';
 import { join } from 'node:path';
 import { buildFrame, partArea, partBBox, partCutLength, partMassG, type Frame } from '../../geometry/index.js';
 import { frameOverviewSvg, partToDxf, partToSvg } from '../../export/index.js';
+import { checkFrame, formatCheckReport, summaryLine } from '../../checks/index.js';
 import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 
@@ -68,10 +69,21 @@ export function registerBuild(program: Command): void {
       const frame = buildFrame(design);
       const outDir = opts.out ?? join('out', slug(design.name));
       if (outDir.trim() === '') throw new UsageError('--out must name a folder');
-      const { files, summary } = buildOutputs(frame, outDir, opts);
+      // Cut files only for a design that passes its checks, unless the designer insists.
+      const report = checkFrame(frame);
+      const { errors, warnings } = report.summary;
+      if (errors > 0 && !opts.force) {
+        process.stderr.write(`${formatCheckReport(report, `${design.name} rev ${design.revision}`)}\n`);
+        process.stderr.write(`framewright: ${errors} check error${errors === 1 ? '' : 's'}; no cut files were written (use --force to write them anyway).\n`);
+        process.exitCode = 1;
+        return;
+      }
+      const comment = errors > 0 ? `written with --force despite ${errors} check errors and ${warnings} warnings (framewright check ${designPath})` : undefined;
+      const { files, summary } = buildOutputs(frame, outDir, opts, comment);
       writeAllAtomically(files);
       if (opts.json) {
-        process.stdout.write(`${JSON.stringify({ units: 'mm', design: design.name, revision: design.revision, outDir, parts: summary }, null, 2)}\n`);
+        process.stdout.write(`${JSON.stringify({ units: 'mm', design: design.name, revision: design.revision, outDir, checks: report.summary, parts: summary }, null, 2)}\n`);
+        if (errors > 0) process.exitCode = 1;
         return;
       }
       const rows = summary.map((s) => [
@@ -86,6 +98,8 @@ export function registerBuild(program: Command): void {
       const totalMass = summary.reduce((a, s) => a + s.massG * s.quantity, 0);
       process.stdout.write(`${design.name} rev ${design.revision}: ${summary.length} parts, plate mass ${totalMass.toFixed(1)} g per frame\n\n`);
       process.stdout.write(`${textTable(['part', 'qty', 'thick mm', 'size mm', 'area mm²', 'mass g', 'cut mm'], rows)}\n\n`);
-      process.stdout.write(`wrote ${files.length} files to ${outDir}/\n`);
+      process.stdout.write(`checks: ${summaryLine(report)}${warnings > 0 ? ' (framewright check for details)' : ''}\n`);
+      process.stdout.write(`wrote ${files.length} files to ${outDir}/${comment ? ` — FORCED past ${errors} check errors; the files say so` : ''}\n`);
+      if (errors > 0) process.exitCode = 1;
     });
 }
