@@ -7,6 +7,7 @@ import { arc, line } from '../../src/geometry/segment.js';
 import { checkOptions, checkPart, contourPairsWithin, edgeDistance, boltHoles } from '../../src/checks/index.js';
 import { indexPart } from '../../src/checks/partIndex.js';
 import { pythonModuleAvailable, requireTool, runPythonJson } from '../helpers/reference.js';
+import { DEMO_FILES, demoFrame } from '../helpers/demo.js';
 import { fine, roundHole, testPart } from './parts.js';
 
 const SCRIPT = join(import.meta.dirname, 'shapely_webs.py');
@@ -78,6 +79,25 @@ describe('web widths and edge distances against Shapely (python3-shapely, to 0.0
     expect(strutNeck).toBeCloseTo(2.5, 4); // metrics are rounded to 4 decimals
     expect(waistNeck).toBeCloseTo(byHand, 4);
   });
+});
+
+describe('demo parts against Shapely (python3-shapely, to 0.01 mm)', () => {
+  for (const file of DEMO_FILES) {
+    it.runIf(hasShapely)(`${file}: smallest hole-to-outline and hole-to-hole webs of every part`, () => {
+      const o = checkOptions();
+      for (const part of demoFrame(file).parts) {
+        const rings = [part.outline, ...part.features.map((f) => f.loop)].map(fine);
+        const pairs: number[][] = [];
+        for (let i = 1; i < rings.length; i++) for (let j = 0; j < i; j++) pairs.push([i, j]);
+        const ref = runPythonJson<Ref>(SCRIPT, { rings, pairs });
+        const edge = Math.min(...pairs.map((p, k) => (p[1] === 0 ? ref.pairs[k] : Infinity)));
+        const holeHole = Math.min(...pairs.map((p, k) => (p[1] !== 0 ? ref.pairs[k] : Infinity)));
+        const m = checkPart(part, o).metrics.metrics;
+        expect(Math.abs(m.minHoleEdgeWebMm! - edge), `${part.name} hole to outline`).toBeLessThan(0.01);
+        if (Number.isFinite(holeHole)) expect(Math.abs(m.minHoleHoleWebMm! - holeHole), `${part.name} hole to hole`).toBeLessThan(0.01);
+      }
+    });
+  }
 });
 
 describe('web-width rule', () => {
