@@ -1,8 +1,7 @@
-import YAML from 'yaml';
-import type { z } from 'zod';
 import type { Material, ScrewSize } from '../geometry/part.js';
 import { DesignError, type DesignIssue } from './errors.js';
 import { DesignSchema, type DesignParsed } from './schema.js';
+import { issuesFromZod, parseYamlText } from './yamlInput.js';
 import { parseLengthMm } from './units.js';
 
 /** Camera widths by size class, mm (common practice, no source). */
@@ -20,13 +19,7 @@ export type Design = Readonly<
 
 /** Parse design text (YAML or JSON, by content) and validate it. Throws DesignError. */
 export function parseDesignText(text: string, sourceName = 'design'): Design {
-  let raw: unknown;
-  try {
-    raw = YAML.parse(text, { prettyErrors: true });
-  } catch (e) {
-    throw new DesignError([{ path: '', value: sourceName, message: `is not valid YAML or JSON: ${(e as Error).message.split('\n')[0]}` }]);
-  }
-  return validateDesign(raw);
+  return validateDesign(parseYamlText(text, sourceName));
 }
 
 /** Validate an already-parsed design object. Throws DesignError with every problem found. */
@@ -35,28 +28,8 @@ export function validateDesign(raw: unknown): Design {
     throw new DesignError([{ path: '', value: raw, message: 'must be a mapping of design sections (name, layout, props, motor, arms, body...)' }]);
   }
   const parsed = DesignSchema.safeParse(raw);
-  if (!parsed.success) throw new DesignError(parsed.error.issues.map((i) => toIssue(i, raw)));
+  if (!parsed.success) throw new DesignError(issuesFromZod(parsed.error.issues, raw));
   return resolve(parsed.data);
-}
-
-function toIssue(i: z.core.$ZodIssue, raw: unknown): DesignIssue {
-  const path = i.path.map(String).join('.');
-  const value = valueAt(raw, i.path as PropertyKey[]);
-  let message = i.message;
-  if (i.code === 'unrecognized_keys') {
-    return { path, value: i.keys, message: `unknown key${i.keys.length > 1 ? 's' : ''}; see \`framewright schema\` for the allowed ones` };
-  }
-  if (i.code === 'invalid_union' && value === undefined) message = 'is required';
-  return { path, value, message };
-}
-
-function valueAt(raw: unknown, path: readonly PropertyKey[]): unknown {
-  let v: unknown = raw;
-  for (const k of path) {
-    if (v === null || typeof v !== 'object') return undefined;
-    v = (v as Record<PropertyKey, unknown>)[k];
-  }
-  return v;
 }
 
 function resolve(d: DesignParsed): Design {

@@ -5,3 +5,4 @@ export * from './schema.js';
 export * from './design.js';
 export * from './jsonSchema.js';
 export * from './reference.js';
+export * from './yamlInput.js';

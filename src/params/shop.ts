@@ -1,6 +1,6 @@
-import YAML from 'yaml';
 import { z } from 'zod';
 import { DesignError, type DesignIssue } from './errors.js';
+import { issuesFromZod, parseYamlText } from './yamlInput.js';
 
 /**
  * The shop profile: how one CNC shop turns cut data into time and money. Every number carries its
@@ -59,13 +59,7 @@ export type StockSheet = z.infer<typeof Stock>;
 
 /** Parse shop profile text (YAML or JSON) and validate it. Throws DesignError naming path, value and range. */
 export function parseShopText(text: string, sourceName = 'shop profile'): ShopProfile {
-  let raw: unknown;
-  try {
-    raw = YAML.parse(text, { prettyErrors: true });
-  } catch (e) {
-    throw new DesignError([{ path: '', value: sourceName, message: `is not valid YAML or JSON: ${(e as Error).message.split('\n')[0]}` }]);
-  }
-  return validateShop(raw);
+  return validateShop(parseYamlText(text, sourceName));
 }
 
 /** Validate an already-parsed shop profile. Throws DesignError with every problem found. */
@@ -75,13 +69,7 @@ export function validateShop(raw: unknown): ShopProfile {
   }
   const parsed = ShopSchema.safeParse(raw);
   if (!parsed.success) {
-    throw new DesignError(
-      parsed.error.issues.map((i): DesignIssue => {
-        const path = ['shop', ...i.path.map(String)].join('.');
-        if (i.code === 'unrecognized_keys') return { path, value: i.keys, message: 'unknown key; allowed keys are listed in the README (quote section)' };
-        return { path, value: valueAt(raw, i.path as PropertyKey[]), message: i.message };
-      }),
-    );
+    throw new DesignError(issuesFromZod(parsed.error.issues, raw, ['shop'], 'allowed keys are listed in the README (quote section)'));
   }
   const shop = parsed.data;
   const issues: DesignIssue[] = [];
@@ -99,14 +87,6 @@ export function validateShop(raw: unknown): ShopProfile {
   return shop;
 }
 
-function valueAt(raw: unknown, path: readonly PropertyKey[]): unknown {
-  let v: unknown = raw;
-  for (const k of path) {
-    if (v === null || typeof v !== 'object') return undefined;
-    v = (v as Record<PropertyKey, unknown>)[k];
-  }
-  return v;
-}
 
 /** The feed band for a plate: the thinnest band whose maxThicknessMm covers it, or null. */
 export function feedFor(shop: ShopProfile, thicknessMm: number): FeedBand | null {
