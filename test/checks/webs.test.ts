@@ -100,6 +100,26 @@ describe('demo parts against Shapely (python3-shapely, to 0.01 mm)', () => {
   }
 });
 
+describe('necks of real demo outlines against Shapely erosion (to 0.01 mm)', () => {
+  it.runIf(hasShapely)('tapered arms with fillets into the pads; a camera plate with no neck', () => {
+    const cases = [
+      { file: 'mote-3.yaml', part: 'bottom-plate' }, // unibody: tapered arms, filleted into body and pads
+      { file: 'farline-7.yaml', part: 'arm' }, // tapered arm with a tip guard
+      { file: 'tessel-5.yaml', part: 'camera-side' }, // a plate and a disc: erosion removes it whole
+    ];
+    const outlines = cases.map((c) => demoFrame(c.file).parts.find((p) => p.name === c.part)!.outline);
+    const ref = runPythonJson<{ necks: Array<number | null> }>(SCRIPT, { rings: outlines.map(fine), necks: outlines.map((_, ring) => ({ ring, hi: 40, step: 0.5 })) });
+    // A 12 mm minimum web (warning at 15) makes the neck search reach 45 mm.
+    const o = checkOptions({ limits: { 'web-width': { minMm: 12 } } });
+    outlines.forEach((outline, k) => {
+      const ours = checkPart(testPart(outline, []), o).metrics.metrics.minWebMm;
+      if (ref.necks[k] === null) expect(ours, cases[k].part).toBeNull();
+      else expect(Math.abs(ours! - ref.necks[k]!), cases[k].part).toBeLessThan(0.01);
+    });
+    expect(ref.necks.filter((x) => x !== null).length).toBe(2);
+  });
+});
+
 describe('web-width rule', () => {
   it('flags the thin strut as an error at its middle, with the limit from thickness', () => {
     const strut = filletedUnion([circle([-14, 0], 8), circle([14, 0], 8), slot([-14, 0], [14, 0], 1.2)], 1).outline;
