@@ -1,7 +1,8 @@
 import { intersectSegments } from '../geometry/intersect.js';
 import type { Feature, Member } from '../geometry/part.js';
 import { closestPoint, line } from '../geometry/segment.js';
-import type { Vec2 } from '../geometry/types.js';
+import type { Loop, Vec2 } from '../geometry/types.js';
+import { segmentDistance } from '../geometry/distance.js';
 import { add, dist, dot, perp, scale, sub, unit } from '../geometry/vec.js';
 import { radToDeg } from '../params/units.js';
 import { finding, mid, mm } from './finding.js';
@@ -14,16 +15,33 @@ import type { Finding } from './types.js';
 export const EDGE_RULE = 'hole-edge-distance';
 export const STRESS_RULE = 'hole-stress';
 
-/** A round hole the edge-distance rule applies to: a bolt hole (or any round hole of an imported part). */
-export type BoltHole = Readonly<{ contour: number; feature: Feature; center: Vec2; diameterMm: number }>;
+/**
+ * A hole the edge-distance rule applies to: a round bolt hole (or any round hole of an imported
+ * part), or a bolt slot (a slot with a screw size), whose bolt may sit anywhere along its centre
+ * line. `center` is the round hole's centre, or the middle of the slot's bounding box.
+ */
+export type BoltHole = Readonly<{ contour: number; feature: Feature; center: Vec2; diameterMm: number; slot: boolean }>;
+
+/** Width of a slot: twice the radius of its end caps (arcs turning by half a turn). Null when it has none. */
+export function slotWidthMm(loop: Loop): number | null {
+  let r: number | null = null;
+  for (const s of loop) if (s.kind === 'arc' && Math.abs(Math.abs(s.sweepRad) - Math.PI) < 1e-6) r = r === null ? s.radius : Math.min(r, s.radius);
+  return r === null ? null : 2 * r;
+}
 
 export function boltHoles(ix: PartIndex): BoltHole[] {
   const out: BoltHole[] = [];
   for (const c of ix.contours) {
     const f = c.feature;
-    if (!f || f.centerMm === undefined || f.diameterMm === undefined) continue;
-    if (f.screw === undefined && f.purpose !== 'imported') continue;
-    out.push({ contour: c.index, feature: f, center: f.centerMm, diameterMm: f.diameterMm });
+    if (!f) continue;
+    if (f.centerMm !== undefined && f.diameterMm !== undefined) {
+      if (f.screw === undefined && f.purpose !== 'imported') continue;
+      out.push({ contour: c.index, feature: f, center: f.centerMm, diameterMm: f.diameterMm, slot: false });
+    } else if (f.kind === 'slot' && f.screw !== undefined) {
+      const w = slotWidthMm(c.loop);
+      if (w === null) continue;
+      out.push({ contour: c.index, feature: f, center: [(c.bbox[0] + c.bbox[2]) / 2, (c.bbox[1] + c.bbox[3]) / 2], diameterMm: w, slot: true });
+    }
   }
   return out;
 }
@@ -40,17 +58,28 @@ export function freeEdges(ix: PartIndex): FreeEdges {
 }
 
 /**
- * Distance from the hole centre to the nearest free edge, searching outward with a doubling radius
- * (exact: closest points on lines and arcs). mm.
+ * e: distance from the bolt centre to the nearest free edge, searching outward with a doubling
+ * radius (exact on lines and arcs). For a slot the bolt may sit anywhere on its centre line, and
+ * since the slot is that line grown by D/2, e = (slot contour to free edge) + D/2. mm.
  */
 export function edgeDistance(ix: PartIndex, h: BoltHole, free: FreeEdges = freeEdges(ix)): { eMm: number; at: Vec2; edge: number } | null {
+  const own = ix.contours[h.contour];
+  const box = h.slot ? own.bbox : ([h.center[0], h.center[1], h.center[0], h.center[1]] as const);
   for (let r = h.diameterMm; ; r *= 2) {
     let best: { eMm: number; at: Vec2; edge: number } | null = null;
-    for (const k of queryBoxGrid(free.grid, [h.center[0], h.center[1], h.center[0], h.center[1]], r)) {
+    for (const k of queryBoxGrid(free.grid, box, r)) {
       const s = ix.segs[free.ids[k]];
       if (s.contour === h.contour) continue;
-      const c = closestPoint(s.s, h.center);
-      if (c.distance <= r && (!best || c.distance < best.eMm)) best = { eMm: c.distance, at: c.point, edge: s.contour };
+      if (h.slot) {
+        for (const seg of own.loop) {
+          const c = segmentDistance(seg, s.s);
+          const e = c.distance + h.diameterMm / 2;
+          if (c.distance <= r && (!best || e < best.eMm)) best = { eMm: e, at: c.p, edge: s.contour };
+        }
+      } else {
+        const c = closestPoint(s.s, h.center);
+        if (c.distance <= r && (!best || c.distance < best.eMm)) best = { eMm: c.distance, at: c.point, edge: s.contour };
+      }
     }
     if (best) return best;
     if (r > 2 * ix.spanMm) return null;
@@ -76,17 +105,18 @@ export function holeEdgeRule(ix: PartIndex, o: CheckOptions, holes: readonly Bol
     const error = ratio < lim.errorEdgeRatio;
     const lm = error ? lim.errorEdgeRatio : lim.warnEdgeRatio;
     findings.push(
-      finding(EDGE_RULE, error ? 'error' : 'warning', name, ratio, lm, 'e/D', h.center,
+      finding(EDGE_RULE, error ? 'error' : 'warning', name, ratio, lm, 'e/D', h.slot ? e.at : h.center,
         `${ix.contours[h.contour].label}: e ${mm(e.eMm)} to the ${ix.contours[e.edge].label}, e/D ${ratio.toFixed(2)} below ${lm.toFixed(2)}, web ${mm(e.eMm - h.diameterMm / 2)}; move the hole inward or add material (needs e ≥ ${mm(lm * h.diameterMm)})`),
     );
   }
-  if (lim.enabled && holes.length > 1) {
-    const grid = buildBoxGrid(holes.map((h) => [h.center[0], h.center[1], h.center[0], h.center[1]] as const));
-    const maxD = Math.max(...holes.map((h) => h.diameterMm));
-    holes.forEach((h, i) => {
+  const round = holes.filter((h) => !h.slot);
+  if (lim.enabled && round.length > 1) {
+    const grid = buildBoxGrid(round.map((h) => [h.center[0], h.center[1], h.center[0], h.center[1]] as const));
+    const maxD = Math.max(...round.map((h) => h.diameterMm));
+    round.forEach((h, i) => {
       for (const j of queryBoxGrid(grid, [h.center[0], h.center[1], h.center[0], h.center[1]], lim.warnPitchRatio * maxD)) {
         if (j <= i) continue;
-        const g = holes[j];
+        const g = round[j];
         const s = dist(h.center, g.center);
         const D = Math.max(h.diameterMm, g.diameterMm);
         if (s === 0 || s / D >= lim.warnPitchRatio) continue;
@@ -141,7 +171,7 @@ export function holeStressRule(ix: PartIndex, o: CheckOptions, holes: readonly B
   const part = ix.part;
   const out: Finding[] = [];
   for (const h of holes) {
-    if (!['motor-bolt', 'arm-root-bolt', 'imported'].includes(h.feature.purpose)) continue;
+    if (h.slot || !['motor-bolt', 'arm-root-bolt', 'imported'].includes(h.feature.purpose)) continue;
     const m = memberOf(h, part.members);
     if (!m) continue;
     const along = unit(sub(m.endMm, m.startMm));

@@ -31,6 +31,14 @@ describe('hole-edge-distance rule (planted parts)', () => {
     expect(of(plate(7.14), 'hole-edge-distance')).toEqual([]);
     expect(checkPart(plate(4.08), o).metrics.metrics.minEdgeRatio).toBeCloseTo(1.2, 9);
   });
+  it('a bolt slot: e from its centre line (the slot contour distance + D/2), D its width', () => {
+    // Slot centre line y = 5 from x 10 to 20, width 3.4: e = 5 to the edge y = 0, e/D = 1.4706 → error.
+    const p = testPart(rect(0, 0, 40, 30), [{ shape: slot([10, 5], [20, 5], 3.4), kind: 'slot', purpose: 'motor-bolt', screw: 'M3' as const }]);
+    const f = of(p, 'hole-edge-distance');
+    expect(f.map((x) => x.severity)).toEqual(['error']);
+    expect(f[0].measured).toBeCloseTo(5 / 3.4, 4);
+    expect(f[0].atMm![1]).toBeCloseTo(3.3, 9); // on the slot's side facing the edge
+  });
   it('pitch/D below 3 between neighbouring bolt holes is a warning', () => {
     const p = testPart(rect(0, 0, 60, 30), [
       { ...roundHole([20, 15], 3.4), screw: 'M3' as const },
