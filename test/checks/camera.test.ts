@@ -61,3 +61,48 @@ describe('camera-view rule on a design', () => {
     expect(checkOptions().limits['camera-view'].horizontalFovDeg).toBeUndefined();
   });
 });
+
+describe('view margin against sampling the disc through a projection (seeded)', () => {
+  /** mulberry32 */
+  function rng(seed: number): () => number {
+    let a = seed >>> 0;
+    return () => {
+      a = (a + 0x6d2b79f5) >>> 0;
+      let t = a;
+      t = Math.imul(t ^ (t >>> 15), t | 1);
+      t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+      return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+    };
+  }
+  /** Is a point seen: rotate into camera axes (pitch by the uptilt) and project onto the image plane. */
+  function seen(pose: CameraPose, p: readonly [number, number, number]): boolean {
+    const d = [p[0] - pose.eyeMm[0], p[1] - pose.eyeMm[1], p[2] - pose.eyeMm[2]];
+    const c = Math.cos(pose.uptiltRad);
+    const s = Math.sin(pose.uptiltRad);
+    const depth = c * d[0] + s * d[2];
+    const up = -s * d[0] + c * d[2];
+    if (depth <= 0) return false;
+    return Math.abs(d[1] / depth) <= Math.tan(pose.hFovRad / 2) && Math.abs(up / depth) <= Math.tan(pose.vFovRad / 2);
+  }
+  it('agrees on visibility wherever the margin is clear of the sampling error', () => {
+    const r = rng(3);
+    let checked = 0;
+    for (let k = 0; k < 150; k++) {
+      const pose: CameraPose = { eyeMm: [r() * 60, r() * 10 - 5, 5 + r() * 20], uptiltRad: rad(r() * 60 - 10), hFovRad: rad(60 + r() * 100), vFovRad: rad(40 + r() * 80) };
+      const disc = { id: 'd', centerMm: [r() * 300 - 150, r() * 300 - 150] as const, radiusMm: 20 + r() * 70, zMm: r() * 30 };
+      const m = discViewMargin(pose, disc);
+      if (Math.abs(m) < 1) continue; // within a millimetre of the boundary the sampling below cannot decide
+      let any = false;
+      for (let i = 0; i <= 60 && !any; i++) {
+        for (let j = 0; j < 120 && !any; j++) {
+          const rr = (disc.radiusMm * i) / 60;
+          const a = (2 * Math.PI * j) / 120;
+          any = seen(pose, [disc.centerMm[0] + rr * Math.cos(a), disc.centerMm[1] + rr * Math.sin(a), disc.zMm]);
+        }
+      }
+      expect(any, `case ${k}, margin ${m}`).toBe(m <= 0);
+      checked++;
+    }
+    expect(checked).toBeGreaterThan(100);
+  });
+});
