@@ -1,0 +1,226 @@
+import { partMassG, type Frame, type Material, type Part, type PartRole, type Vec2 } from '../geometry/index.js';
+import { describeModes, motionAt, type PointMotion, type ShapeContext } from './describe.js';
+import type { PlateMesh } from './mesh.js';
+import { defaultMeshSizeMm, featureCentre, featureNodes, meshMassG, motorsOnPlate, plateModel, withFixed, withMasses, type AddedMass, type PlateModel } from './plateModel.js';
+import { solvePlateModes } from './solve.js';
+import { armTipDeflection, bodyTwist, type ArmStatics, type BodyTwist, type TipDeflection, unibodyTipDeflections } from './statics.js';
+
+export type ModeOptions = Readonly<{
+  /** Elastic modes wanted per model (default 6, 1 to 200). */
+  modes?: number;
+  /** Element size, mm; default a thirtieth of √area, 0.8 to 4 mm (`defaultMeshSizeMm`). */
+  meshSizeMm?: number;
+  /** Mass of one motor, g, spread over its bolt-hole edges. Default: estimated from the bell diameter in frameModes, 0 otherwise. */
+  motorMassG?: number;
+  /** Flight-controller stack, g, spread over the stack bolt holes (bottom plate with motors). Default 0. */
+  stackMassG?: number;
+  /** Battery, g, spread over the standoff holes (it rides on the top plate). Default 0. */
+  batteryMassG?: number;
+  /** Camera, g, spread over the front standoff holes. Default 0. */
+  cameraMassG?: number;
+  /** Thrust of one motor for the static figures, N. Default 10. */
+  thrustN?: number;
+}>;
+
+export type Boundary = 'free' | 'arm-root-clamped' | 'body-with-motors';
+
+export type ModeResult = Readonly<{
+  index: number;
+  frequencyHz: number;
+  plane: 'out-of-plane' | 'in-plane';
+  description: string;
+  /** Motion at the flight-controller stack (bottom plates only). */
+  stack?: PointMotion;
+  /** Six values per mesh node [u, v, w, rx, ry, rz], largest translation 1 mm. */
+  shape: Float64Array;
+}>;
+
+export type ModalResult = Readonly<{
+  part: string;
+  role: PartRole;
+  boundary: Boundary;
+  thicknessMm: number;
+  weaveDeg: number;
+  material: Material;
+  /** Bending stiffness D in part axes (classical laminate theory), N·mm. */
+  bendingStiffnessNmm: Readonly<{ d11: number; d12: number; d22: number; d16: number; d26: number; d66: number }>;
+  meshSizeMm: number;
+  nodes: number;
+  triangles: number;
+  dof: number;
+  rigidModes: number;
+  plateMassG: number;
+  addedMasses: ReadonlyArray<Readonly<{ what: string; massG: number }>>;
+  stackAtMm: Vec2 | null;
+  modes: readonly ModeResult[];
+  mesh: PlateMesh;
+}>;
+
+/** Thrust used for static figures when none is given, N (a 5-inch motor near hover-to-punch; common practice, no source). */
+export const DEFAULT_THRUST_N = 10;
+
+/**
+ * Rough motor mass from the bell diameter, g: 1.46e-3 · D³ (fits 18 mm → 8.5 g, 28 mm → 32 g,
+ * 33 mm → 52 g; common practice, no source). Used only when no motor mass is given.
+ */
+export function estimateMotorMassG(bellDiameterMm: number): number {
+  return Math.round(1.46e-3 * bellDiameterMm ** 3 * 10) / 10;
+}
+
+/**
+ * Natural modes of a part as cut, free in space (free–free): the lowest `modes` elastic modes.
+ * Works for any part, imported DXF parts included.
+ * @throws RangeError for a bad mode count or mesh size
+ * @example partModes(frame.parts[0], { modes: 6 }).modes[0].frequencyHz
+ */
+export function partModes(part: Part, options: ModeOptions = {}): ModalResult {
+  const pm = plateModel(part, options.meshSizeMm ?? defaultMeshSizeMm(part));
+  const stack = part.role === 'bottom' ? stackPoint(pm) : null;
+  return run(pm, 'free', [], { kind: 'plate' }, stack, options);
+}
+
+/**
+ * Modes of an arm held at its root bolts (every node on the root bolt-hole edges fixed in
+ * translation) and carrying its motor, spread over the motor bolt-hole edges.
+ * @throws RangeError when the part has no arm-root or motor bolt holes
+ */
+export function armModes(part: Part, options: ModeOptions = {}): ModalResult {
+  const pm0 = plateModel(part, options.meshSizeMm ?? defaultMeshSizeMm(part));
+  const { pm, ctx, masses } = armSetup(pm0, part, options.motorMassG ?? 0);
+  return run(pm, 'arm-root-clamped', masses, ctx, null, options);
+}
+
+function armSetup(pm0: PlateModel, part: Part, motorMassG: number) {
+  const roots = featureNodes(pm0, 'arm-root-bolt');
+  const motors = featureNodes(pm0, 'motor-bolt');
+  if (!roots.length) throw new RangeError(`part ${part.name} has no arm-root bolt holes to clamp`);
+  if (!motors.length) throw new RangeError(`part ${part.name} has no motor bolt holes`);
+  const centre = (fs: typeof roots): Vec2 => {
+    const cs = fs.map((f) => featureCentre(pm0, f.feature, f.nodes));
+    return [cs.reduce((s, c) => s + c[0], 0) / cs.length, cs.reduce((s, c) => s + c[1], 0) / cs.length];
+  };
+  const tipNodes = motors.flatMap((m) => m.nodes);
+  const masses: AddedMass[] = motorMassG > 0 ? [{ what: 'motor', massG: motorMassG, nodes: tipNodes }] : [];
+  const pm = withMasses(
+    withFixed(
+      pm0,
+      roots.flatMap((r) => r.nodes),
+      [0, 1, 2],
+    ),
+    masses,
+  );
+  const ctx: ShapeContext = { kind: 'arm', rootMm: centre(roots), tipMm: centre(motors), tipNodes };
+  return { pm, ctx, masses, tipNodes };
+}
+
+/**
+ * Modes of a one-piece (unibody) bottom plate, free in space, carrying its motors and the
+ * optional stack, battery and camera masses.
+ */
+export function bodyModes(part: Part, sites: Frame['sites'], options: ModeOptions = {}): ModalResult {
+  const pm0 = plateModel(part, options.meshSizeMm ?? defaultMeshSizeMm(part));
+  const { pm, motors, masses } = bodySetup(pm0, sites, options);
+  return run(pm, 'body-with-motors', masses, { kind: 'body', motors }, stackPoint(pm0), options);
+}
+
+function bodySetup(pm0: PlateModel, sites: Frame['sites'], options: ModeOptions) {
+  const motors = motorsOnPlate(pm0, sites);
+  const masses: AddedMass[] = [];
+  const mm = options.motorMassG ?? 0;
+  if (mm > 0) for (const m of motors) masses.push({ what: `motor ${m.id}`, massG: mm, nodes: m.nodes });
+  const stackNodes = featureNodes(pm0, 'stack-bolt').flatMap((f) => f.nodes);
+  const standoffs = featureNodes(pm0, 'standoff');
+  if ((options.stackMassG ?? 0) > 0) masses.push({ what: 'stack', massG: options.stackMassG!, nodes: stackNodes });
+  if ((options.batteryMassG ?? 0) > 0) masses.push({ what: 'battery', massG: options.batteryMassG!, nodes: standoffs.flatMap((f) => f.nodes) });
+  if ((options.cameraMassG ?? 0) > 0) {
+    const xs = standoffs.map((f) => featureCentre(pm0, f.feature, f.nodes)[0]);
+    const front = Math.max(...xs);
+    masses.push({ what: 'camera', massG: options.cameraMassG!, nodes: standoffs.filter((_, i) => xs[i] > front - 1).flatMap((f) => f.nodes) });
+  }
+  for (const m of masses) if (!m.nodes.length) throw new RangeError(`no ${m.what.split(' ')[0]} mounting holes on part ${pm0.part.name} to carry its ${m.massG} g`);
+  return { pm: withMasses(pm0, masses), motors, masses };
+}
+
+/** The flight-controller stack position: the centre of the stack bolt holes, else the frame centre. */
+function stackPoint(pm: PlateModel): Vec2 {
+  const cs = featureNodes(pm, 'stack-bolt').map((f) => featureCentre(pm, f.feature, f.nodes));
+  if (!cs.length) return [0, 0];
+  return [cs.reduce((s, c) => s + c[0], 0) / cs.length, cs.reduce((s, c) => s + c[1], 0) / cs.length];
+}
+
+function run(pm: PlateModel, boundary: Boundary, masses: readonly AddedMass[], ctx: ShapeContext, stack: Vec2 | null, options: ModeOptions): ModalResult {
+  const count = options.modes ?? 6;
+  const sol = solvePlateModes(pm, count);
+  const words = describeModes(pm.mesh, sol.modes, ctx);
+  const p = pm.part;
+  const d = pm.laminate.d;
+  return {
+    part: p.name,
+    role: p.role,
+    boundary,
+    thicknessMm: p.thicknessMm,
+    weaveDeg: (p.weaveRad * 180) / Math.PI,
+    material: p.material,
+    bendingStiffnessNmm: { d11: d[0], d12: d[1], d22: d[4], d16: d[2], d26: d[5], d66: d[8] },
+    meshSizeMm: pm.mesh.sizeMm,
+    nodes: pm.mesh.xy.length / 2,
+    triangles: pm.mesh.triangles.length / 3,
+    dof: sol.dof,
+    rigidModes: sol.rigidModes,
+    plateMassG: meshMassG(pm),
+    addedMasses: masses.map((m) => ({ what: m.what, massG: m.massG })),
+    stackAtMm: stack,
+    modes: sol.modes.map((m, i) => ({
+      index: i + 1,
+      frequencyHz: m.frequencyHz,
+      plane: m.plane,
+      description: words[i],
+      ...(stack ? { stack: motionAt(pm.mesh, m.shape, stack) } : {}),
+      shape: m.shape,
+    })),
+    mesh: pm.mesh,
+  };
+}
+
+export type ArmResult = Readonly<{ modal: ModalResult; statics: ArmStatics }>;
+export type BodyResult = Readonly<{ modal: ModalResult; twist: BodyTwist; tipDeflections: readonly TipDeflection[] }>;
+
+export type FrameModes = Readonly<{
+  frame: string;
+  motorMassG: number;
+  thrustN: number;
+  /** Every part as cut, free–free. */
+  parts: readonly ModalResult[];
+  /** Each distinct arm held at its root bolts, with its motor. */
+  arms: readonly ArmResult[];
+  /** A one-piece bottom plate carrying its motors (unibody frames only). */
+  body: BodyResult | null;
+}>;
+
+/**
+ * Everything the `modes` command reports for a frame: free–free modes of every part, arms clamped
+ * at their root bolts with their motors, and for a unibody frame the bottom plate carrying its
+ * motors, with arm-tip deflection and body twist under motor thrust.
+ */
+export function frameModes(frame: Frame, options: ModeOptions = {}): FrameModes {
+  const motorMassG = options.motorMassG ?? estimateMotorMassG(frame.design.motor.bellDiameterMm);
+  const thrustN = options.thrustN ?? DEFAULT_THRUST_N;
+  const opts = { ...options, motorMassG, thrustN };
+  const parts = frame.parts.map((p) => partModes(p, opts));
+  const arms = frame.parts
+    .filter((p) => p.role === 'arm')
+    .map((p) => ({ modal: armModes(p, opts), statics: armTipDeflection(p, thrustN, opts.meshSizeMm) }));
+  let body: BodyResult | null = null;
+  const bottom = frame.parts.find((p) => p.role === 'bottom');
+  if (bottom && frame.design.arms.construction === 'unibody') {
+    body = {
+      modal: bodyModes(bottom, frame.sites, opts),
+      twist: bodyTwist(bottom, frame.sites, thrustN, opts.meshSizeMm),
+      tipDeflections: unibodyTipDeflections(bottom, frame.sites, thrustN, opts.meshSizeMm),
+    };
+  }
+  return { frame: frame.name, motorMassG, thrustN, parts, arms, body };
+}
+
+/** Plate mass of a part from its exact area, g (for cross-checking the mesh). */
+export const exactPartMassG = partMassG;

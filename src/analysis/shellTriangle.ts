@@ -1,0 +1,269 @@
+import type { PlaneStiffness } from './laminate.js';
+
+/**
+ * A flat three-node shell triangle with six degrees of freedom per node, ordered
+ * [u, v, w, rx, ry, rz] (translations, then rotation vector components, right-handed, in the
+ * element's own plane axes). It is the sum of two published elements that do not interact in a
+ * symmetric laminate:
+ *  - bending: the Discrete Kirchhoff Triangle (DKT; Batoz, Bathe & Ho, Int. J. Num. Meth. Eng. 15, 1980),
+ *    DOFs w, rx = ∂w/∂y, ry = −∂w/∂x;
+ *  - membrane: Allman's triangle with drilling rotations (Allman, Computers & Structures 19, 1984), built
+ *    as the six-node quadratic triangle whose mid-side displacements follow from the corner rotations rz,
+ *    plus a small penalty on the one spurious drilling mode.
+ * Stiffness is returned in element axes; `toGlobal` rotates an 18×18 matrix for a plate placed in 3D,
+ * so an assembled frame can reuse the element unchanged.
+ */
+
+export const DOF_PER_NODE = 6;
+export const BENDING_DOFS = [2, 3, 4] as const;
+export const MEMBRANE_DOFS = [0, 1, 5] as const;
+
+/** Penalty weight on the spurious drilling mode, relative to G·t·area; small enough not to stiffen bending in plane. */
+const DRILL_PENALTY = 0.01;
+
+/** Gauss points at the mid-sides (area coordinates), exact for quadratic integrands (weights 1/3 of the area). */
+const MIDSIDE_POINTS: ReadonlyArray<readonly [number, number, number]> = [
+  [0.5, 0.5, 0],
+  [0, 0.5, 0.5],
+  [0.5, 0, 0.5],
+];
+
+/** Sides (i, j) of the six-node triangle, in the order of mid-side nodes 3, 4, 5. */
+const SIDES: ReadonlyArray<readonly [number, number]> = [
+  [0, 1],
+  [1, 2],
+  [2, 0],
+];
+
+type Tri = readonly [number, number, number];
+
+/** Twice the signed area; positive when the corners run counter-clockwise. */
+export const twiceArea = (x: Tri, y: Tri): number => (x[1] - x[0]) * (y[2] - y[0]) - (x[2] - x[0]) * (y[1] - y[0]);
+
+/**
+ * Derivatives ∂N/∂x, ∂N/∂y of the six quadratic shape functions at area coordinates L.
+ * N_i = L_i(2L_i − 1) at corners, N = 4 L_i L_j at the mid-side of side (i, j).
+ */
+function quadraticGradients(x: Tri, y: Tri, L: readonly [number, number, number]): { dx: Float64Array; dy: Float64Array } {
+  const a2 = twiceArea(x, y);
+  const bx = [(y[1] - y[2]) / a2, (y[2] - y[0]) / a2, (y[0] - y[1]) / a2];
+  const by = [(x[2] - x[1]) / a2, (x[0] - x[2]) / a2, (x[1] - x[0]) / a2];
+  const dx = new Float64Array(6);
+  const dy = new Float64Array(6);
+  for (let i = 0; i < 3; i++) {
+    dx[i] = (4 * L[i] - 1) * bx[i];
+    dy[i] = (4 * L[i] - 1) * by[i];
+  }
+  SIDES.forEach(([i, j], k) => {
+    dx[3 + k] = 4 * (bx[i] * L[j] + L[i] * bx[j]);
+    dy[3 + k] = 4 * (by[i] * L[j] + L[i] * by[j]);
+  });
+  return { dx, dy };
+}
+
+/** Add w·Bᵀ·C·B (B is r×c row-major, C 3×3) into the c×c matrix k. */
+function addBtCB(k: Float64Array, b: Float64Array, c: PlaneStiffness, cols: number, w: number): void {
+  const cb = new Float64Array(3 * cols);
+  for (let r = 0; r < 3; r++) for (let j = 0; j < cols; j++) cb[r * cols + j] = c[r * 3] * b[j] + c[r * 3 + 1] * b[cols + j] + c[r * 3 + 2] * b[2 * cols + j];
+  for (let i = 0; i < cols; i++) {
+    for (let j = 0; j < cols; j++) {
+      k[i * cols + j] += w * (b[i] * cb[j] + b[cols + i] * cb[cols + j] + b[2 * cols + i] * cb[2 * cols + j]);
+    }
+  }
+}
+
+/**
+ * DKT rotations βx = −∂w/∂x, βy = −∂w/∂y at the six nodes of the quadratic triangle as linear
+ * combinations of the nine DOFs [w, rx, ry] × 3. At corners βx = ry, βy = −rx; at mid-sides the
+ * tangential rotation follows the cubic w along the side and the normal rotation varies linearly
+ * (the discrete Kirchhoff constraints).
+ */
+function dktRotationMaps(x: Tri, y: Tri): { bx: Float64Array; by: Float64Array } {
+  const bx = new Float64Array(6 * 9);
+  const by = new Float64Array(6 * 9);
+  for (let i = 0; i < 3; i++) {
+    bx[i * 9 + 3 * i + 2] = 1;
+    by[i * 9 + 3 * i + 1] = -1;
+  }
+  SIDES.forEach(([i, j], s) => {
+    const row = (3 + s) * 9;
+    const ex = x[j] - x[i];
+    const ey = y[j] - y[i];
+    const l = Math.hypot(ex, ey);
+    const c = ex / l;
+    const sn = ey / l;
+    // βx_k = 3c/(2l)(w_i − w_j) + (s²/2 − c²/4)(βx_i + βx_j) − (3cs/4)(βy_i + βy_j)
+    // βy_k = 3s/(2l)(w_i − w_j) − (3cs/4)(βx_i + βx_j) + (c²/2 − s²/4)(βy_i + βy_j)
+    const kxx = (sn * sn) / 2 - (c * c) / 4;
+    const kxy = (-3 * c * sn) / 4;
+    const kyy = (c * c) / 2 - (sn * sn) / 4;
+    for (const [node, sign] of [
+      [i, 1],
+      [j, -1],
+    ] as const) {
+      bx[row + 3 * node] += (sign * 3 * c) / (2 * l);
+      by[row + 3 * node] += (sign * 3 * sn) / (2 * l);
+      // βx_node = ry, βy_node = −rx
+      bx[row + 3 * node + 2] += kxx;
+      bx[row + 3 * node + 1] += -kxy;
+      by[row + 3 * node + 2] += kxy;
+      by[row + 3 * node + 1] += -kyy;
+    }
+  });
+  return { bx, by };
+}
+
+/**
+ * Curvature–displacement matrix of the DKT (3×9, row-major) at area coordinates L:
+ * κ = [∂βx/∂x, ∂βy/∂y, ∂βx/∂y + ∂βy/∂x] = [−w,xx, −w,yy, −2w,xy].
+ */
+export function dktCurvatureMatrix(x: Tri, y: Tri, L: readonly [number, number, number]): Float64Array {
+  const { bx, by } = dktRotationMaps(x, y);
+  const { dx, dy } = quadraticGradients(x, y, L);
+  const b = new Float64Array(27);
+  for (let n = 0; n < 6; n++) {
+    for (let d = 0; d < 9; d++) {
+      b[d] += dx[n] * bx[n * 9 + d];
+      b[9 + d] += dy[n] * by[n * 9 + d];
+      b[18 + d] += dy[n] * bx[n * 9 + d] + dx[n] * by[n * 9 + d];
+    }
+  }
+  return b;
+}
+
+/**
+ * DKT bending stiffness (9×9, DOFs [w, rx, ry] per corner) for bending stiffness D (N·mm).
+ * Coordinates in mm, corners counter-clockwise. Throws RangeError on a degenerate triangle.
+ */
+export function dktStiffness(x: Tri, y: Tri, d: PlaneStiffness): Float64Array {
+  const area = twiceArea(x, y) / 2;
+  if (!(area > 0)) throw new RangeError(`degenerate or clockwise triangle (area ${area} mm²)`);
+  const k = new Float64Array(81);
+  for (const L of MIDSIDE_POINTS) addBtCB(k, dktCurvatureMatrix(x, y, L), d, 9, area / 3);
+  return k;
+}
+
+/**
+ * The 12×9 map from Allman DOFs [u, v, rz] × 3 to the six-node triangle's [u0..u5, v0..v5]:
+ * u_m = (u_i + u_j)/2 + (y_j − y_i)(rz_j − rz_i)/8, v_m = (v_i + v_j)/2 + (x_i − x_j)(rz_j − rz_i)/8.
+ */
+function allmanMap(x: Tri, y: Tri): Float64Array {
+  const t = new Float64Array(12 * 9);
+  for (let i = 0; i < 3; i++) {
+    t[i * 9 + 3 * i] = 1;
+    t[(6 + i) * 9 + 3 * i + 1] = 1;
+  }
+  SIDES.forEach(([i, j], s) => {
+    const ru = (3 + s) * 9;
+    const rv = (9 + s) * 9;
+    t[ru + 3 * i] += 0.5;
+    t[ru + 3 * j] += 0.5;
+    t[rv + 3 * i + 1] += 0.5;
+    t[rv + 3 * j + 1] += 0.5;
+    const fu = (y[j] - y[i]) / 8;
+    const fv = (x[i] - x[j]) / 8;
+    t[ru + 3 * j + 2] += fu;
+    t[ru + 3 * i + 2] -= fu;
+    t[rv + 3 * j + 2] += fv;
+    t[rv + 3 * i + 2] -= fv;
+  });
+  return t;
+}
+
+/** Membrane strain matrix (3×9) of the Allman triangle at L: [εx, εy, γxy]. */
+function allmanStrainMatrix(x: Tri, y: Tri, L: readonly [number, number, number], t: Float64Array): Float64Array {
+  const { dx, dy } = quadraticGradients(x, y, L);
+  const b = new Float64Array(27);
+  for (let n = 0; n < 6; n++) {
+    for (let d = 0; d < 9; d++) {
+      const u = t[n * 9 + d];
+      const v = t[(6 + n) * 9 + d];
+      b[d] += dx[n] * u;
+      b[9 + d] += dy[n] * v;
+      b[18 + d] += dy[n] * u + dx[n] * v;
+    }
+  }
+  return b;
+}
+
+/**
+ * Allman membrane stiffness (9×9, DOFs [u, v, rz] per corner) for membrane stiffness A (N/mm).
+ * The penalty ties the mean corner rotation to the continuum rotation at the centroid, which
+ * removes the element's one zero-energy drilling mode without touching rigid-body motion.
+ */
+export function allmanStiffness(x: Tri, y: Tri, a: PlaneStiffness): Float64Array {
+  const area = twiceArea(x, y) / 2;
+  if (!(area > 0)) throw new RangeError(`degenerate or clockwise triangle (area ${area} mm²)`);
+  const t = allmanMap(x, y);
+  const k = new Float64Array(81);
+  for (const L of MIDSIDE_POINTS) addBtCB(k, allmanStrainMatrix(x, y, L, t), a, 9, area / 3);
+  const { dx, dy } = quadraticGradients(x, y, [1 / 3, 1 / 3, 1 / 3]);
+  const h = new Float64Array(9);
+  for (let n = 0; n < 6; n++) for (let d = 0; d < 9; d++) h[d] -= 0.5 * (dx[n] * t[(6 + n) * 9 + d] - dy[n] * t[n * 9 + d]);
+  for (let i = 0; i < 3; i++) h[3 * i + 2] += 1 / 3;
+  const pen = DRILL_PENALTY * a[8] * area;
+  for (let i = 0; i < 9; i++) for (let j = 0; j < 9; j++) k[i * 9 + j] += pen * h[i] * h[j];
+  return k;
+}
+
+/**
+ * The 18×18 flat-shell stiffness in element axes: DKT bending plus Allman membrane, DOFs
+ * [u, v, w, rx, ry, rz] per corner. x, y are the corners in the element plane (mm).
+ */
+export function shellStiffness(x: Tri, y: Tri, a: PlaneStiffness, d: PlaneStiffness): Float64Array {
+  const k = new Float64Array(18 * 18);
+  scatter(k, dktStiffness(x, y, d), BENDING_DOFS);
+  scatter(k, allmanStiffness(x, y, a), MEMBRANE_DOFS);
+  return k;
+}
+
+function scatter(k18: Float64Array, k9: Float64Array, dofs: readonly number[]): void {
+  for (let i = 0; i < 9; i++) {
+    const gi = 6 * Math.floor(i / 3) + dofs[i % 3];
+    for (let j = 0; j < 9; j++) k18[gi * 18 + 6 * Math.floor(j / 3) + dofs[j % 3]] += k9[i * 9 + j];
+  }
+}
+
+/**
+ * Lumped (diagonal) mass per corner, 6 entries: a third of the element's mass on each translation,
+ * a third of its rotary inertia ρt³/12·A about the in-plane axes, and a small inertia about the normal
+ * (the drilling rotation carries no physical inertia in plate theory; it only has to be positive).
+ * @param arealMass ρt, t/mm²; rotary ρt³/12, t
+ */
+export function shellLumpedMass(x: Tri, y: Tri, arealMass: number, rotary: number): Float64Array {
+  const area = twiceArea(x, y) / 2;
+  const m = (arealMass * area) / 3;
+  const j = (rotary * area) / 3;
+  return Float64Array.of(m, m, m, j, j, (m * area) / 12);
+}
+
+/**
+ * Rotate an 18×18 element matrix from element axes to global axes: K_g = Tᵀ K T, where T repeats
+ * the 3×3 direction-cosine matrix r (rows: element x, y, z axes in global components) for the
+ * translations and rotations of each corner.
+ */
+export function toGlobal(k: Float64Array, r: readonly number[]): Float64Array {
+  const n = 18;
+  const tmp = new Float64Array(n * n);
+  // tmp = K T (T block-diagonal with r)
+  for (let i = 0; i < n; i++) {
+    for (let b = 0; b < 6; b++) {
+      for (let c = 0; c < 3; c++) {
+        let s = 0;
+        for (let a = 0; a < 3; a++) s += k[i * n + 3 * b + a] * r[a * 3 + c];
+        tmp[i * n + 3 * b + c] = s;
+      }
+    }
+  }
+  const out = new Float64Array(n * n);
+  for (let b = 0; b < 6; b++) {
+    for (let c = 0; c < 3; c++) {
+      for (let j = 0; j < n; j++) {
+        let s = 0;
+        for (let a = 0; a < 3; a++) s += r[a * 3 + c] * tmp[(3 * b + a) * n + j];
+        out[(3 * b + c) * n + j] = s;
+      }
+    }
+  }
+  return out;
+}

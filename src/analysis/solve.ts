@@ -1,0 +1,72 @@
+import { lowestEigenpairs } from './eigen.js';
+import { assemble, expand } from './model.js';
+import type { PlateModel } from './plateModel.js';
+import { BENDING_DOFS, MEMBRANE_DOFS } from './shellTriangle.js';
+
+/** One computed natural mode of a flat plate model. */
+export type RawMode = Readonly<{
+  frequencyHz: number;
+  plane: 'out-of-plane' | 'in-plane';
+  /** Six values per node [u, v, w, rx, ry, rz], scaled so the largest nodal translation is 1 mm. */
+  shape: Float64Array;
+}>;
+
+export type PlateSolution = Readonly<{
+  modes: RawMode[];
+  /** Unconstrained DOFs of the bending and membrane systems together. */
+  dof: number;
+  /** Modes below 1 Hz dropped as rigid-body motion. */
+  rigidModes: number;
+}>;
+
+/** Below this a mode of a plate model is rigid-body motion (elastic modes of these plates are hundreds of Hz). */
+const RIGID_HZ = 1;
+
+/**
+ * Lowest `count` elastic modes of a flat plate model. A plate in its own plane with a symmetric
+ * laminate has uncoupled bending (w, rx, ry) and membrane (u, v, rz) systems; they are solved
+ * separately (exactly equivalent to the full six-DOF system, and about four times cheaper) and merged.
+ * @throws RangeError when count is not a whole number from 1 to 200
+ */
+export function solvePlateModes(pm: PlateModel, count: number): PlateSolution {
+  if (!Number.isInteger(count) || count < 1 || count > 200) throw new RangeError(`mode count must be a whole number from 1 to 200 (got ${count})`);
+  const modes: RawMode[] = [];
+  let dof = 0;
+  let rigid = 0;
+  for (const [dofs, plane] of [
+    [BENDING_DOFS, 'out-of-plane'],
+    [MEMBRANE_DOFS, 'in-plane'],
+  ] as const) {
+    const a = assemble(pm.model, dofs);
+    dof += a.k.n;
+    if (a.k.n === 0) continue;
+    const r = lowestEigenpairs(a.k, a.m, count + 3);
+    r.values.forEach((lambda, i) => {
+      const f = Math.sqrt(Math.max(lambda, 0)) / (2 * Math.PI);
+      if (f < RIGID_HZ) {
+        rigid++;
+        return;
+      }
+      const shape = expand(a, r.vectors[i]);
+      modes.push({ frequencyHz: f, plane, shape: normalise(shape) });
+    });
+  }
+  modes.sort((a, b) => a.frequencyHz - b.frequencyHz);
+  return { modes: modes.slice(0, count), dof, rigidModes: rigid };
+}
+
+/** Scale so the largest nodal translation is 1 and the largest component is positive (a stable sign). */
+function normalise(s: Float64Array): Float64Array {
+  let big = 0;
+  let signed = 0;
+  for (let i = 0; i < s.length; i += 6) {
+    const t = Math.hypot(s[i], s[i + 1], s[i + 2]);
+    if (t > big + 1e-12 * big) {
+      big = t;
+      const c = [s[i], s[i + 1], s[i + 2]];
+      signed = c.reduce((a, b) => (Math.abs(b) > Math.abs(a) ? b : a), 0);
+    }
+  }
+  const k = big > 0 ? Math.sign(signed || 1) / big : 1;
+  return s.map((x) => x * k);
+}
