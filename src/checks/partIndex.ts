@@ -1,4 +1,3 @@
-import { bboxGap, segmentDistance, type ClosestPair } from '../geometry/distance.js';
 import { windingNumber } from '../geometry/inside.js';
 import { loopBBox } from '../geometry/loop.js';
 import type { Feature, Part } from '../geometry/part.js';
@@ -67,27 +66,6 @@ export function distanceToBoundary(ix: PartIndex, p: Vec2, radiusMm: number, sto
     if (d < best) {
       best = d;
       if (best < stopBelowMm) return best;
-    }
-  }
-  return best;
-}
-
-/** Closest pair between two contours, or null when none is within maxMm. */
-export function contourDistance(ix: PartIndex, a: number, b: number, maxMm = Infinity): (ClosestPair & { segA: number; segB: number }) | null {
-  let best: (ClosestPair & { segA: number; segB: number }) | null = null;
-  const la = ix.contours[a].loop;
-  const lb = ix.contours[b].loop;
-  const ba = la.map(segmentBBox);
-  const bb = lb.map(segmentBBox);
-  let limit = maxMm;
-  for (let i = 0; i < la.length; i++) {
-    for (let j = 0; j < lb.length; j++) {
-      if (bboxGap(ba[i], bb[j]) > limit) continue;
-      const c = segmentDistance(la[i], lb[j]);
-      if (c.distance <= limit && (!best || c.distance < best.distance)) {
-        best = { ...c, segA: i, segB: j };
-        limit = c.distance;
-      }
     }
   }
   return best;
