@@ -99,6 +99,12 @@ describe('framewright check (the built CLI)', () => {
     }
   });
 
+  it('--annotate into a path that cannot be a directory is bad input, nothing written (exit 2)', () => {
+    const file = join(tmp(), 'plain-file');
+    writeFileSync(file, 'x');
+    expectBadInput(runCli(['check', tessel, '--annotate', join(file, 'sub')]), /cannot write the annotated drawings to .*ENOTDIR; nothing was written/);
+  });
+
   it('--relieve-corners reports the reliefs and re-checks', () => {
     const r = runCli(['check', tessel, '--relieve-corners']);
     expect(r.code).toBe(0);

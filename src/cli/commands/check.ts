@@ -114,7 +114,14 @@ export function registerCheck(program: Command): void {
         reliefNote = `Corner relief: ${r.added} dogbone${r.added === 1 ? '' : 's'} added${r.skipped ? `, ${r.skipped} corner${r.skipped === 1 ? '' : 's'} too tight to relieve` : ''}; the report below is for the relieved parts.\n`;
       }
       const report = checkFrame(frame, o);
-      if (opts.annotate) writeAllAtomically(annotatedFiles(frame, report, opts.annotate, o));
+      if (opts.annotate) {
+        const files = annotatedFiles(frame, report, opts.annotate, o);
+        try {
+          writeAllAtomically(files);
+        } catch (e) {
+          throw new UsageError(`cannot write the annotated drawings to ${opts.annotate}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}; nothing was written`);
+        }
+      }
       if (opts.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
       else {
         const heading = `framewright check: ${frame.name} rev ${frame.revision} (router bit ${o.toolDiameterMm.toFixed(3)} mm)`;
