@@ -30,7 +30,8 @@ export function checkOptions(input: { toolDiameterMm?: number; limits?: ChecksIn
 
 /** Options for a validated design: its `checks` section, cutting tool and prop tip gap, then overrides. */
 export function optionsForDesign(d: Design, overrides: Partial<CheckOptions> = {}): CheckOptions {
-  const limits = overrides.limits ?? d.checks;
+  // A design object assembled by hand (not through the schema) may lack the section: defaults then.
+  const limits = overrides.limits ?? (d.checks as ChecksConfig | undefined) ?? parseLimits({});
   return {
     toolDiameterMm: overrides.toolDiameterMm ?? limits['bit-reach'].toolDiameterMm ?? d.cutting.toolDiameterMm,
     limits,
