@@ -9,7 +9,8 @@ export const CHECK_CAUTIONS: readonly string[] = [
 
 const num = (x: number | null, unit: string): string => {
   if (x === null) return '—';
-  const v = Math.abs(x) >= 100 ? x.toFixed(1) : x.toFixed(2);
+  // Two decimals, a third when it carries information (a 3.175 mm tool is not "3.17").
+  const v = Math.abs(x) >= 100 ? x.toFixed(1) : x.toFixed(3).replace(/(\.\d\d)0$/, '$1');
   return unit === 'mm' ? `${v} mm` : unit ? `${v} ${unit}` : v;
 };
 
