@@ -8,7 +8,7 @@ import { checkOptions, checkPart, contourPairsWithin, edgeDistance, boltHoles } 
 import { indexPart } from '../../src/checks/partIndex.js';
 import { pythonModuleAvailable, requireTool, runPythonJson } from '../helpers/reference.js';
 import { DEMO_FILES, demoFrame } from '../helpers/demo.js';
-import { fine, roundHole, testPart } from './parts.js';
+import { fine, rect, roundHole, testPart } from './parts.js';
 
 const SCRIPT = join(import.meta.dirname, 'shapely_webs.py');
 const hasShapely = requireTool(pythonModuleAvailable('shapely'), 'python3-shapely');
@@ -117,6 +117,20 @@ describe('necks of real demo outlines against Shapely erosion (to 0.01 mm)', () 
       else expect(Math.abs(ours! - ref.necks[k]!), cases[k].part).toBeLessThan(0.01);
     });
     expect(ref.necks.filter((x) => x !== null).length).toBe(2);
+  });
+});
+
+describe('necks worked by hand', () => {
+  const o = checkOptions({ limits: { 'web-width': { minMm: 10 } } }); // search necks up to 3 × 12.5 mm
+  it('a curved strut (concentric arcs, radius 20, 3 mm wide): 3 mm', () => {
+    const strut = arcSlot([0, 0], 20, 0, Math.PI / 2, 3);
+    expect(checkPart(testPart(strut, []), o).metrics.metrics.minWebMm).toBeCloseTo(3, 9);
+  });
+  it('a 12 × 30 mm sharp-cornered bar: 12 mm between its long sides', () => {
+    expect(checkPart(testPart(rect(0, 0, 30, 12), []), o).metrics.metrics.minWebMm).toBeCloseTo(12, 9);
+  });
+  it('a round disc has no neck', () => {
+    expect(checkPart(testPart(circle([0, 0], 5), []), o).metrics.metrics.minWebMm).toBeNull();
   });
 });
 
