@@ -70,3 +70,25 @@ export function formatCheckReport(r: CheckReport, heading: string): string {
   out.push(`${summaryLine(r)}.`, '', ...CHECK_CAUTIONS.map((c) => `Caution: ${c}`), '');
   return out.join('\n');
 }
+
+/** What `build` does with a check report: refuse (exit 1), or write and say so in the files. */
+export type BuildGate = Readonly<{ refuse: boolean; comment: string | undefined; message: string }>;
+
+/**
+ * The decision for `build`: with errors and no force, refuse and explain (the errors, one per
+ * line); with errors and force, write the files with a comment naming the finding count.
+ * @example const gate = buildGate(checkFrame(frame), opts.force === true); if (gate.refuse) { process.stderr.write(gate.message); process.exitCode = 1; return; }
+ */
+export function buildGate(report: CheckReport, force: boolean): BuildGate {
+  const errors = report.findings.filter((f) => f.severity === 'error');
+  if (errors.length === 0) return { refuse: false, comment: undefined, message: '' };
+  const list = grouped(errors).map((g) => `  ${g.f.part}: ${g.f.rule}${g.at.length > 1 ? ` (×${g.at.length})` : ''}: ${g.f.message}`).join('\n');
+  if (!force) {
+    return { refuse: true, comment: undefined, message: `framewright: the design-rule checks found ${summaryLine(report)}; no cut files were written (see \`framewright check\`, or use --force):\n${list}\n` };
+  }
+  return {
+    refuse: false,
+    comment: `written with --force although the design-rule checks found ${summaryLine(report)}`,
+    message: `framewright: written with --force despite ${errors.length} error${errors.length === 1 ? '' : 's'}:\n${list}\n`,
+  };
+}

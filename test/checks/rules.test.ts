@@ -6,6 +6,7 @@ import { flattenLoop } from '../../src/geometry/loop.js';
 import { dist } from '../../src/geometry/vec.js';
 import {
   bestWeave,
+  buildGate,
   checkFrame,
   checkOptions,
   checkPart,
@@ -220,5 +221,19 @@ describe('demo designs', () => {
   }
   it('reports are deterministic', () => {
     expect(JSON.stringify(checkFrame(demoFrame('tessel-5.yaml')))).toBe(JSON.stringify(checkFrame(demoFrame('tessel-5.yaml'))));
+  });
+});
+
+describe('buildGate (for build)', () => {
+  it('refuses on errors unless forced, and then names the count for the files', () => {
+    const bad = checkParts([testPart(rect(0, 0, 40, 30), [{ ...roundHole([4.5, 15], 3.4), screw: 'M3' as const }])], o);
+    expect(bad.summary.errors).toBe(1);
+    const refused = buildGate(bad, false);
+    expect(refused.refuse).toBe(true);
+    expect(refused.message).toMatch(/1 error, .*no cut files were written/);
+    const forced = buildGate(bad, true);
+    expect(forced.refuse).toBe(false);
+    expect(forced.comment).toMatch(/--force although the design-rule checks found 1 error/);
+    expect(buildGate(checkFrame(demoFrame('tessel-5.yaml')), false)).toEqual({ refuse: false, comment: undefined, message: '' });
   });
 });
