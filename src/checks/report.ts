@@ -54,6 +54,9 @@ export function checkPart(part: Part, o: CheckOptions): PartCheck {
 
 const SEVERITY_ORDER: Record<Severity, number> = { error: 0, warning: 1, info: 2 };
 
+/** Code-unit order: the same on every machine, unlike locale collation. */
+const cmp = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
+
 /** Assemble a report: findings in a stable order (part order, then severity, rule, position). */
 export function makeReport(parts: readonly PartMetrics[], findings: readonly Finding[]): CheckReport {
   const order = new Map(parts.map((p, i) => [p.name, i]));
@@ -61,10 +64,10 @@ export function makeReport(parts: readonly PartMetrics[], findings: readonly Fin
     (a, b) =>
       (order.get(a.part) ?? parts.length) - (order.get(b.part) ?? parts.length) ||
       SEVERITY_ORDER[a.severity] - SEVERITY_ORDER[b.severity] ||
-      a.rule.localeCompare(b.rule) ||
+      cmp(a.rule, b.rule) ||
       (a.atMm?.[0] ?? 0) - (b.atMm?.[0] ?? 0) ||
       (a.atMm?.[1] ?? 0) - (b.atMm?.[1] ?? 0) ||
-      a.message.localeCompare(b.message),
+      cmp(a.message, b.message),
   );
   return {
     units: 'mm',
