@@ -116,7 +116,7 @@ describe('build runs the checks first', () => {
     const out = join(dir, 'out');
     const r = runCli(['build', path, '--out', out]);
     expect(r.code).toBe(1);
-    expect(r.stderr).toMatch(/check errors?; no cut files were written \(use --force/);
+    expect(r.stderr).toMatch(/no cut files were written \(see `framewright check`, or use --force\)/);
     expect(existsSync(out)).toBe(false);
   });
   it('--force writes them, and every file says it was forced', () => {
@@ -125,7 +125,7 @@ describe('build runs the checks first', () => {
     const r = runCli(['build', path, '--out', out, '--force']);
     expect(r.code).toBe(1);
     for (const f of readdirSync(out).filter((x) => x !== 'overview.svg')) {
-      expect(readFileSync(join(out, f), 'utf8')).toMatch(/written with --force despite \d+ check errors/);
+      expect(readFileSync(join(out, f), 'utf8')).toMatch(/written with --force although the design-rule checks found \d+ errors/);
     }
   });
 });

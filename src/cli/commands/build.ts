@@ -2,7 +2,7 @@ import type { Command } from 'commander';
 import { join } from 'node:path';
 import { buildFrame, partArea, partBBox, partCutLength, partMassG, type Frame } from '../../geometry/index.js';
 import { frameOverviewSvg, partToDxf, partToSvg } from '../../export/index.js';
-import { checkFrame, formatCheckReport, summaryLine } from '../../checks/index.js';
+import { buildGate, checkFrame, summaryLine } from '../../checks/index.js';
 import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 
@@ -72,13 +72,13 @@ export function registerBuild(program: Command): void {
       // Cut files only for a design that passes its checks, unless the designer insists.
       const report = checkFrame(frame);
       const { errors, warnings } = report.summary;
-      if (errors > 0 && !opts.force) {
-        process.stderr.write(`${formatCheckReport(report, `${design.name} rev ${design.revision}`)}\n`);
-        process.stderr.write(`framewright: ${errors} check error${errors === 1 ? '' : 's'}; no cut files were written (use --force to write them anyway).\n`);
+      const gate = buildGate(report, !!opts.force);
+      if (gate.message) process.stderr.write(gate.message);
+      if (gate.refuse) {
         process.exitCode = 1;
         return;
       }
-      const comment = errors > 0 ? `written with --force despite ${errors} check errors and ${warnings} warnings (framewright check ${designPath})` : undefined;
+      const comment = gate.comment;
       const { files, summary } = buildOutputs(frame, outDir, opts, comment);
       writeAllAtomically(files);
       if (opts.json) {
