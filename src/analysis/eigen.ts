@@ -56,11 +56,19 @@ export type EigenOptions = Readonly<{
   shift?: number;
   /** Vectors per Krylov block: at least the largest multiplicity expected. Default 6. */
   blockSize?: number;
+  /**
+   * Known eigenvectors at λ = 0 (rigid-body motions of an unsupported model), kept out of the search:
+   * every basis vector is made M-orthogonal to them. Without this, the rigid modes' large θ would
+   * swamp the precision left for high elastic modes. Vectors that vanish on the active DOFs are ignored.
+   */
+  deflate?: readonly Float64Array[];
   /** Relative residual of the inverted operator, ‖Op x − θx‖_M / θ, accepted. Eigenvalue errors go as its square. Default 1e-4. */
   tolerance?: number;
 }>;
 
 export type EigenResult = Readonly<{
+  /** Deflation vectors actually used (non-zero on the active DOFs and independent). */
+  deflated: number;
   /** Eigenvalues λ = ω², ascending, rad²/s². */
   values: number[];
   /** Eigenvectors, M-normalised (xᵀMx = 1). */
@@ -81,13 +89,14 @@ export type EigenResult = Readonly<{
 export function lowestEigenpairs(k: Envelope, m: Float64Array, count: number, options: EigenOptions = {}): EigenResult {
   const n = k.n;
   const want = Math.min(count, n);
-  if (want <= 0) return { values: [], vectors: [], basisSize: 0 };
+  if (want <= 0) return { values: [], vectors: [], basisSize: 0, deflated: 0 };
   const sigma = options.shift ?? -((2 * Math.PI * 10) ** 2);
   const p = Math.min(options.blockSize ?? 6, n);
   const tol = options.tolerance ?? 1e-4;
   // A safety stop; the wanted pairs normally converge with a basis of two to four times their number.
-  const maxBasis = Math.min(n, 10 * want + 10 * p + 50);
+  const maxBasis = Math.min(n - (options.deflate?.length ?? 0), 10 * want + 10 * p + 50);
   const factor = cholesky(k.withDiagonal(m, -sigma));
+  const locked: Float64Array[] = [];
   const q: Float64Array[] = [];
   const z: Float64Array[] = [];
   const mdot = (a: Float64Array, b: Float64Array) => {
@@ -100,6 +109,10 @@ export function lowestEigenpairs(k: Envelope, m: Float64Array, count: number, op
     const norm0 = Math.sqrt(mdot(v, v));
     if (norm0 === 0) return null;
     for (let pass = 0; pass < 2; pass++) {
+      for (const b of locked) {
+        const c = mdot(b, v);
+        for (let i = 0; i < n; i++) v[i] -= c * b[i];
+      }
       for (const b of q) {
         const c = mdot(b, v);
         for (let i = 0; i < n; i++) v[i] -= c * b[i];
@@ -118,7 +131,7 @@ export function lowestEigenpairs(k: Envelope, m: Float64Array, count: number, op
   const addBlock = (cands: Float64Array[]): number => {
     let added = 0;
     for (const c of cands) {
-      if (q.length >= n) break;
+      if (q.length + locked.length >= n) break;
       const v = orthonormalise(c);
       if (!v) continue;
       q.push(v);
@@ -130,6 +143,24 @@ export function lowestEigenpairs(k: Envelope, m: Float64Array, count: number, op
     return added;
   };
   const randomBlock = () => Array.from({ length: p }, () => Float64Array.from({ length: n }, rand));
+  for (const d of options.deflate ?? []) {
+    const v = orthonormaliseAgainstLocked(new Float64Array(d));
+    if (v) locked.push(v);
+  }
+  function orthonormaliseAgainstLocked(v: Float64Array): Float64Array | null {
+    const norm0 = Math.sqrt(mdot(v, v));
+    if (!(norm0 > 0)) return null;
+    for (let pass = 0; pass < 2; pass++) {
+      for (const b of locked) {
+        const c = mdot(b, v);
+        for (let i = 0; i < n; i++) v[i] -= c * b[i];
+      }
+    }
+    const norm = Math.sqrt(mdot(v, v));
+    if (norm < 1e-8 * norm0) return null;
+    for (let i = 0; i < n; i++) v[i] /= norm;
+    return v;
+  }
   addBlock(randomBlock());
   let lastBlockStart = 0;
   // H = QᵀM Z (the projected operator) and G = ZᵀM Z, grown one row per basis vector. With
@@ -153,15 +184,39 @@ export function lowestEigenpairs(k: Envelope, m: Float64Array, count: number, op
       let converged = true;
       for (const { theta, s } of ritz) {
         const r2 = quad(gRows, s) - 2 * theta * quad(hRows, s) + theta * theta;
-        // The residual is found by cancellation, so it cannot resolve much below ε·θmax: accept that floor.
-        if (!(Math.sqrt(Math.max(r2, 0)) <= Math.max(tol * theta, 1e-7 * ritz[0].theta))) converged = false;
+        if (!(Math.sqrt(Math.max(r2, 0)) <= tol * theta)) converged = false;
       }
+      // The cheap estimate is found by cancellation and cannot resolve much below ε·θmax, so a
+      // pass is confirmed on the vectors themselves before it is trusted.
+      if (converged && !explicitlyConverged(ritz)) converged = false;
       if (converged || q.length >= maxBasis) return finish(ritz);
     }
     const start = q.length;
     const added = addBlock(z.slice(lastBlockStart, start).map((v) => new Float64Array(v)));
     lastBlockStart = start;
     if (added === 0 && addBlock(randomBlock()) === 0) return finish(ritzPairs(hRows, want));
+  }
+
+  function explicitlyConverged(ritz: Array<{ theta: number; s: Float64Array }>): boolean {
+    const x = new Float64Array(n);
+    const y = new Float64Array(n);
+    for (const { theta, s } of ritz) {
+      x.fill(0);
+      y.fill(0);
+      for (let a = 0; a < s.length; a++) {
+        const c = s[a];
+        const qa = q[a];
+        const za = z[a];
+        for (let r = 0; r < n; r++) {
+          x[r] += c * qa[r];
+          y[r] += c * za[r];
+        }
+      }
+      let r2 = 0;
+      for (let r = 0; r < n; r++) r2 += m[r] * (y[r] - theta * x[r]) ** 2;
+      if (!(Math.sqrt(r2) <= tol * theta)) return false;
+    }
+    return true;
   }
 
   function finish(ritz: Array<{ theta: number; s: Float64Array }>): EigenResult {
@@ -175,7 +230,7 @@ export function lowestEigenpairs(k: Envelope, m: Float64Array, count: number, op
       }
       return x;
     });
-    return { values: ritz.map(({ theta }) => sigma + 1 / theta), vectors, basisSize: q.length };
+    return { values: ritz.map(({ theta }) => sigma + 1 / theta), vectors, basisSize: q.length, deflated: locked.length };
   }
 }
 

@@ -21,7 +21,17 @@ export type Laminate = Readonly<{
   densityTPerMm3: number;
   arealMassTPerMm2: number;
   rotaryInertiaT: number;
+  /**
+   * Transverse shear stiffness κ·G13·t with κ = 5/6 (Reissner–Mindlin), N/mm. The sheet's data gives
+   * no G13 (G23); a woven carbon/epoxy laminate's is close to its in-plane G12, so G13 = G23 = G12
+   * is taken (from memory). It matters: E/G13 ≈ 16 makes shear deformation lower the modes of
+   * 2–6 mm plates by several per cent.
+   */
+  shearStiffnessNPerMm: number;
 }>;
+
+/** Shear correction factor of a homogeneous plate (Reissner). */
+export const SHEAR_CORRECTION = 5 / 6;
 
 /**
  * Reduced stiffness of an orthotropic ply (classical laminate theory; Kaw, Mechanics of Composite
@@ -88,6 +98,7 @@ export function laminate(material: Material, thicknessMm: number, weaveRad: numb
     densityTPerMm3: rho,
     arealMassTPerMm2: rho * t,
     rotaryInertiaT: (rho * t * t * t) / 12,
+    shearStiffnessNPerMm: SHEAR_CORRECTION * material.g12Gpa * 1000 * t,
   };
 }
 

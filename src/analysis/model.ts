@@ -1,6 +1,6 @@
 import { Envelope, reverseCuthillMcKee } from './envelope.js';
 import type { Laminate } from './laminate.js';
-import { DOF_PER_NODE, shellLumpedMass, shellStiffness, toGlobal } from './shellTriangle.js';
+import { BENDING_DOFS, DOF_PER_NODE, MEMBRANE_DOFS, shellLumpedMass, shellStiffness, toGlobal } from './shellTriangle.js';
 
 /**
  * A finite-element model of flat shell triangles in 3D, in consistent units (mm, N, tonne, s).
@@ -79,6 +79,10 @@ export function assemble(model: ShellModel, dofs: readonly number[]): Assembly {
   const k = new Envelope(first);
   const m = new Float64Array(neq);
   const xyz = model.xyz;
+  // A flat model solved block by block needs only the bending or only the membrane stiffness.
+  const parts = model.frames
+    ? { bending: true, membrane: true }
+    : { bending: dofs.some((d) => BENDING_DOFS.includes(d as 2 | 3 | 4)), membrane: dofs.some((d) => MEMBRANE_DOFS.includes(d as 0 | 1 | 5)) };
   for (let t = 0; t < tris.length; t += 3) {
     const tri = t / 3;
     const lam = model.laminates[model.triangleLaminate[tri]];
@@ -91,7 +95,7 @@ export function assemble(model: ShellModel, dofs: readonly number[]): Assembly {
       x[a] = r ? r[0] * p[0] + r[1] * p[1] + r[2] * p[2] : p[0];
       y[a] = r ? r[3] * p[0] + r[4] * p[1] + r[5] * p[2] : p[1];
     }
-    let ke = shellStiffness(x, y, lam.a, lam.d);
+    let ke = shellStiffness(x, y, lam.a, lam.d, lam.shearStiffnessNPerMm, parts);
     if (r) ke = toGlobal(ke, r);
     gather(t);
     for (let i = 0; i < 18; i++) {
@@ -130,4 +134,38 @@ export function restrict(a: Assembly, f: Float64Array): Float64Array {
   const out = new Float64Array(a.k.n);
   for (let i = 0; i < a.eq.length; i++) if (a.eq[i] >= 0) out[a.eq[i]] += f[i];
   return out;
+}
+
+/**
+ * The six rigid-body motions of the model restricted to the assembly's equations: translations along
+ * x, y, z and rotations ω about the axes through the model's centroid (displacement ω × r, rotation
+ * DOFs ω). Used to deflate the eigen solver for an unsupported model; only meaningful when nothing is fixed.
+ */
+export function rigidBodyModes(model: ShellModel, a: Assembly): Float64Array[] {
+  const n = modelNodeCount(model);
+  const c = [0, 0, 0];
+  for (let i = 0; i < n; i++) for (let d = 0; d < 3; d++) c[d] += model.xyz[3 * i + d] / n;
+  const modes: Float64Array[] = [];
+  for (let k = 0; k < 6; k++) {
+    const v = new Float64Array(a.k.n);
+    for (let i = 0; i < n; i++) {
+      const r = [model.xyz[3 * i] - c[0], model.xyz[3 * i + 1] - c[1], model.xyz[3 * i + 2] - c[2]];
+      const vals = new Array<number>(6).fill(0);
+      if (k < 3) vals[k] = 1;
+      else {
+        const w = [0, 0, 0];
+        w[k - 3] = 1;
+        vals[0] = w[1] * r[2] - w[2] * r[1];
+        vals[1] = w[2] * r[0] - w[0] * r[2];
+        vals[2] = w[0] * r[1] - w[1] * r[0];
+        vals[k] = 1;
+      }
+      for (let d = 0; d < 6; d++) {
+        const e = a.eq[6 * i + d];
+        if (e >= 0) v[e] = vals[d];
+      }
+    }
+    modes.push(v);
+  }
+  return modes;
 }

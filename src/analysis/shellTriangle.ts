@@ -6,7 +6,8 @@ import type { PlaneStiffness } from './laminate.js';
  * element's own plane axes). It is the sum of two published elements that do not interact in a
  * symmetric laminate:
  *  - bending: the Discrete Kirchhoff Triangle (DKT; Batoz, Bathe & Ho, Int. J. Num. Meth. Eng. 15, 1980),
- *    DOFs w, rx = ∂w/∂y, ry = −∂w/∂x;
+ *    extended for transverse shear deformation in the manner of the discrete Kirchhoff–Mindlin
+ *    triangle (DKMT; Katili, Int. J. Num. Meth. Eng. 36, 1993), DOFs w, rx = ∂w/∂y, ry = −∂w/∂x;
  *  - membrane: Allman's triangle with drilling rotations (Allman, Computers & Structures 19, 1984), built
  *    as the six-node quadratic triangle whose mid-side displacements follow from the corner rotations rz,
  *    plus a small penalty on the one spurious drilling mode.
@@ -72,75 +73,139 @@ function addBtCB(k: Float64Array, b: Float64Array, c: PlaneStiffness, cols: numb
   }
 }
 
+/** Bending stiffness along direction (c, s): D_ss = n·D·n for the curvature of a cylinder bent about the normal. N·mm. */
+function bendingAlong(d: PlaneStiffness, c: number, s: number): number {
+  const v = [c * c, s * s, c * s];
+  const dv = [0, 1, 2].map((r) => d[3 * r] * v[0] + d[3 * r + 1] * v[1] + d[3 * r + 2] * 2 * v[2]);
+  return v[0] * dv[0] + v[1] * dv[1] + 2 * v[2] * dv[2];
+}
+
 /**
- * DKT rotations βx = −∂w/∂x, βy = −∂w/∂y at the six nodes of the quadratic triangle as linear
- * combinations of the nine DOFs [w, rx, ry] × 3. At corners βx = ry, βy = −rx; at mid-sides the
- * tangential rotation follows the cubic w along the side and the normal rotation varies linearly
- * (the discrete Kirchhoff constraints).
+ * Rotations βx = −∂w/∂x, βy = −∂w/∂y (Kirchhoff limit) at the six nodes of the quadratic triangle as
+ * linear combinations of the nine DOFs [w, rx, ry] × 3, and each side's constant transverse shear
+ * strain γ_s. At corners βx = ry, βy = −rx. Along a side the tangential rotation is quadratic and w
+ * cubic, tied by the Timoshenko beam relation with φ = 12 D_ss / (κGt l²): the mid-side excess over
+ * the mean is Δβ = −3/(2l(1+φ))·(w_j − w_i) − 3/(4(1+φ))·(β_si + β_sj) and γ_s = −(2/3)·φ·Δβ. The
+ * normal rotation varies linearly. With φ = 0 this is exactly the DKT of Batoz, Bathe & Ho (1980);
+ * with φ > 0 it is a discrete Kirchhoff–Mindlin triangle in the manner of Katili's DKMT (1993).
  */
-function dktRotationMaps(x: Tri, y: Tri): { bx: Float64Array; by: Float64Array } {
+function rotationMaps(x: Tri, y: Tri, d: PlaneStiffness, shearNPerMm: number): { bx: Float64Array; by: Float64Array; gs: Float64Array } {
   const bx = new Float64Array(6 * 9);
   const by = new Float64Array(6 * 9);
+  const gs = new Float64Array(3 * 9);
   for (let i = 0; i < 3; i++) {
     bx[i * 9 + 3 * i + 2] = 1;
     by[i * 9 + 3 * i + 1] = -1;
   }
-  SIDES.forEach(([i, j], s) => {
-    const row = (3 + s) * 9;
+  SIDES.forEach(([i, j], side) => {
+    const row = (3 + side) * 9;
     const ex = x[j] - x[i];
     const ey = y[j] - y[i];
     const l = Math.hypot(ex, ey);
     const c = ex / l;
     const sn = ey / l;
-    // βx_k = 3c/(2l)(w_i − w_j) + (s²/2 − c²/4)(βx_i + βx_j) − (3cs/4)(βy_i + βy_j)
-    // βy_k = 3s/(2l)(w_i − w_j) − (3cs/4)(βx_i + βx_j) + (c²/2 − s²/4)(βy_i + βy_j)
-    const kxx = (sn * sn) / 2 - (c * c) / 4;
-    const kxy = (-3 * c * sn) / 4;
-    const kyy = (c * c) / 2 - (sn * sn) / 4;
+    const phi = shearNPerMm > 0 && Number.isFinite(shearNPerMm) ? (12 * bendingAlong(d, c, sn)) / (shearNPerMm * l * l) : 0;
+    const a = 0.5 - 3 / (4 * (1 + phi));
+    const bw = 3 / (2 * l * (1 + phi));
+    // βx_k = bw·c·(w_i − w_j) + (a c² + s²/2)(βx_i + βx_j) + (a − 1/2) c s (βy_i + βy_j)
+    // βy_k = bw·s·(w_i − w_j) + (a − 1/2) c s (βx_i + βx_j) + (a s² + c²/2)(βy_i + βy_j)
+    const kxx = a * c * c + (sn * sn) / 2;
+    const kxy = (a - 0.5) * c * sn;
+    const kyy = a * sn * sn + (c * c) / 2;
+    // Δβ = (a − 1/2)(β_si + β_sj) + bw (w_i − w_j); γ_s = −(2/3) φ Δβ
+    const g = (-2 / 3) * phi;
     for (const [node, sign] of [
       [i, 1],
       [j, -1],
     ] as const) {
-      bx[row + 3 * node] += (sign * 3 * c) / (2 * l);
-      by[row + 3 * node] += (sign * 3 * sn) / (2 * l);
+      bx[row + 3 * node] += sign * bw * c;
+      by[row + 3 * node] += sign * bw * sn;
       // βx_node = ry, βy_node = −rx
       bx[row + 3 * node + 2] += kxx;
       bx[row + 3 * node + 1] += -kxy;
       by[row + 3 * node + 2] += kxy;
       by[row + 3 * node + 1] += -kyy;
+      gs[side * 9 + 3 * node] += g * sign * bw;
+      gs[side * 9 + 3 * node + 2] += g * (a - 0.5) * c;
+      gs[side * 9 + 3 * node + 1] += -g * (a - 0.5) * sn;
     }
   });
-  return { bx, by };
+  return { bx, by, gs };
 }
 
 /**
- * Curvature–displacement matrix of the DKT (3×9, row-major) at area coordinates L:
- * κ = [∂βx/∂x, ∂βy/∂y, ∂βx/∂y + ∂βy/∂x] = [−w,xx, −w,yy, −2w,xy].
+ * Curvature–displacement matrix (3×9, row-major) at area coordinates L:
+ * κ = [∂βx/∂x, ∂βy/∂y, ∂βx/∂y + ∂βy/∂x] (= [−w,xx, −w,yy, −2w,xy] in the Kirchhoff limit).
+ * @param shearNPerMm κGt; Infinity or 0 for the Kirchhoff (DKT) element
  */
-export function dktCurvatureMatrix(x: Tri, y: Tri, L: readonly [number, number, number]): Float64Array {
-  const { bx, by } = dktRotationMaps(x, y);
+export function plateCurvatureMatrix(x: Tri, y: Tri, L: readonly [number, number, number], d: PlaneStiffness, shearNPerMm = 0): Float64Array {
+  const { bx, by } = rotationMaps(x, y, d, shearNPerMm);
   const { dx, dy } = quadraticGradients(x, y, L);
   const b = new Float64Array(27);
   for (let n = 0; n < 6; n++) {
-    for (let d = 0; d < 9; d++) {
-      b[d] += dx[n] * bx[n * 9 + d];
-      b[9 + d] += dy[n] * by[n * 9 + d];
-      b[18 + d] += dy[n] * bx[n * 9 + d] + dx[n] * by[n * 9 + d];
+    for (let k = 0; k < 9; k++) {
+      b[k] += dx[n] * bx[n * 9 + k];
+      b[9 + k] += dy[n] * by[n * 9 + k];
+      b[18 + k] += dy[n] * bx[n * 9 + k] + dx[n] * by[n * 9 + k];
     }
   }
   return b;
 }
 
 /**
- * DKT bending stiffness (9×9, DOFs [w, rx, ry] per corner) for bending stiffness D (N·mm).
- * Coordinates in mm, corners counter-clockwise. Throws RangeError on a degenerate triangle.
+ * Bending stiffness (9×9, DOFs [w, rx, ry] per corner) for bending stiffness D (N·mm) and
+ * transverse shear stiffness κGt (N/mm; 0 gives the Kirchhoff DKT). The transverse shear strain
+ * field is linear, γ = (a1 + c(y − yc), a2 − c(x − xc)), fixed by the three sides' tangential shear
+ * strains (the assumed field of MITC3-type elements). Coordinates in mm, corners counter-clockwise.
+ * Throws RangeError on a degenerate triangle.
  */
-export function dktStiffness(x: Tri, y: Tri, d: PlaneStiffness): Float64Array {
+export function plateBendingStiffness(x: Tri, y: Tri, d: PlaneStiffness, shearNPerMm = 0): Float64Array {
   const area = twiceArea(x, y) / 2;
   if (!(area > 0)) throw new RangeError(`degenerate or clockwise triangle (area ${area} mm²)`);
   const k = new Float64Array(81);
-  for (const L of MIDSIDE_POINTS) addBtCB(k, dktCurvatureMatrix(x, y, L), d, 9, area / 3);
+  for (const L of MIDSIDE_POINTS) addBtCB(k, plateCurvatureMatrix(x, y, L, d, shearNPerMm), d, 9, area / 3);
+  if (shearNPerMm > 0 && Number.isFinite(shearNPerMm)) {
+    const { gs } = rotationMaps(x, y, d, shearNPerMm);
+    const xc = (x[0] + x[1] + x[2]) / 3;
+    const yc = (y[0] + y[1] + y[2]) / 3;
+    // Rows: tangential component at each side's mid-point of the field's parameters (a1, a2, c).
+    const a = new Float64Array(9);
+    SIDES.forEach(([i, j], side) => {
+      const l = Math.hypot(x[j] - x[i], y[j] - y[i]);
+      const c = (x[j] - x[i]) / l;
+      const s = (y[j] - y[i]) / l;
+      const xm = (x[i] + x[j]) / 2 - xc;
+      const ym = (y[i] + y[j]) / 2 - yc;
+      a.set([c, s, c * ym - s * xm], 3 * side);
+    });
+    const ai = invert3(a);
+    // parameters (3×9) = A⁻¹ · gs
+    const par = new Float64Array(27);
+    for (let r = 0; r < 3; r++) for (let k2 = 0; k2 < 9; k2++) par[r * 9 + k2] = ai[3 * r] * gs[k2] + ai[3 * r + 1] * gs[9 + k2] + ai[3 * r + 2] * gs[18 + k2];
+    for (const L of MIDSIDE_POINTS) {
+      const px = L[0] * x[0] + L[1] * x[1] + L[2] * x[2] - xc;
+      const py = L[0] * y[0] + L[1] * y[1] + L[2] * y[2] - yc;
+      const gx = new Float64Array(9);
+      const gy = new Float64Array(9);
+      for (let k2 = 0; k2 < 9; k2++) {
+        gx[k2] = par[k2] + py * par[18 + k2];
+        gy[k2] = par[9 + k2] - px * par[18 + k2];
+      }
+      const w = (area / 3) * shearNPerMm;
+      for (let i = 0; i < 9; i++) for (let j = 0; j < 9; j++) k[i * 9 + j] += w * (gx[i] * gx[j] + gy[i] * gy[j]);
+    }
+  }
   return k;
+}
+
+function invert3(m: Float64Array): Float64Array {
+  const [a, b, c, d, e, f, g, h, i] = m;
+  const A = e * i - f * h;
+  const B = -(d * i - f * g);
+  const C = d * h - e * g;
+  const det = a * A + b * B + c * C;
+  if (!(Math.abs(det) > 0)) throw new RangeError('degenerate triangle (shear field not defined)');
+  return Float64Array.of(A / det, -(b * i - c * h) / det, (b * f - c * e) / det, B / det, (a * i - c * g) / det, -(a * f - c * d) / det, C / det, -(a * h - b * g) / det, (a * e - b * d) / det);
 }
 
 /**
@@ -207,13 +272,14 @@ export function allmanStiffness(x: Tri, y: Tri, a: PlaneStiffness): Float64Array
 }
 
 /**
- * The 18×18 flat-shell stiffness in element axes: DKT bending plus Allman membrane, DOFs
- * [u, v, w, rx, ry, rz] per corner. x, y are the corners in the element plane (mm).
+ * The 18×18 flat-shell stiffness in element axes: discrete Kirchhoff(–Mindlin) bending plus Allman membrane, DOFs
+ * [u, v, w, rx, ry, rz] per corner. x, y are the corners in the element plane (mm). `parts` may skip
+ * the bending or membrane block when only the other is wanted (a flat plate solved block by block).
  */
-export function shellStiffness(x: Tri, y: Tri, a: PlaneStiffness, d: PlaneStiffness): Float64Array {
+export function shellStiffness(x: Tri, y: Tri, a: PlaneStiffness, d: PlaneStiffness, shearNPerMm = 0, parts: Readonly<{ bending: boolean; membrane: boolean }> = { bending: true, membrane: true }): Float64Array {
   const k = new Float64Array(18 * 18);
-  scatter(k, dktStiffness(x, y, d), BENDING_DOFS);
-  scatter(k, allmanStiffness(x, y, a), MEMBRANE_DOFS);
+  if (parts.bending) scatter(k, plateBendingStiffness(x, y, d, shearNPerMm), BENDING_DOFS);
+  if (parts.membrane) scatter(k, allmanStiffness(x, y, a), MEMBRANE_DOFS);
   return k;
 }
 

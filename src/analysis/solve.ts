@@ -1,5 +1,5 @@
 import { lowestEigenpairs } from './eigen.js';
-import { assemble, expand } from './model.js';
+import { assemble, expand, rigidBodyModes } from './model.js';
 import type { PlateModel } from './plateModel.js';
 import { BENDING_DOFS, MEMBRANE_DOFS } from './shellTriangle.js';
 
@@ -15,7 +15,7 @@ export type PlateSolution = Readonly<{
   modes: RawMode[];
   /** Unconstrained DOFs of the bending and membrane systems together. */
   dof: number;
-  /** Modes below 1 Hz dropped as rigid-body motion. */
+  /** Rigid-body modes of an unsupported plate (deflated from the solve), plus any mode below 1 Hz. */
   rigidModes: number;
 }>;
 
@@ -33,24 +33,41 @@ export function solvePlateModes(pm: PlateModel, count: number): PlateSolution {
   const modes: RawMode[] = [];
   let dof = 0;
   let rigid = 0;
-  for (const [dofs, plane] of [
-    [BENDING_DOFS, 'out-of-plane'],
-    [MEMBRANE_DOFS, 'in-plane'],
-  ] as const) {
+  const solveBlock = (dofs: readonly number[], plane: RawMode['plane'], want: number): RawMode[] => {
     const a = assemble(pm.model, dofs);
-    dof += a.k.n;
-    if (a.k.n === 0) continue;
-    const r = lowestEigenpairs(a.k, a.m, count + 3);
+    if (a.k.n === 0) return [];
+    const free = !pm.model.fixed.some((f) => f === 1);
+    const deflate = free ? rigidBodyModes(pm.model, a) : [];
+    const r = lowestEigenpairs(a.k, a.m, want, { deflate });
+    dof = Math.max(dof, 0);
+    blockDofs.set(plane, a.k.n);
+    rigidBy.set(plane, r.deflated);
+    const out: RawMode[] = [];
     r.values.forEach((lambda, i) => {
       const f = Math.sqrt(Math.max(lambda, 0)) / (2 * Math.PI);
       if (f < RIGID_HZ) {
-        rigid++;
+        rigidBy.set(plane, (rigidBy.get(plane) ?? 0) + 1);
         return;
       }
-      const shape = expand(a, r.vectors[i]);
-      modes.push({ frequencyHz: f, plane, shape: normalise(shape) });
+      out.push({ frequencyHz: f, plane, shape: normalise(expand(a, r.vectors[i])) });
     });
+    return out;
+  };
+  const blockDofs = new Map<string, number>();
+  const rigidBy = new Map<string, number>();
+  modes.push(...solveBlock(BENDING_DOFS, 'out-of-plane', count));
+  // In-plane modes of a plate usually lie far above its bending modes: ask for a few, and for more
+  // only while they still reach below the highest bending mode found.
+  const top = modes.length === count ? modes[modes.length - 1].frequencyHz : Infinity;
+  for (let want = Math.min(count, 3); ; want = Math.min(count, want * 2)) {
+    const mem = solveBlock(MEMBRANE_DOFS, 'in-plane', want);
+    if (want >= count || mem.length < want || mem[mem.length - 1].frequencyHz > top) {
+      modes.push(...mem);
+      break;
+    }
   }
+  dof = [...blockDofs.values()].reduce((s2, x) => s2 + x, 0);
+  rigid = [...rigidBy.values()].reduce((s2, x) => s2 + x, 0);
   modes.sort((a, b) => a.frequencyHz - b.frequencyHz);
   return { modes: modes.slice(0, count), dof, rigidModes: rigid };
 }
