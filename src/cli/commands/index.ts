@@ -1,6 +1,7 @@
 import type { Command } from 'commander';
 import { registerBuild } from './build.js';
 import { registerCheck } from './check.js';
+import { registerModes } from './modes.js';
 import { registerQuote } from './quote.js';
 import { registerSchema } from './schema.js';
 import { registerVariant } from './variant.js';
@@ -9,6 +10,7 @@ import { registerVariant } from './variant.js';
 export function registerCommands(program: Command): void {
   registerBuild(program);
   registerCheck(program);
+  registerModes(program);
   registerQuote(program);
   registerSchema(program);
   registerVariant(program);

@@ -1,0 +1,270 @@
+import type { Command } from 'commander';
+import { existsSync, readFileSync } from 'node:fs';
+import { basename, join } from 'node:path';
+import {
+  armModes,
+  armTipDeflection,
+  DEFAULT_THRUST_N,
+  estimateMotorMassG,
+  frameModes,
+  partModes,
+  type ArmResult,
+  type BodyResult,
+  type FrameModes,
+  type ModalResult,
+} from '../../analysis/index.js';
+import { fmt } from '../../export/format.js';
+import { modeShapeSvg } from '../../export/svgModes.js';
+import { buildFrame, type Part } from '../../geometry/index.js';
+import { DxfReadError, importDxf, parseSidecarText, resolveImportSettings } from '../../import/index.js';
+import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
+import { textTable } from '../table.js';
+
+type ModesCliOptions = {
+  part?: string;
+  modes?: string;
+  json?: boolean;
+  plot?: string;
+  meshSize?: string;
+  motorMass?: string;
+  stackMass?: string;
+  batteryMass?: string;
+  cameraMass?: string;
+  thrust?: string;
+  thickness?: string;
+  material?: string;
+  units?: string;
+  layers?: string;
+};
+
+const CAUTIONS = [
+  'Natural frequencies and deflections are estimates from a plate finite-element model of each part (no fasteners, standoffs or electronics stiffness), not a certification.',
+  'Test a new frame with props off first. Cutting carbon plate makes respirable, electrically conductive dust: cut wet or with on-tool extraction (H-class/HEPA), wear a P3/P100 respirator and eye protection; follow local regulations and the shop practice.',
+];
+
+const METHOD =
+  'Flat shell triangles on a constrained Delaunay mesh of the exact outline and holes: discrete Kirchhoff–Mindlin bending (DKT with transverse shear, κ = 5/6, G13 = G12) and Allman membrane, orthotropic laminate stiffness from the material constants rotated by the weave angle (classical laminate theory), lumped mass, shift-invert block Lanczos on an RCM-ordered envelope Cholesky factor.';
+
+/** A whole number or decimal flag within a range; bad values are usage errors naming the flag. */
+function numberFlag(name: string, text: string | undefined, min: number, max: number, integer = false): number | undefined {
+  if (text === undefined) return undefined;
+  const v = Number(text);
+  if (!Number.isFinite(v) || (integer && !Number.isInteger(v)) || v < min || v > max) {
+    throw new UsageError(`${name} ${JSON.stringify(text)}: must be ${integer ? 'a whole number' : 'a number'} from ${min} to ${max}`);
+  }
+  return v;
+}
+
+type Loaded = Readonly<{ label: string; result: FrameModes }>;
+
+/** Analyse one input: a design file (every part, arms, unibody body) or a DXF drawing (each part, free–free). */
+function analyse(path: string, opts: ModesCliOptions): Loaded {
+  const common = {
+    modes: numberFlag('--modes', opts.modes, 1, 50, true) ?? 6,
+    meshSizeMm: numberFlag('--mesh-size', opts.meshSize, 0.3, 20),
+    motorMassG: numberFlag('--motor-mass', opts.motorMass, 0, 2000),
+    stackMassG: numberFlag('--stack-mass', opts.stackMass, 0, 2000),
+    batteryMassG: numberFlag('--battery-mass', opts.batteryMass, 0, 5000),
+    cameraMassG: numberFlag('--camera-mass', opts.cameraMass, 0, 2000),
+    thrustN: numberFlag('--thrust', opts.thrust, 0.1, 500),
+  };
+  const options = Object.fromEntries(Object.entries(common).filter((e): e is [string, number] => e[1] !== undefined));
+  try {
+    if (/\.dxf$/i.test(path)) return { label: basename(path), result: dxfModes(path, opts, options) };
+    const design = readDesign(path);
+    let frame = buildFrame(design);
+    if (opts.part) {
+      const keep = frame.parts.filter((p) => p.name === opts.part);
+      if (!keep.length) throw new UsageError(`--part ${JSON.stringify(opts.part)}: no such part in ${path} (parts: ${frame.parts.map((p) => p.name).join(', ')})`);
+      // A unibody's body model is the bottom plate; keep it only when that is the part asked for.
+      frame = { ...frame, parts: keep, design: keep.some((p) => p.role === 'bottom') ? frame.design : { ...frame.design, arms: { ...frame.design.arms, construction: 'separate' } } };
+    }
+    return { label: frame.name, result: frameModes(frame, options) };
+  } catch (e) {
+    if (e instanceof RangeError) throw new UsageError(`${path}: ${e.message}`);
+    throw e;
+  }
+}
+
+function dxfModes(path: string, opts: ModesCliOptions, options: Record<string, number>): FrameModes {
+  let text: string;
+  try {
+    const bytes = readFileSync(path);
+    try {
+      text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+    } catch {
+      text = bytes.toString('latin1');
+    }
+  } catch (e) {
+    throw new UsageError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
+  }
+  let parts: Part[];
+  try {
+    const side = `${path}.yaml`;
+    const sidecar = existsSync(side) ? parseSidecarText(readFileSync(side, 'utf8'), side) : {};
+    const settings = resolveImportSettings(opts, sidecar);
+    if (settings.thicknessMm === undefined) throw new UsageError(`${path}: give the plate thickness with --thickness MM (or thicknessMm in ${basename(side)}); modes depend on it`);
+    parts = importDxf(text, { name: basename(path).replace(/\.dxf$/i, ''), ...settings }).parts;
+  } catch (e) {
+    if (e instanceof DxfReadError) throw new UsageError(`${path}: ${e.message}`);
+    throw e;
+  }
+  if (opts.part) parts = parts.filter((p) => p.name === opts.part);
+  if (!parts.length) throw new UsageError(`${path}: no closed part${opts.part ? ` named ${JSON.stringify(opts.part)}` : ''} to analyse`);
+  const results = parts.map((p) => partModes(p, options));
+  // A drawing that marks motor and root bolts (it does not, unless a sidecar says so) would also get arm results.
+  const arms: ArmResult[] = parts
+    .filter((p) => p.features.some((f) => f.purpose === 'arm-root-bolt') && p.features.some((f) => f.purpose === 'motor-bolt'))
+    .map((p) => ({ modal: armModes(p, options), statics: armTipDeflection(p, options.thrustN ?? DEFAULT_THRUST_N, options.meshSizeMm) }));
+  return { frame: basename(path), motorMassG: options.motorMassG ?? 0, thrustN: options.thrustN ?? DEFAULT_THRUST_N, parts: results, arms, body: null };
+}
+
+const BOUNDARY_WORDS: Record<ModalResult['boundary'], string> = {
+  free: 'free, as cut',
+  'arm-root-clamped': 'held at its root bolts, carrying its motor',
+  'body-with-motors': 'free, carrying its motors (one-piece frame)',
+};
+
+/** Plain data for JSON: everything but the mesh and the shape vectors. */
+function modalJson(r: ModalResult) {
+  const { mesh: _mesh, modes, ...rest } = r;
+  return {
+    ...rest,
+    modes: modes.map(({ shape: _s, ...m }) => m),
+  };
+}
+
+function frameJson(input: string, r: FrameModes) {
+  return {
+    input,
+    frame: r.frame,
+    motorMassG: r.motorMassG,
+    thrustN: r.thrustN,
+    parts: r.parts.map(modalJson),
+    arms: r.arms.map((a) => ({ ...modalJson(a.modal), statics: a.statics })),
+    body: r.body ? { ...modalJson(r.body.modal), twist: r.body.twist, tipDeflections: r.body.tipDeflections } : null,
+  };
+}
+
+function modalText(r: ModalResult): string {
+  const head = `${r.part} — ${BOUNDARY_WORDS[r.boundary]} (${fmt(r.thicknessMm, 2)} mm, weave ${fmt(r.weaveDeg, 1)}°, mesh ${fmt(r.meshSizeMm, 2)} mm, ${r.dof} DOF${r.addedMasses.length ? `, added ${fmt(r.addedMasses.reduce((s, m) => s + m.massG, 0), 1)} g` : ''})`;
+  const stack = r.stackAtMm !== null;
+  const rows = r.modes.map((m) => [String(m.index), fmt(m.frequencyHz, 0), m.description, ...(stack ? [fmt(m.stack!.displacementRatio, 3), fmt(m.stack!.tiltDegPerMm, 3)] : [])]);
+  const header = ['#', 'Hz', 'shape', ...(stack ? ['stack move', 'stack tilt °/mm'] : [])];
+  return `${head}\n${textTable(header, rows)
+    .split('\n')
+    .map((l) => `  ${l}`)
+    .join('\n')}\n`;
+}
+
+function frameText(r: FrameModes): string {
+  const out = [`framewright modes: ${r.frame} (motor ${fmt(r.motorMassG, 1)} g each, thrust ${fmt(r.thrustN, 1)} N per motor)`, ''];
+  if (r.body) {
+    out.push(modalText(r.body.modal));
+    out.push(`  body twist under opposite thrusts (${r.body.twist.pattern}): ${fmt(r.body.twist.twistDeg, 3)}°`);
+    out.push(`  arm tip deflection, plate held at its standoffs: ${r.body.tipDeflections.map((t) => `${t.site} ${fmt(t.tipDeflectionMm, 3)} mm`).join(', ')}`, '');
+  }
+  for (const a of r.arms) {
+    out.push(modalText(a.modal));
+    out.push(`  tip deflection under ${fmt(a.statics.thrustN, 1)} N: ${fmt(a.statics.tipDeflectionMm, 3)} mm (${fmt(a.statics.stiffnessNPerMm, 1)} N/mm)`, '');
+  }
+  for (const p of r.parts) out.push(modalText(p));
+  out.push('"stack move": translation at the flight-controller stack as a fraction of the mode\'s largest motion; "stack tilt": its tilt per mm of that motion (what a gyro feels).');
+  out.push(...CAUTIONS, '');
+  return out.join('\n');
+}
+
+/** One row per design of the figures that decide between layouts. */
+function comparisonText(items: readonly Loaded[]): string {
+  const cell = (x: number | undefined, d: number) => (x === undefined ? '—' : fmt(x, d));
+  const firstArm = (r: FrameModes) => (r.arms.length ? Math.min(...r.arms.map((a) => a.modal.modes[0]?.frequencyHz ?? Infinity)) : undefined);
+  const worstTip = (r: FrameModes) => (r.arms.length ? Math.max(...r.arms.map((a) => a.statics.tipDeflectionMm)) : r.body ? Math.max(...r.body.tipDeflections.map((t) => t.tipDeflectionMm)) : undefined);
+  const alternate = (b: BodyResult | null) => b?.modal.modes.find((m) => /alternately/.test(m.description));
+  const bottomFree = (r: FrameModes) => r.parts.find((p) => p.role === 'bottom')?.modes[0]?.frequencyHz;
+  const header = ['design', 'bottom plate 1st Hz', 'arm+motor 1st Hz', 'body+motors 1st Hz', 'alternating mode Hz', 'stack tilt °/mm', 'tip defl. mm', 'body twist °'];
+  const rows = items.map(({ label, result: r }) => {
+    const alt = alternate(r.body);
+    return [label, cell(bottomFree(r), 0), cell(firstArm(r), 0), cell(r.body?.modal.modes[0]?.frequencyHz, 0), cell(alt?.frequencyHz, 0), cell(alt?.stack?.tiltDegPerMm, 3), cell(worstTip(r), 3), cell(r.body?.twist.twistDeg, 3)];
+  });
+  return `framewright modes: comparison (thrust ${fmt(items[0].result.thrustN, 1)} N per motor)\n${textTable(header, rows)}\n\n`;
+}
+
+const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '');
+
+function plotFiles(dir: string, prefix: string, r: FrameModes, parts: ReadonlyMap<string, Part>): OutputFile[] {
+  const all: ModalResult[] = [...r.parts, ...r.arms.map((a) => a.modal), ...(r.body ? [r.body.modal] : [])];
+  return all.flatMap((m) => {
+    const part = parts.get(m.part);
+    const loops = part ? [part.outline, ...part.features.map((f) => f.loop)] : [];
+    return m.modes.map((mode) => {
+      const n = m.mesh.xy.length / 2;
+      const inPlane = mode.plane === 'in-plane';
+      const w = Float64Array.from({ length: n }, (_, i) => (inPlane ? Math.hypot(mode.shape[6 * i], mode.shape[6 * i + 1]) : mode.shape[6 * i + 2]));
+      return {
+        path: join(dir, `${prefix}${slug(m.part)}-${m.boundary}-mode${mode.index}.svg`),
+        data: modeShapeSvg({
+          title: `${r.frame} · ${m.part} (${BOUNDARY_WORDS[m.boundary]}) · mode ${mode.index}`,
+          frequencyHz: mode.frequencyHz,
+          description: mode.description,
+          xy: m.mesh.xy,
+          triangles: m.mesh.triangles,
+          w,
+          loops,
+          ...(m.stackAtMm ? { markerMm: m.stackAtMm } : {}),
+          ...(inPlane ? { legend: ['', '', 'in-plane motion (relative)'] as const } : {}),
+        }),
+      };
+    });
+  });
+}
+
+export function registerModes(program: Command): void {
+  program
+    .command('modes')
+    .description('natural frequencies and mode shapes of every plate, each arm with its motor and a one-piece frame with its motors; arm-tip deflection and body twist; compare several designs side by side')
+    .argument('<inputs...>', 'design files (YAML or JSON), or DXF drawings (.dxf, with --thickness); two or more print a comparison table')
+    .option('--part <name>', 'only this part')
+    .option('--modes <n>', 'modes per model, 1 to 50 (default 6)')
+    .option('--json', 'print the results as JSON')
+    .option('--plot <dir>', 'write one SVG colour map per mode into this directory')
+    .option('--mesh-size <mm>', 'element size in mm, 0.3 to 20 (default: a thirtieth of √area, 0.8 to 4 mm)')
+    .option('--motor-mass <g>', 'mass of one motor in g (default: estimated from motor.bellDiameterMm; 0 for DXF)')
+    .option('--stack-mass <g>', 'flight-controller stack on the stack holes, g (one-piece frames; default 0)')
+    .option('--battery-mass <g>', 'battery, spread over the standoff holes, g (one-piece frames; default 0)')
+    .option('--camera-mass <g>', 'camera, at the front standoffs, g (one-piece frames; default 0)')
+    .option('--thrust <N>', `thrust of one motor for the static figures, N (default ${DEFAULT_THRUST_N})`)
+    .option('--thickness <mm>', 'DXF only: plate thickness in mm (or thicknessMm in the sidecar FILE.dxf.yaml)')
+    .option('--material <name>', 'DXF only: material name (woven-cf, or one defined in the sidecar)')
+    .option('--units <unit>', 'DXF only: drawing units mm, cm, m, in, ft (overrides $INSUNITS)')
+    .option('--layers <a,b>', 'DXF only: the layers that hold cut geometry')
+    .action((inputs: string[], opts: ModesCliOptions) => {
+      const items = inputs.map((path) => ({ path, ...analyse(path, opts) }));
+      if (opts.plot) {
+        const files = items.flatMap((it) => {
+          const parts = new Map<string, Part>();
+          if (!/\.dxf$/i.test(it.path)) for (const p of buildFrame(readDesign(it.path)).parts) parts.set(p.name, p);
+          return plotFiles(opts.plot!, items.length > 1 ? `${slug(it.label)}-` : '', it.result, parts);
+        });
+        try {
+          writeAllAtomically(files);
+        } catch (e) {
+          throw new UsageError(`cannot write the mode plots to ${opts.plot}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}; nothing was written`);
+        }
+      }
+      if (opts.json) {
+        const body = {
+          units: { length: 'mm', frequency: 'Hz', mass: 'g', force: 'N', angle: 'deg' },
+          method: METHOD,
+          cautions: CAUTIONS,
+          designs: items.map((it) => frameJson(it.path, it.result)),
+        };
+        process.stdout.write(`${JSON.stringify(body, null, 2)}\n`);
+      } else {
+        const text = (items.length > 1 ? comparisonText(items) : '') + items.map((it) => frameText(it.result)).join('\n');
+        process.stdout.write(text);
+      }
+    });
+}
+
+/** For tests and other commands: the default motor-mass estimate the command uses. */
+export const motorMassEstimateG = estimateMotorMassG;
