@@ -5,6 +5,8 @@ import { loopPathData } from './svgPath.js';
 /** What a mode-shape picture shows: computed data only (the analysis made the mesh and the shape). */
 export type ModePlot = Readonly<{
   title: string;
+  /** A second line under the title (e.g. the supports). */
+  subtitle?: string;
   frequencyHz: number;
   description: string;
   /** x, y per mesh node, mm (part coordinates, y up). */
@@ -13,6 +15,8 @@ export type ModePlot = Readonly<{
   triangles: Uint32Array;
   /** Value coloured per node: out-of-plane displacement (signed), or for an in-plane mode the in-plane displacement size. */
   w: Float64Array;
+  /** What the colour bar measures. */
+  legendCaption?: string;
   /** Legend words for the low, middle and high end. Default down / still / up. */
   legend?: readonly [string, string, string];
   /** The exact part outline and holes, drawn over the colours. */
@@ -38,7 +42,7 @@ export function divergingColour(t: number): string {
  */
 export function modeShapeSvg(plot: ModePlot): string {
   const { xy, triangles, w } = plot;
-  const words = plot.legend ?? ['down', 'still', 'up (out of plane, relative)'];
+  const words = plot.legend ?? ['down', 'still', 'up'];
   let [x0, y0, x1, y1] = [Infinity, Infinity, -Infinity, -Infinity];
   for (let i = 0; i < xy.length; i += 2) {
     x0 = Math.min(x0, xy[i]);
@@ -49,9 +53,9 @@ export function modeShapeSvg(plot: ModePlot): string {
   const m = 5;
   const text = 4;
   const legend = 8;
-  const width = Math.max(x1 - x0 + 2 * m, 90);
-  const height = y1 - y0 + 2 * m + 3 * text + legend + 6;
-  const top = 2 * text + 2;
+  const width = Math.max(x1 - x0 + 2 * m, 100);
+  const height = y1 - y0 + 2 * m + 4 * text + legend + 6;
+  const top = 3 * text + 2;
   const map = (p: Vec2): Vec2 => [p[0] - x0 + m, top + (y1 - p[1]) + m];
   let big = 0;
   for (const v of w) big = Math.max(big, Math.abs(v));
@@ -61,7 +65,9 @@ export function modeShapeSvg(plot: ModePlot): string {
     const ids = [triangles[t], triangles[t + 1], triangles[t + 2]];
     const mean = (w[ids[0]] + w[ids[1]] + w[ids[2]]) / 3;
     const pts = ids.map((i) => map([xy[2 * i], xy[2 * i + 1]])).map((p) => `${fmt(p[0], 3)},${fmt(p[1], 3)}`);
-    tris.push(`<polygon points="${pts.join(' ')}" fill="${divergingColour(mean * scale)}"/>`);
+    const colour = divergingColour(mean * scale);
+    // A hairline stroke of the same colour hides the anti-aliasing seams between triangles.
+    tris.push(`<polygon points="${pts.join(' ')}" fill="${colour}" stroke="${colour}"/>`);
   }
   const barY = height - legend - text - 2;
   const barX = m;
@@ -75,9 +81,10 @@ export function modeShapeSvg(plot: ModePlot): string {
     '<?xml version="1.0" encoding="UTF-8"?>',
     `<svg xmlns="http://www.w3.org/2000/svg" width="${fmt(width, 3)}mm" height="${fmt(height, 3)}mm" viewBox="0 0 ${fmt(width, 3)} ${fmt(height, 3)}" font-family="sans-serif">`,
     `<title>${xmlEscape(`${plot.title}: ${fmt(plot.frequencyHz, 1)} Hz`)}</title>`,
-    `<text x="${m}" y="${text}" font-size="3.5">${xmlEscape(`${plot.title} — ${fmt(plot.frequencyHz, 1)} Hz`)}</text>`,
+    `<text x="${m}" y="${text}" font-size="3.5">${xmlEscape(`${fmt(plot.frequencyHz, 1)} Hz — ${plot.title}`)}</text>`,
     `<text x="${m}" y="${2 * text}" font-size="2.8">${xmlEscape(plot.description)}</text>`,
-    `<g id="shape" stroke="none">`,
+    ...(plot.subtitle ? [`<text x="${m}" y="${3 * text}" font-size="2.5">${xmlEscape(plot.subtitle)}</text>`] : []),
+    `<g id="shape" stroke-width="0.05">`,
     ...tris,
     '</g>',
     `<g id="outline" fill="none" stroke="#000000" stroke-width="0.25">`,
@@ -94,6 +101,7 @@ export function modeShapeSvg(plot: ModePlot): string {
     `<text x="${fmt(barX, 3)}" y="${fmt(barY + 6, 3)}" font-size="2.5">${xmlEscape(words[0])}</text>`,
     `<text x="${fmt(barX + barW / 2, 3)}" y="${fmt(barY + 6, 3)}" font-size="2.5" text-anchor="middle">${xmlEscape(words[1])}</text>`,
     `<text x="${fmt(barX + barW, 3)}" y="${fmt(barY + 6, 3)}" font-size="2.5" text-anchor="end">${xmlEscape(words[2])}</text>`,
+    `<text x="${fmt(barX, 3)}" y="${fmt(barY - 1.2, 3)}" font-size="2.5">${xmlEscape(plot.legendCaption ?? 'out-of-plane displacement, relative to the largest')}</text>`,
     '</g>',
     `<text x="${m}" y="${fmt(height - 1.5, 3)}" font-size="2.3">${xmlEscape(CAUTION)}</text>`,
     '</svg>',

@@ -176,7 +176,7 @@ function frameText(r: FrameModes): string {
 
 /** One row per design of the figures that decide between layouts. */
 function comparisonText(items: readonly Loaded[]): string {
-  const cell = (x: number | undefined, d: number) => (x === undefined ? '—' : fmt(x, d));
+  const cell = (x: number | undefined, d: number) => (x === undefined ? '' : fmt(x, d));
   const firstArm = (r: FrameModes) => (r.arms.length ? Math.min(...r.arms.map((a) => a.modal.modes[0]?.frequencyHz ?? Infinity)) : undefined);
   const worstTip = (r: FrameModes) => (r.arms.length ? Math.max(...r.arms.map((a) => a.statics.tipDeflectionMm)) : r.body ? Math.max(...r.body.tipDeflections.map((t) => t.tipDeflectionMm)) : undefined);
   const alternate = (b: BodyResult | null) => b?.modal.modes.find((m) => /alternately/.test(m.description));
@@ -186,7 +186,7 @@ function comparisonText(items: readonly Loaded[]): string {
     const alt = alternate(r.body);
     return [label, cell(bottomFree(r), 0), cell(firstArm(r), 0), cell(r.body?.modal.modes[0]?.frequencyHz, 0), cell(alt?.frequencyHz, 0), cell(alt?.stack?.tiltDegPerMm, 3), cell(worstTip(r), 3), cell(r.body?.twist.twistDeg, 3)];
   });
-  return `framewright modes: comparison (thrust ${fmt(items[0].result.thrustN, 1)} N per motor)\n${textTable(header, rows)}\n\n`;
+  return `framewright modes: comparison (thrust ${fmt(items[0].result.thrustN, 1)} N per motor; blank: not modelled for that design)\n${textTable(header, rows)}\n\n`;
 }
 
 const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '');
@@ -203,7 +203,8 @@ function plotFiles(dir: string, prefix: string, r: FrameModes, parts: ReadonlyMa
       return {
         path: join(dir, `${prefix}${slug(m.part)}-${m.boundary}-mode${mode.index}.svg`),
         data: modeShapeSvg({
-          title: `${r.frame} · ${m.part} (${BOUNDARY_WORDS[m.boundary]}) · mode ${mode.index}`,
+          title: `${r.frame} · ${m.part} · mode ${mode.index}`,
+          subtitle: `${BOUNDARY_WORDS[m.boundary]}; ${fmt(m.thicknessMm, 2)} mm plate${m.stackAtMm ? '; + marks the flight-controller stack' : ''}`,
           frequencyHz: mode.frequencyHz,
           description: mode.description,
           xy: m.mesh.xy,
@@ -211,7 +212,7 @@ function plotFiles(dir: string, prefix: string, r: FrameModes, parts: ReadonlyMa
           w,
           loops,
           ...(m.stackAtMm ? { markerMm: m.stackAtMm } : {}),
-          ...(inPlane ? { legend: ['', '', 'in-plane motion (relative)'] as const } : {}),
+          ...(inPlane ? { legend: ['', 'still', 'moving'] as const, legendCaption: 'in-plane displacement, relative to the largest' } : {}),
         }),
       };
     });

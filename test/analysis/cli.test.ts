@@ -1,0 +1,82 @@
+import { describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readdirSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { commandAvailable, requireTool } from '../helpers/reference.js';
+import { REPO } from './helpers.js';
+
+/** The built CLI (npm test builds dist/ first), run from the repository root. */
+function cli(args: string[]) {
+  const r = spawnSync(process.execPath, [join(REPO, 'dist', 'cli', 'main.js'), 'modes', ...args], { cwd: REPO, encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
+  return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
+}
+const STACK = /^\s+at .+:\d+:\d+\)?$/m;
+
+describe('framewright modes', () => {
+  it('--json states thickness, material, mesh size, DOF and the masses used, and is deterministic', () => {
+    const a = cli(['designs/mote-3.yaml', '--part', 'bottom-plate', '--modes', '3', '--json']);
+    expect(a.code).toBe(0);
+    const b = cli(['designs/mote-3.yaml', '--part', 'bottom-plate', '--modes', '3', '--json']);
+    expect(b.stdout).toBe(a.stdout);
+    const j = JSON.parse(a.stdout);
+    expect(j.units.frequency).toBe('Hz');
+    const d = j.designs[0];
+    expect(d.motorMassG).toBeCloseTo(8.5, 6); // estimate for an 18 mm bell (common practice, no source)
+    const free = d.parts[0];
+    expect(free.thicknessMm).toBe(3);
+    expect(free.material.e1Gpa).toBe(65);
+    expect(free.meshSizeMm).toBeGreaterThan(0);
+    expect(free.dof).toBeGreaterThan(1000);
+    expect(free.rigidModes).toBe(6);
+    expect(free.modes).toHaveLength(3);
+    expect(free.modes[0].shape).toBeUndefined();
+    // The unibody body model carries four motors and reports stack motion per mode.
+    expect(d.body.addedMasses).toHaveLength(4);
+    expect(d.body.modes[0].stack.displacementRatio).toBeGreaterThanOrEqual(0);
+    expect(d.body.twist.twistDeg).toBeGreaterThan(0);
+  }, 60_000);
+
+  it('compares several designs side by side: the asymmetric layout shows its cost', () => {
+    const r = cli(['test/analysis/fixtures/symmetric-unibody.yaml', 'test/analysis/fixtures/asymmetric-unibody.yaml', '--modes', '3', '--part', 'bottom-plate']);
+    expect(r.code).toBe(0);
+    const rows = r.stdout.split('\n').filter((l) => /^Mote 3 (a)?symmetric test/.test(l));
+    expect(rows).toHaveLength(2);
+    const col = (row: string) => row.replace(/^Mote 3 \w+ test\s+/, '').trim().split(/\s+/).map(Number);
+    const [sym, asym] = rows.map(col);
+    // columns: bottom plate 1st, body+motors 1st, alternating Hz, stack tilt, tip deflection, twist (arm column blank)
+    expect(asym[1]).toBeLessThan(sym[1]);
+    expect(asym[3]).toBeGreaterThan(sym[3]);
+  }, 60_000);
+
+  it('--plot writes one SVG per mode that an independent renderer accepts', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'fw-modes-'));
+    const r = cli(['designs/tessel-5.yaml', '--part', 'arm', '--modes', '2', '--plot', dir]);
+    expect(r.code).toBe(0);
+    const files = readdirSync(dir).sort();
+    expect(files).toEqual(['arm-arm-root-clamped-mode1.svg', 'arm-arm-root-clamped-mode2.svg', 'arm-free-mode1.svg', 'arm-free-mode2.svg']);
+    const svg = readFileSync(join(dir, files[0]), 'utf8');
+    expect(svg).toMatch(/ Hz — Tessel 5 · arm · mode 1/);
+    expect(svg).toMatch(/props off/);
+    if (!requireTool(commandAvailable('rsvg-convert'), 'librsvg2-bin')) return;
+    const png = spawnSync('rsvg-convert', [join(dir, files[0])], { encoding: 'buffer' });
+    expect(png.status).toBe(0);
+    expect(png.stdout.subarray(1, 4).toString()).toBe('PNG');
+  }, 60_000);
+
+  it('bad input: a clear message naming the flag, exit 2, no stack trace, nothing written', () => {
+    const dir = join(mkdtempSync(join(tmpdir(), 'fw-modes-')), 'plots');
+    for (const args of [
+      ['designs/tessel-5.yaml', '--modes', '0', '--plot', dir],
+      ['designs/tessel-5.yaml', '--mesh-size', 'fine'],
+      ['designs/tessel-5.yaml', '--part', 'wing'],
+      ['no-such-file.yaml'],
+    ]) {
+      const r = cli(args);
+      expect(r.code).toBe(2);
+      expect(r.stderr).toMatch(/--modes|--mesh-size|--part|cannot read/);
+      expect(r.stderr).not.toMatch(STACK);
+    }
+    expect(() => readdirSync(dir)).toThrow();
+  }, 60_000);
+});
