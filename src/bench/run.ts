@@ -1,13 +1,14 @@
 import { performance } from 'node:perf_hooks';
 import type { BenchCase } from './types.js';
 import { cases as geometryCases } from './geometry.js';
+import { cases as analysisCases } from './analysis.js';
 import { cases as importCases } from './import.js';
 import { cases as checksCases } from './checks.js';
 import { cases as variantCases } from './variant.js';
 import { cases as quoteCases } from './quote.js';
 
 /** Every area's benchmark cases; add one import per area. */
-const ALL: BenchCase[] = [...geometryCases, ...importCases, ...checksCases, ...variantCases, ...quoteCases];
+const ALL: BenchCase[] = [...geometryCases, ...importCases, ...checksCases, ...variantCases, ...quoteCases, ...analysisCases];
 
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);

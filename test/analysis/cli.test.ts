@@ -80,3 +80,26 @@ describe('framewright modes', () => {
     expect(() => readdirSync(dir)).toThrow();
   }, 60_000);
 });
+
+describe('framewright modes on a DXF drawing', () => {
+  it('a part written to DXF and read back gives the same free–free modes as the part itself (thickness from --thickness)', async () => {
+    const { partToDxf } = await import('../../src/export/dxf.js');
+    const { partModes } = await import('../../src/analysis/index.js');
+    const { writeFileSync } = await import('node:fs');
+    const { demoFrame } = await import('./helpers.js');
+    const top = demoFrame('tessel-5.yaml').parts.find((p) => p.name === 'top-plate')!;
+    const dir = mkdtempSync(join(tmpdir(), 'fw-modes-dxf-'));
+    const file = join(dir, 'top.dxf');
+    writeFileSync(file, partToDxf(top));
+    const r = cli([file, '--thickness', String(top.thicknessMm), '--modes', '3', '--json']);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const got = JSON.parse(r.stdout).designs[0].parts[0].modes.map((m: { frequencyHz: number }) => m.frequencyHz);
+    const want = partModes(top, { modes: 3 }).modes.map((m) => m.frequencyHz);
+    got.forEach((f: number, i: number) => expect(Math.abs(f / want[i] - 1)).toBeLessThan(0.01));
+    // Without a thickness the command refuses rather than guessing.
+    const bad = cli([file]);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toMatch(/--thickness/);
+  }, 60_000);
+});
