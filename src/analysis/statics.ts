@@ -15,6 +15,17 @@ function solveBending(pm: PlateModel, f: Float64Array): Float64Array {
   return expand(a, choleskySolve(l, restrict(a, f)));
 }
 
+/**
+ * Static out-of-plane response of a supported plate model to forces along z, each spread evenly
+ * over its nodes. Returns six values per node (w in mm at index 6i + 2).
+ * @throws NotPositiveDefiniteError when the supports leave the plate free to move
+ */
+export function solveStatic(pm: PlateModel, loads: ReadonlyArray<Readonly<{ nodes: readonly number[]; forceN: number }>>): Float64Array {
+  const f = new Float64Array(pm.model.fixed.length);
+  for (const l of loads) spreadForce(f, l.nodes, l.forceN);
+  return solveBending(pm, f);
+}
+
 function spreadForce(f: Float64Array, nodes: readonly number[], forceN: number): void {
   for (const n of nodes) f[6 * n + 2] += forceN / nodes.length;
 }
