@@ -1,4 +1,4 @@
-import type { Vec2 } from '../geometry/index.js';
+import { assertNever, type Vec2 } from '../geometry/index.js';
 import type { PlateMesh } from './mesh.js';
 import type { RawMode } from './solve.js';
 
@@ -121,12 +121,8 @@ function describeOne(mesh: PlateMesh, m: RawMode, ctx: ShapeContext): string {
       return scores[0][0];
     }
     default:
-      return assertNeverCtx(ctx);
+      return assertNever(ctx);
   }
-}
-
-function assertNeverCtx(x: never): never {
-  throw new Error(`unexpected shape context ${JSON.stringify(x)}`);
 }
 
 /** Out-of-plane shape of a free plate: correlate w with twist (xy) and bending (x², y²) about the centroid. */

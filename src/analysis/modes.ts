@@ -1,4 +1,4 @@
-import { partMassG, type Frame, type Material, type Part, type PartRole, type Vec2 } from '../geometry/index.js';
+import { type Frame, type Material, type Part, type PartRole, type Vec2 } from '../geometry/index.js';
 import { describeModes, motionAt, type PointMotion, type ShapeContext } from './describe.js';
 import type { PlateMesh } from './mesh.js';
 import { defaultMeshSizeMm, featureCentre, featureNodes, meshMassG, motorsOnPlate, plateModel, withFixed, withMasses, type AddedMass, type PlateModel } from './plateModel.js';
@@ -221,6 +221,3 @@ export function frameModes(frame: Frame, options: ModeOptions = {}): FrameModes 
   }
   return { frame: frame.name, motorMassG, thrustN, parts, arms, body };
 }
-
-/** Plate mass of a part from its exact area, g (for cross-checking the mesh). */
-export const exactPartMassG = partMassG;

@@ -5,7 +5,6 @@ import {
   armModes,
   armTipDeflection,
   DEFAULT_THRUST_N,
-  estimateMotorMassG,
   frameModes,
   partModes,
   type ArmResult,
@@ -266,6 +265,3 @@ export function registerModes(program: Command): void {
       }
     });
 }
-
-/** For tests and other commands: the default motor-mass estimate the command uses. */
-export const motorMassEstimateG = estimateMotorMassG;

@@ -12,7 +12,7 @@ stdin: JSON {
   "masses": [{"loops": [loop index, ...], "massG": g}]  spread evenly over the nodes on those loops
 }
 stdout: JSON {"frequenciesHz": [...], "nodes": n, "elements": m}
-Units in the deck: mm, N, tonne, s (so MPa and t/mm^3).
+Units in the deck: mm, N, tonne, s (so MPa and t/mm^3). Set FW_CCX_KEEP=DIR to keep the gmsh and ccx files.
 Through-thickness constants are not given by the woven sheet's data: E3 = 10 GPa, nu13 = nu23 = 0.3,
 G13 = G23 = G12 (typical for a woven carbon/epoxy laminate; from memory).
 """
