@@ -75,6 +75,9 @@ export function frameOverviewSvg(frame: Frame, options: OverviewOptions = {}): s
     const c = map(s.motorMm);
     out.push(`<circle cx="${fmt(c[0], 3)}" cy="${fmt(c[1], 3)}" r="1.2" fill="#d00000"/>`);
   }
+  if (frame.cameraPlanMm) {
+    out.push(`<path d="${loopPathData(frame.cameraPlanMm, map)}" fill="#1f6f5c" fill-opacity="0.9" stroke="#000000" stroke-width="0.25"><title>camera</title></path>`);
+  }
   if (options.overlay) {
     // Frame coordinates → screen: (x, y) ↦ (bb[3] + m − y, bb[2] + m − x).
     out.push(`<g transform="matrix(0 -1 -1 0 ${fmt(bb[3] + m, 4)} ${fmt(bb[2] + m, 4)})">`, options.overlay, '</g>');

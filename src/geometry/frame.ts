@@ -22,6 +22,8 @@ export type Frame = Readonly<{
   propDiameterMm: number;
   /** Top face of the arms, the reference for prop height. mm above the bottom plate's lower face. */
   armTopZMm: number;
+  /** The camera body seen from above (a square of the camera width about the pivot), for drawings. */
+  cameraPlanMm: Loop | null;
   design: Design;
 }>;
 
@@ -39,7 +41,7 @@ export function buildFrame(d: Design): Frame {
   if (d.braces && !unibody) parts.push(...braces(d, sites));
   if (d.camera) parts.push(cameraSide(d));
   const armTopZMm = d.body.thicknessMm + (unibody ? 0 : d.arms.thicknessMm);
-  return { name: d.name, revision: d.revision, parts, sites, propDiameterMm: d.props.diameterMm, armTopZMm, design: d };
+  return { name: d.name, revision: d.revision, parts, sites, propDiameterMm: d.props.diameterMm, armTopZMm, cameraPlanMm: cameraPlan(d), design: d };
 }
 
 /** Where to point the designer when an outline cannot be built, by what went wrong. */
@@ -246,6 +248,19 @@ function braces(d: Design, sites: readonly MotorSite[]): Part[] {
   return [makePart(f.part), makePart(rr.part)];
 }
 
+/** Pivot of the camera in the frame's x–z plane: ahead of the front standoffs, at the set height. */
+function cameraPivot(d: Design): Vec2 {
+  const frontStandoffX = Math.max(...d.body.standoffs.positionsMm.map((p) => p[0]));
+  return [frontStandoffX + d.camera!.forwardOffsetMm, d.camera!.pivotHeightMm];
+}
+
+/** Typical small cameras are about as deep as they are wide (common practice, no source). */
+function cameraPlan(d: Design): Loop | null {
+  if (!d.camera) return null;
+  const w = d.camera.cameraWidthMm;
+  return roundedRect([cameraPivot(d)[0], 0], w, w, 1);
+}
+
 /**
  * Camera side plate, drawn in the frame's x–z plane (part x = frame x, part y = height above the
  * bottom plate's lower face). Two copies stand either side of the camera.
@@ -253,7 +268,7 @@ function braces(d: Design, sites: readonly MotorSite[]): Part[] {
 function cameraSide(d: Design): Part {
   const c = d.camera!;
   const frontStandoffX = Math.max(...d.body.standoffs.positionsMm.map((p) => p[0]));
-  const pivot: Vec2 = [frontStandoffX + c.forwardOffsetMm, c.pivotHeightMm];
+  const pivot = cameraPivot(d);
   const slotW = clearanceHoleMm(c.pivotBoltSize, d.cutting.holeSeries);
   const mountD = clearanceHoleMm(c.mountBoltSize, d.cutting.holeSeries);
   const zLow = d.body.thicknessMm + c.plateMarginMm + mountD / 2;

@@ -34,6 +34,7 @@ describe('SVG', () => {
     it(`${file} overview renders with plates and prop discs`, () => {
       const svg = frameOverviewSvg(frame);
       expect((svg.match(/<circle[^>]*stroke-dasharray/g) ?? []).length).toBe(4);
+      if (frame.design.camera) expect(svg).toContain('<title>camera</title>');
       expect(inkFraction(svg, 500)).toBeGreaterThan(0.1);
     });
   }
