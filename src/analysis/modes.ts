@@ -8,7 +8,7 @@ import { armTipDeflection, bodyTwist, type ArmStatics, type BodyTwist, type TipD
 export type ModeOptions = Readonly<{
   /** Elastic modes wanted per model (default 6, 1 to 200). */
   modes?: number;
-  /** Element size, mm; default a thirtieth of √area, 0.8 to 4 mm (`defaultMeshSizeMm`). */
+  /** Element size, mm; default a thirtieth of √area, 0.5 to 4 mm (`defaultMeshSizeMm`). */
   meshSizeMm?: number;
   /** Mass of one motor, g, spread over its bolt-hole edges. Default: estimated from the bell diameter in frameModes, 0 otherwise. */
   motorMassG?: number;
