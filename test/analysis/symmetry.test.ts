@@ -37,3 +37,17 @@ describe('symmetric and asymmetric layouts', () => {
     expect(ma.stack!.tiltDegPerMm).toBeGreaterThan(30 * ms.stack!.tiltDegPerMm);
   });
 });
+
+describe('woven, not isotropic', () => {
+  it('an X plate whose arms run at 45° to the weave has about half the first frequency of an isotropic model (reference-values.md: −51 % in CalculiX)', () => {
+    const frame = fixtureFrame('symmetric-unibody.yaml');
+    const bottom = frame.parts.find((p) => p.role === 'bottom')!;
+    const m = bottom.material;
+    // Same E and ν, but the isotropic shear modulus E / 2(1 + ν) instead of the woven sheet's G12.
+    const iso = { ...bottom, material: { ...m, name: 'isotropic', g12Gpa: m.e1Gpa / (2 * (1 + m.nu12)) } };
+    const woven = bodyModes(bottom, frame.sites, { modes: 1, motorMassG: MOTOR_G }).modes[0].frequencyHz;
+    const isotropic = bodyModes(iso, frame.sites, { modes: 1, motorMassG: MOTOR_G }).modes[0].frequencyHz;
+    expect(woven / isotropic).toBeLessThan(0.65);
+    expect(woven / isotropic).toBeGreaterThan(0.35);
+  });
+});
