@@ -107,9 +107,10 @@ export function assemble(model: ShellModel, dofs: readonly number[]): Assembly {
         k.add(ei, ej, ke[i * 18 + j]);
       }
     }
-    // Lumped mass in element axes: translations are isotropic, the rotary terms differ only about
-    // the normal, which a 3D model would rotate; a flat plate keeps them as they are.
-    const me = shellLumpedMass(x, y, lam.arealMassTPerMm2, lam.rotaryInertiaT);
+    // Lumped mass in element axes; for a plate placed in 3D its rotary part is carried to global
+    // axes by the diagonal of RᵀJR (exact when the element axes line up with the global ones).
+    const local = shellLumpedMass(x, y, lam.arealMassTPerMm2, lam.rotaryInertiaT);
+    const me = r ? rotateRotaryMass(local, r) : local;
     for (let a = 0; a < 3; a++) for (let d = 0; d < 6; d++) {
       const e = elemEq[a * 6 + d];
       if (e >= 0) m[e] += me[d];
@@ -120,6 +121,16 @@ export function assemble(model: ShellModel, dofs: readonly number[]): Assembly {
     if (e >= 0) m[e] += pm.massT;
   }
   return { k, m, eq, dofs };
+}
+
+function rotateRotaryMass(local: Float64Array, r: readonly number[]): Float64Array {
+  const out = Float64Array.from(local);
+  for (let d = 0; d < 3; d++) {
+    let v = 0;
+    for (let a = 0; a < 3; a++) v += r[a * 3 + d] * r[a * 3 + d] * local[3 + a];
+    out[3 + d] = v;
+  }
+  return out;
 }
 
 /** Scatter a solution over equations back to six values per node (fixed and inactive DOFs are 0). */

@@ -66,3 +66,26 @@ describe('flat shell triangle', () => {
     expect(frob(g) / frob(k)).toBeCloseTo(1, 12);
   });
 });
+
+describe('a plate placed in 3D', () => {
+  it('standing in the x–z plane (per-triangle frames, all six DOFs solved together) it has the same modes as flat', async () => {
+    const { assemble, lowestEigenpairs, partModes, plateModel, rigidBodyModes } = await import('../../src/analysis/index.js');
+    const { platePart, rectangle } = await import('./helpers.js');
+    const part = platePart(rectangle(60, 25), 2, WOVEN, 0.4);
+    const flat = partModes(part, { modes: 5, meshSizeMm: 3 }).modes.map((m) => m.frequencyHz);
+    const pm = plateModel(part, 3);
+    const n = pm.mesh.xy.length / 2;
+    // Part x → global x, part y → global z, part normal → global −y.
+    const xyz = new Float64Array(3 * n);
+    for (let i = 0; i < n; i++) xyz.set([pm.mesh.xy[2 * i], 0, pm.mesh.xy[2 * i + 1]], 3 * i);
+    const tris = pm.mesh.triangles.length / 3;
+    const frames = new Float64Array(9 * tris);
+    for (let t = 0; t < tris; t++) frames.set([1, 0, 0, 0, 0, 1, 0, -1, 0], 9 * t);
+    const model = { ...pm.model, xyz, frames };
+    const a = assemble(model, [0, 1, 2, 3, 4, 5]);
+    const r = lowestEigenpairs(a.k, a.m, 5, { deflate: rigidBodyModes(model, a) });
+    expect(r.deflated).toBe(6);
+    const standing = r.values.map((v) => Math.sqrt(v) / (2 * Math.PI));
+    standing.forEach((f, i) => expect(f / flat[i]).toBeCloseTo(1, 8));
+  });
+});
