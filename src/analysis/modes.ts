@@ -60,14 +60,6 @@ export type ModalResult = Readonly<{
 export const DEFAULT_THRUST_N = 10;
 
 /**
- * Rough motor mass from the bell diameter, g: 1.46e-3 · D³ (fits 18 mm → 8.5 g, 28 mm → 32 g,
- * 33 mm → 52 g; common practice, no source). Used only when no motor mass is given.
- */
-export function estimateMotorMassG(bellDiameterMm: number): number {
-  return Math.round(1.46e-3 * bellDiameterMm ** 3 * 10) / 10;
-}
-
-/**
  * Natural modes of a part as cut, free in space (free–free): the lowest `modes` elastic modes.
  * Works for any part, imported DXF parts included.
  * @throws RangeError for a bad mode count or mesh size
@@ -203,7 +195,7 @@ export type FrameModes = Readonly<{
  * motors, with arm-tip deflection and body twist under motor thrust.
  */
 export function frameModes(frame: Frame, options: ModeOptions = {}): FrameModes {
-  const motorMassG = options.motorMassG ?? estimateMotorMassG(frame.design.motor.bellDiameterMm);
+  const motorMassG = options.motorMassG ?? frame.design.motorMassG;
   const thrustN = options.thrustN ?? DEFAULT_THRUST_N;
   const opts = { ...options, motorMassG, thrustN };
   const parts = frame.parts.map((p) => partModes(p, opts));

@@ -1,7 +1,7 @@
 import { spawnSync } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { bodyModes, estimateMotorMassG, partModes, type ModalResult } from '../analysis/index.js';
+import { bodyModes, partModes, type ModalResult } from '../analysis/index.js';
 import { buildFrame, partArea, type Frame, type Part } from '../geometry/index.js';
 import { parseDesignText } from '../params/index.js';
 import type { BenchCase } from './types.js';
@@ -49,7 +49,7 @@ export const cases: BenchCase[] = [
   (() => {
     const frame = frameOf('mote-3');
     const bottom = frame.parts.find((p) => p.role === 'bottom')!;
-    const motorG = estimateMotorMassG(frame.design.motor.bellDiameterMm);
+    const motorG = frame.design.motorMassG;
     let ref: number[] | null = null;
     return {
       name: 'modes: mote-3 one-piece plate with its motors, first 10 modes',

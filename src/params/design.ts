@@ -2,6 +2,7 @@ import type { Material, ScrewSize } from '../geometry/part.js';
 import { DesignError, type DesignIssue } from './errors.js';
 import { DesignSchema, type DesignParsed } from './schema.js';
 import { issuesFromZod, parseYamlText } from './yamlInput.js';
+import { typicalMotorMassG } from './motorTable.js';
 import { parseLengthMm } from './units.js';
 
 /** Camera widths by size class, mm (common practice, no source). */
@@ -13,6 +14,8 @@ export type Design = Readonly<
     props: DesignParsed['props'] & { diameterMm: number };
     camera?: NonNullable<DesignParsed['camera']> & { cameraWidthMm: number };
     materialFor: (name: string | undefined) => Material;
+    /** motor.massG, or the typical mass for the motor's bell when the design gives none. g. */
+    motorMassG: number;
     stackBoltSizes: readonly (readonly ScrewSize[])[];
   }
 >;
@@ -83,5 +86,6 @@ function resolve(d: DesignParsed): Design {
   const camera = d.camera
     ? { ...d.camera, cameraWidthMm: typeof d.camera.widthMm === 'number' ? d.camera.widthMm : CAMERA_WIDTH_MM[d.camera.widthMm] }
     : undefined;
-  return { ...d, props: { ...d.props, diameterMm: diameterMm as number }, camera, materialFor, stackBoltSizes };
+  const motorMassG = d.motor.massG ?? typicalMotorMassG(d.motor.bellDiameterMm);
+  return { ...d, props: { ...d.props, diameterMm: diameterMm as number }, camera, materialFor, stackBoltSizes, motorMassG };
 }

@@ -62,3 +62,13 @@ export function motorClassesForPattern(boltCirclesMm: readonly number[], boltSiz
 /** Whether a prop (mm) lies in the class's prop range (inches, inclusive, 0.01 in slack for unit rounding). */
 export const classTurnsProp = (c: MotorClass, propMm: number): boolean =>
   propMm / MM_PER_INCH >= c.propsIn[0] - 0.01 && propMm / MM_PER_INCH <= c.propsIn[1] + 0.01;
+
+/**
+ * Typical mass of one motor with a bell of this diameter: the table row whose bell is nearest
+ * (common practice, no source). Used only when a design gives no `motor.massG`.
+ */
+export function typicalMotorMassG(bellDiameterMm: number): number {
+  let best = MOTOR_CLASSES[0];
+  for (const c of MOTOR_CLASSES) if (Math.abs(c.bellDiameterMm - bellDiameterMm) < Math.abs(best.bellDiameterMm - bellDiameterMm)) best = c;
+  return best.massG;
+}

@@ -109,6 +109,7 @@ export const DesignSchema = z
         slotted: z.boolean().default(false).describe('slots spanning both circles instead of round holes (needs two circles)'),
         boreMm: num(0, 30, 'mm', 'centre bore for the shaft clip; 0 for none').default(7),
         bellDiameterMm: num(8, 80, 'mm', 'motor bell diameter, for the tip pad and guard').default(28),
+        massG: num(1, 1000, 'g', 'mass of one motor, for stiffness and resonance; default: the typical mass of the motor class whose bell is nearest').optional(),
       })
       .strict(),
     arms: z

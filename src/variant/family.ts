@@ -49,10 +49,10 @@ export function familyRow(label: string, d: Design, frame: Frame, tipMassG: numb
 
 /** Rows for a variant's source and the variant itself. */
 export const variantRow = (v: VariantResult, report: CheckReport | null): FamilyRow =>
-  familyRow(v.design.name, v.design, v.frame, v.motor.variantClass.massG, report, v.arms.met ? 'kept' : 'not met');
+  familyRow(v.design.name, v.design, v.frame, v.design.motorMassG, report, v.arms.met ? 'kept' : 'not met');
 /** The source design's row, measured the same way as its variants. */
 export const sourceRow = (v: VariantResult, report: CheckReport | null): FamilyRow =>
-  familyRow(`${v.sourceDesign.name} (source)`, v.sourceDesign, v.sourceFrame, v.motor.sourceClass.massG, report, 'source');
+  familyRow(`${v.sourceDesign.name} (source)`, v.sourceDesign, v.sourceFrame, v.sourceDesign.motorMassG, report, 'source');
 
 /** Arm size as one short text: widths joined by "/", then thickness, e.g. "10.5/8/36 × 6". */
 export const armSizeText = (row: FamilyRow): string => `${Object.values(row.armWidthsMm).join('/')} × ${row.armThicknessMm}`;

@@ -87,6 +87,7 @@ function motorChanges(d: Design, c: MotorClass): Change[] {
     { path: ['motor', 'bellDiameterMm'], old: d.motor.bellDiameterMm, new: c.bellDiameterMm, why: `${why}: typical bell` },
     { path: ['motor', 'boreMm'], old: d.motor.boreMm, new: c.boreMm, why: `${why}: typical shaft-clip bore` },
   ];
+  if (d.motor.massG !== undefined) out.push({ path: ['motor', 'massG'], old: d.motor.massG, new: c.massG, why: `${why}: typical mass` });
   if (d.motor.slotted && circles.length !== 2) out.push({ path: ['motor', 'slotted'], old: true, new: false, why: `${c.name} has one bolt circle; slots need two` });
   return out;
 }

@@ -146,7 +146,7 @@ export function makeVariant(sourceText: string, req: VariantRequest, sourceName 
       }
     }
   };
-  const arms = sizeArms(source, motor.sourceClass.massG, cur, motor.variantClass.massG, buildable);
+  const arms = sizeArms(source, source.motorMassG, cur, cur.motorMassG, buildable);
   cur = edit(arms.changes);
 
   // 5. Build. A slimmer arm may have no room for the source's root fillet: reduce it in 0.5 mm

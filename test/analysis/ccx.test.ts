@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
-import { armModes, bodyModes, estimateMotorMassG, partModes, type ModalResult } from '../../src/analysis/index.js';
+import { armModes, bodyModes, partModes, type ModalResult } from '../../src/analysis/index.js';
 import { partArea, type Frame, type Part } from '../../src/geometry/index.js';
 import { commandAvailable, pythonModuleAvailable, requireTool, runPythonJson } from '../helpers/reference.js';
 import { DEMOS, demoFrame, REPO } from './helpers.js';
@@ -49,7 +49,7 @@ function expectWithin5(ours: ModalResult, ref: number[], label: string) {
 
 describe.each(DEMOS)('CalculiX S6 shell reference, %s', (file) => {
   const frame = demoFrame(file);
-  const motorG = estimateMotorMassG(frame.design.motor.bellDiameterMm);
+  const motorG = frame.design.motorMassG;
 
   for (const part of frame.parts) {
     it(`${part.name} free–free: first three elastic modes within 5 %`, () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { armModes, estimateMotorMassG } from '../../src/analysis/index.js';
+import { armModes } from '../../src/analysis/index.js';
 import { demoFrame } from './helpers.js';
 
 describe('mode words', () => {
@@ -7,13 +7,9 @@ describe('mode words', () => {
     // Ordering cross-checked with the CalculiX frequencies of the same arm (ccx.test.ts): 207 / 597 / 707 Hz.
     const frame = demoFrame('tessel-5.yaml');
     const arm = frame.parts.find((p) => p.role === 'arm')!;
-    const r = armModes(arm, { modes: 3, motorMassG: estimateMotorMassG(frame.design.motor.bellDiameterMm) });
+    const r = armModes(arm, { modes: 3, motorMassG: frame.design.motorMassG });
     expect(r.modes.map((m) => m.description)).toEqual(['arm bending out of plane, 1st', 'arm bending in plane (sideways), 1st', 'arm twist, 1st']);
     expect(r.modes.map((m) => m.plane)).toEqual(['out-of-plane', 'in-plane', 'out-of-plane']);
   });
 
-  it('motor mass estimate from the bell diameter (common practice, no source): 28 mm → 32 g', () => {
-    expect(estimateMotorMassG(28)).toBe(32);
-    expect(estimateMotorMassG(18)).toBe(8.5);
-  });
 });

@@ -49,7 +49,7 @@ describe('stiffness rule: the variant arm keeps the source arm frequency', () =>
         const params = armWidthParams(d);
         expect(params.some((p) => p.value === Math.ceil(p.minMm / WIDTH_STEP_MM) * WIDTH_STEP_MM)).toBe(true);
       } else {
-        const f = softestArm(withArmSize(d, narrower, t), v.motor.variantClass.massG).frequencyHz;
+        const f = softestArm(withArmSize(d, narrower, t), d.motorMassG).frequencyHz;
         expect(f).toBeLessThan(target);
       }
     });
@@ -64,14 +64,14 @@ describe('stiffness rule: the variant arm keeps the source arm frequency', () =>
   it('the rule\'s frequency is the cantilever formula on lengths read from the file', () => {
     // Independent reading of a separate-arm frame (tessel-5 is a truss of separate arms, weave along the arm):
     // free length = wheelbase/2 − (root reach + (bolts − 1)·spacing + edge margin); effective width =
-    // main strut + secondary strut × meet fraction; E along the weave = E1; tip mass = the 20xx–24xx motor, 33 g.
+    // main strut + secondary strut × meet fraction; E along the weave = E1; tip mass = the file's motor.massG.
     const v = makeVariant(demoText('tessel-5'), { props: '7in' });
     const raw = YAML.parse(v.text);
     const r = raw.arms.root;
     const L = raw.layout.wheelbaseMm / 2 - (r.reachMm + (r.boltCount - 1) * r.boltSpacingMm + (r.edgeMarginMm ?? 5));
     const tr = raw.arms.truss;
     const mat = Object.values(raw.materials)[0] as { e1Gpa: number; densityGPerCm3: number };
-    const f = cantileverFrequencyHz({ lengthMm: L, widthMm: tr.mainWidthMm + tr.secondaryWidthMm * tr.meetFraction, thicknessMm: raw.arms.thicknessMm, modulusGpa: mat.e1Gpa, densityGPerCm3: mat.densityGPerCm3, tipMassG: 33 });
+    const f = cantileverFrequencyHz({ lengthMm: L, widthMm: tr.mainWidthMm + tr.secondaryWidthMm * tr.meetFraction, thicknessMm: raw.arms.thicknessMm, modulusGpa: mat.e1Gpa, densityGPerCm3: mat.densityGPerCm3, tipMassG: raw.motor.massG });
     expect(v.arms.achieved.frequencyHz).toBeCloseTo(f, 6);
     expect(v.arms.achieved.beam.lengthMm).toBeCloseTo(L, 9);
   });

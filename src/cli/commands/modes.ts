@@ -228,7 +228,7 @@ export function registerModes(program: Command): void {
     .option('--json', 'print the results as JSON')
     .option('--plot <dir>', 'write one SVG colour map per mode into this directory')
     .option('--mesh-size <mm>', 'element size in mm, 0.3 to 20 (default: a thirtieth of √area, 0.5 to 4 mm)')
-    .option('--motor-mass <g>', 'mass of one motor in g (default: estimated from motor.bellDiameterMm; 0 for DXF)')
+    .option('--motor-mass <g>', 'mass of one motor in g (default: the design\'s motor.massG; 0 for DXF)')
     .option('--stack-mass <g>', 'flight-controller stack on the stack holes, g (one-piece frames; default 0)')
     .option('--battery-mass <g>', 'battery, spread over the standoff holes, g (one-piece frames; default 0)')
     .option('--camera-mass <g>', 'camera, at the front standoffs, g (one-piece frames; default 0)')
