@@ -3,6 +3,7 @@ import type { Design } from '../params/design.js';
 import { motorSites, type MotorSite, type SiteId } from '../geometry/layout.js';
 import type { Material } from '../geometry/part.js';
 import { degToRad } from '../params/units.js';
+import { exAt } from '../checks/laminate.js';
 
 /**
  * Each arm as a uniform cantilever for the stiffness rule: clamped where the plates stop holding it,
@@ -17,17 +18,6 @@ import { degToRad } from '../params/units.js';
  *   an arm at 45° to the weave is about four times softer than one along it.
  */
 export type ArmBeam = CantileverBeam & Readonly<{ site: SiteId }>;
-
-/**
- * Axial modulus of an orthotropic ply at angle θ to its 1-axis (Kaw, Mechanics of Composite
- * Materials, eq. 2.101): 1/Ex = c⁴/E1 + (1/G12 − 2ν12/E1) s²c² + s⁴/E2. GPa.
- */
-export function axialModulusGpa(m: Pick<Material, 'e1Gpa' | 'e2Gpa' | 'g12Gpa' | 'nu12'>, angleRad: number): number {
-  const c = Math.cos(angleRad);
-  const s = Math.sin(angleRad);
-  const inv = c ** 4 / m.e1Gpa + (1 / m.g12Gpa - (2 * m.nu12) / m.e1Gpa) * s * s * c * c + s ** 4 / m.e2Gpa;
-  return 1 / inv;
-}
 
 /** Effective uniform width of the arm for out-of-plane bending. mm. */
 export function effectiveArmWidthMm(d: Design): number {
@@ -81,7 +71,7 @@ export function armBeams(d: Design, tipMassG: number): ArmBeam[] {
       lengthMm: site.motorAlongMm - clampAlongMm(d, site),
       widthMm,
       thicknessMm,
-      modulusGpa: axialModulusGpa(material, angle),
+      modulusGpa: exAt(material, angle),
       densityGPerCm3: material.densityGPerCm3,
       tipMassG,
     };

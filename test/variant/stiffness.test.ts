@@ -2,22 +2,8 @@ import { describe, expect, it } from 'vitest';
 import YAML from 'yaml';
 import { cantileverFrequencyHz } from '../../src/analysis/beam.js';
 import { parseDesignText } from '../../src/params/design.js';
-import { axialModulusGpa, makeVariant, softestArm, STOCK_THICKNESSES_MM, withArmSize, armWidthParams, WIDTH_STEP_MM } from '../../src/variant/index.js';
+import { makeVariant, softestArm, STOCK_THICKNESSES_MM, withArmSize, armWidthParams, WIDTH_STEP_MM } from '../../src/variant/index.js';
 import { demoText } from './helpers.js';
-
-describe('axial modulus of a woven ply off its axes', () => {
-  it('matches the laminate-theory check values', () => {
-    // reference-values.md, woven 0/90 (E1 = E2 70, G12 5 GPa, ν12 0.10) [CALC]: 70.0, 40.3, 21.8, 17.72 GPa
-    const woven = { e1Gpa: 70, e2Gpa: 70, g12Gpa: 5, nu12: 0.1 };
-    const deg = (d: number) => (d * Math.PI) / 180;
-    expect(axialModulusGpa(woven, 0)).toBeCloseTo(70, 6);
-    expect(axialModulusGpa(woven, deg(15))).toBeCloseTo(40.3, 1);
-    expect(axialModulusGpa(woven, deg(30))).toBeCloseTo(21.8, 1);
-    expect(axialModulusGpa(woven, deg(45))).toBeCloseTo(17.72, 2);
-    // Kaw, Mechanics of Composite Materials 2nd ed., graphite/epoxy: Ex(60°) = 12.42 GPa
-    expect(axialModulusGpa({ e1Gpa: 181, e2Gpa: 10.3, g12Gpa: 7.17, nu12: 0.28 }, deg(60))).toBeCloseTo(12.42, 2);
-  });
-});
 
 const CASES: Array<[string, string, string?]> = [
   ['tessel-5', '7in'],
