@@ -3,7 +3,7 @@ import { describeModes, motionAt, type PointMotion, type ShapeContext } from './
 import type { PlateMesh } from './mesh.js';
 import { defaultMeshSizeMm, featureCentre, featureNodes, meshMassG, motorsOnPlate, plateModel, withFixed, withMasses, type AddedMass, type PlateModel } from './plateModel.js';
 import { solvePlateModes } from './solve.js';
-import { armTipDeflection, bodyTwist, type ArmStatics, type BodyTwist, type TipDeflection, unibodyTipDeflections } from './statics.js';
+import { armTipDeflection, bodyTwist, rootLoadedBodyTwist, type ArmStatics, type BodyTwist, type TipDeflection, unibodyTipDeflections } from './statics.js';
 
 export type ModeOptions = Readonly<{
   /** Elastic modes wanted per model (default 6, 1 to 200). */
@@ -187,6 +187,8 @@ export type FrameModes = Readonly<{
   arms: readonly ArmResult[];
   /** A one-piece bottom plate carrying its motors (unibody frames only). */
   body: BodyResult | null;
+  /** Separate-arm frames: bottom-plate twist with the arm loads brought in at the root bolts. */
+  rootTwist: BodyTwist | null;
 }>;
 
 /**
@@ -211,5 +213,6 @@ export function frameModes(frame: Frame, options: ModeOptions = {}): FrameModes 
       tipDeflections: unibodyTipDeflections(bottom, frame.sites, thrustN, opts.meshSizeMm),
     };
   }
-  return { frame: frame.name, motorMassG, thrustN, parts, arms, body };
+  const rootTwist = bottom && frame.design.arms.construction === 'separate' ? rootLoadedBodyTwist(bottom, frame.sites, thrustN, opts.meshSizeMm) : null;
+  return { frame: frame.name, motorMassG, thrustN, parts, arms, body, rootTwist };
 }

@@ -95,3 +95,65 @@ export function bodyTwist(part: Part, sites: Frame['sites'], thrustN: number, me
   };
   return { thrustN, twistDeg: ((roll(true) - roll(false)) * 180) / Math.PI, pattern: 'front-left and rear-right thrust up, front-right and rear-left down' };
 }
+
+/**
+ * Body twist of a separate-arm frame's bottom plate under opposite thrusts (front-left and
+ * rear-right up, the others down). Each arm is taken as rigid and clamped at its root bolts, so its
+ * thrust F at the motor (distance m along the arm line) reaches the plate as bolt forces that carry
+ * both F and the moment F·(m − ā): P_k = F [1/n + (m − ā)(a_k − ā) / Σ(a_j − ā)²] (statics of a
+ * rigid bar on n supports; one bolt carries F only). The plate is held at the node nearest the
+ * stack centre; twist = roll of the front root pair minus roll of the rear pair. Plate alone: the top
+ * plate and standoffs of the assembled frame stiffen it further, so this is an upper bound. deg.
+ * @throws RangeError when the plate has no arm-root bolt holes
+ */
+export function rootLoadedBodyTwist(part: Part, sites: Frame['sites'], thrustN: number, meshSizeMm?: number): BodyTwist {
+  const pm0 = plateModel(part, meshSizeMm ?? defaultMeshSizeMm(part));
+  const roots = featureNodes(pm0, 'arm-root-bolt').map((r) => ({ ...r, centre: featureCentre(pm0, r.feature, r.nodes) }));
+  if (!roots.length) throw new RangeError(`part ${part.name} has no arm-root bolt holes to load`);
+  const along = (s: Frame['sites'][number], p: readonly number[]) =>
+    (p[0] - s.armLineOriginMm[0]) * Math.cos(s.armDirRad) + (p[1] - s.armLineOriginMm[1]) * Math.sin(s.armDirRad);
+  const across = (s: Frame['sites'][number], p: readonly number[]) =>
+    Math.abs(-(p[0] - s.armLineOriginMm[0]) * Math.sin(s.armDirRad) + (p[1] - s.armLineOriginMm[1]) * Math.cos(s.armDirRad));
+  const bySite = sites.map((s) => ({
+    site: s,
+    bolts: roots.filter((r) => sites.every((t) => across(s, r.centre) <= across(t, r.centre) && along(s, r.centre) > 0)),
+  }));
+  const stacks = featureNodes(pm0, 'stack-bolt').map((f) => featureCentre(pm0, f.feature, f.nodes));
+  const c = stacks.length ? [stacks.reduce((s, p) => s + p[0], 0) / stacks.length, stacks.reduce((s, p) => s + p[1], 0) / stacks.length] : [0, 0];
+  let hold = 0;
+  let best = Infinity;
+  for (let i = 0; i < pm0.mesh.xy.length / 2; i++) {
+    const d = Math.hypot(pm0.mesh.xy[2 * i] - c[0], pm0.mesh.xy[2 * i + 1] - c[1]);
+    if (d < best) [best, hold] = [d, i];
+  }
+  const pm = withFixed(pm0, [hold], [2, 3, 4]);
+  const f = new Float64Array(pm.model.fixed.length);
+  for (const { site, bolts } of bySite) {
+    if (!bolts.length) continue;
+    const sign = site.front === site.left ? 1 : -1;
+    const a = bolts.map((b) => along(site, b.centre));
+    const mean = a.reduce((s, x) => s + x, 0) / a.length;
+    const spread = a.reduce((s, x) => s + (x - mean) ** 2, 0);
+    bolts.forEach((b, k) => {
+      const share = 1 / a.length + (spread > 0 ? ((site.motorAlongMm - mean) * (a[k] - mean)) / spread : 0);
+      spreadForce(f, b.nodes, sign * thrustN * share);
+    });
+  }
+  const u = solveBending(pm, f);
+  const rootW = (front: boolean, left: boolean) => {
+    const g = bySite.find((b) => b.site.front === front && b.site.left === left)!;
+    const nodes = g.bolts.flatMap((b) => b.nodes);
+    const y = g.bolts.reduce((s, b) => s + b.centre[1], 0) / g.bolts.length;
+    return { w: meanW(u, nodes), y };
+  };
+  const roll = (front: boolean) => {
+    const l = rootW(front, true);
+    const r = rootW(front, false);
+    return Math.atan2(l.w - r.w, l.y - r.y);
+  };
+  return {
+    thrustN,
+    twistDeg: ((roll(true) - roll(false)) * 180) / Math.PI,
+    pattern: 'front-left and rear-right thrust up, front-right and rear-left down; bottom plate alone, loads through rigid arms at the root bolts',
+  };
+}

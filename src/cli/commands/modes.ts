@@ -115,7 +115,7 @@ function dxfModes(path: string, opts: ModesCliOptions, options: Record<string, n
   const arms: ArmResult[] = parts
     .filter((p) => p.features.some((f) => f.purpose === 'arm-root-bolt') && p.features.some((f) => f.purpose === 'motor-bolt'))
     .map((p) => ({ modal: armModes(p, options), statics: armTipDeflection(p, options.thrustN ?? DEFAULT_THRUST_N, options.meshSizeMm) }));
-  return { frame: basename(path), motorMassG: options.motorMassG ?? 0, thrustN: options.thrustN ?? DEFAULT_THRUST_N, parts: results, arms, body: null };
+  return { frame: basename(path), motorMassG: options.motorMassG ?? 0, thrustN: options.thrustN ?? DEFAULT_THRUST_N, parts: results, arms, body: null, rootTwist: null };
 }
 
 const BOUNDARY_WORDS: Record<ModalResult['boundary'], string> = {
@@ -142,6 +142,7 @@ function frameJson(input: string, r: FrameModes) {
     parts: r.parts.map(modalJson),
     arms: r.arms.map((a) => ({ ...modalJson(a.modal), statics: a.statics })),
     body: r.body ? { ...modalJson(r.body.modal), twist: r.body.twist, tipDeflections: r.body.tipDeflections } : null,
+    rootTwist: r.rootTwist,
   };
 }
 
@@ -167,6 +168,7 @@ function frameText(r: FrameModes): string {
     out.push(modalText(a.modal));
     out.push(`  tip deflection under ${fmt(a.statics.thrustN, 1)} N: ${fmt(a.statics.tipDeflectionMm, 3)} mm (${fmt(a.statics.stiffnessNPerMm, 1)} N/mm)`, '');
   }
+  if (r.rootTwist) out.push(`body twist under opposite thrusts (${r.rootTwist.pattern}): ${fmt(r.rootTwist.twistDeg, 3)}°`, '');
   for (const p of r.parts) out.push(modalText(p));
   out.push('"stack move": translation at the flight-controller stack as a fraction of the mode\'s largest motion; "stack tilt": its tilt per mm of that motion (what a gyro feels).');
   out.push(...CAUTIONS, '');
@@ -183,7 +185,7 @@ function comparisonText(items: readonly Loaded[]): string {
   const header = ['design', 'bottom plate 1st Hz', 'arm+motor 1st Hz', 'body+motors 1st Hz', 'alternating mode Hz', 'stack tilt °/mm', 'tip defl. mm', 'body twist °'];
   const rows = items.map(({ label, result: r }) => {
     const alt = alternate(r.body);
-    return [label, cell(bottomFree(r), 0), cell(firstArm(r), 0), cell(r.body?.modal.modes[0]?.frequencyHz, 0), cell(alt?.frequencyHz, 0), cell(alt?.stack?.tiltDegPerMm, 3), cell(worstTip(r), 3), cell(r.body?.twist.twistDeg, 3)];
+    return [label, cell(bottomFree(r), 0), cell(firstArm(r), 0), cell(r.body?.modal.modes[0]?.frequencyHz, 0), cell(alt?.frequencyHz, 0), cell(alt?.stack?.tiltDegPerMm, 3), cell(worstTip(r), 3), cell((r.body?.twist ?? r.rootTwist)?.twistDeg, 3)];
   });
   return `framewright modes: comparison (thrust ${fmt(items[0].result.thrustN, 1)} N per motor; blank: not modelled for that design)\n${textTable(header, rows)}\n\n`;
 }
