@@ -1,3 +1,4 @@
+import { checkOptions, propClearanceRule, propDiscs } from '../checks/index.js';
 import { buildFrame, type Frame } from '../geometry/frame.js';
 import { motorSites, wheelbaseOf } from '../geometry/layout.js';
 import { partMassG } from '../geometry/metrics.js';
@@ -57,6 +58,26 @@ export function parsePropsOption(text: string): number {
 }
 
 /** "Tessel 5" → "Tessel 5 (7in)"; an earlier "(…)" size suffix is replaced, so variants of variants stay tidy. */
+/**
+ * The smallest wheelbase from `startMm` up, in `stepMm` steps, at which the checks' prop-clearance
+ * rule finds no error (layout shape kept, arms as they are: they do not move the props). mm.
+ */
+function clearOfParts(d: Design, startMm: number, stepMm: number): number {
+  const base = wheelbaseOf(motorSites(d));
+  const options = checkOptions({ toolDiameterMm: d.cutting.toolDiameterMm, limits: d.checks, minTipGapMm: d.props.minTipGapMm });
+  for (let wb = startMm, k = 0; k < 400; k++, wb = ceilToStep(wb + stepMm, stepMm)) {
+    let frame: Frame;
+    try {
+      frame = buildFrame({ ...d, layout: scaledLayout(d, wb / base) });
+    } catch (e) {
+      if (e instanceof DesignError) return wb;
+      throw e;
+    }
+    if (!propClearanceRule(frame, options, propDiscs(frame)).some((f) => f.severity === 'error')) return wb;
+  }
+  return startMm;
+}
+
 export function variantName(name: string, propsText: string): string {
   const base = name.replace(/\s*\([0-9.]+\s*(in|mm|cm)\)\s*$/i, '');
   return `${base} (${propsText.trim()})`;
@@ -106,6 +127,14 @@ export function makeVariant(sourceText: string, req: VariantRequest, sourceName 
       bound === 'tip gap'
         ? `smallest keeping the ${gap} mm tip gap (${minimumMm.toFixed(2)} mm), rounded up to ${step} mm`
         : `smallest keeping the props ${bodyClearanceMm.toFixed(1)} mm clear of the standoffs and stack with the body kept (${bodyKeptMm.toFixed(2)} mm; tip gap alone: ${minimumMm.toFixed(2)} mm), rounded up to ${step} mm`;
+    // The checks' own prop-clearance rule has the last word (it also sees the camera side plates
+    // and the plates' heights): grow the wheelbase in steps until it finds no strike.
+    const raised = clearOfParts(cur, chosenMm, Math.max(step, 0.5));
+    if (raised > chosenMm) {
+      wbWhy += `; raised to ${raised} mm so no prop comes closer to a frame part than the prop-clearance rule allows`;
+      chosenMm = raised;
+      bound = 'body clearance';
+    }
   } else {
     if (!(req.wheelbase > 0) || req.wheelbase < minimumMm - 1e-9) {
       throw new VariantRequestError('--wheelbase', req.wheelbase, `is below the clearance minimum ${minimumMm.toFixed(2)} mm: ${propsText} props need it for the design's ${gap} mm tip gap (props.minTipGapMm)`);
