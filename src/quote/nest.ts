@@ -142,15 +142,23 @@ export function nestParts(items: readonly NestItem[], options: NestOptions): Nes
     const groupCopies = members.reduce((a, i) => a + items[i].count, 0);
     if (options.refine !== false && best.result.length > Math.ceil(area / sheetArea - 1e-9)) {
       // Not provably optimal by area: a finer raster (less rounding of the gaps) with the best rules
-      // so far may save a sheet.
+      // so far may save a sheet. Rules that gave the very same layout are retried once.
       const fine = level(items, options, cell / 2, new Set(members));
-      for (const t of tried.slice(0, REFINE_STRATEGIES)) {
+      const seen = new Set<string>();
+      const retry = tried.filter((t) => {
+        const sig = layoutSignature(t.strategy, t.result);
+        if (seen.has(sig)) return false;
+        seen.add(sig);
+        return true;
+      }).slice(0, REFINE_STRATEGIES);
+      for (const t of retry) {
         const r = runStrategy(fine, items, members, t.strategy, tick);
         if (r && r.length < best.result.length) {
           best = { strategy: t.strategy, result: r };
           bestCell = cell / 2;
         }
       }
+      for (let k = 0; k < groupCopies * (REFINE_STRATEGIES - retry.length); k++) tick();
     } else {
       for (let k = 0; k < groupCopies * REFINE_STRATEGIES; k++) tick();
     }
@@ -172,8 +180,14 @@ export function nestParts(items: readonly NestItem[], options: NestOptions): Nes
   return { sheets, groups: summary, spacingMm: s, marginMm: m, cellMm: cell };
 }
 
-/** How many of the best rules are retried on the finer raster. */
-const REFINE_STRATEGIES = 2;
+/** How many of the best rules (with distinct layouts) are retried on the finer raster. */
+const REFINE_STRATEGIES = 3;
+
+/** Identifies a layout: which part went where on which sheet. */
+function layoutSignature(strategy: Strategy, sheets: readonly SheetState[]): string {
+  const pos = (p: Placement) => `${p.item}@${p.transform.translate[0].toFixed(3)},${p.transform.translate[1].toFixed(3)},${p.rotationDeg}`;
+  return `${strategy.turned}|${sheets.map((sh) => sh.placements.map(pos).join(' ')).join('/')}`;
+}
 
 /** Rasters and grids for one cell size. */
 type Level = Readonly<{ shapes: Raster[][]; boxes: Raster[][]; upright: Grid; turned: Grid }>;
@@ -194,11 +208,18 @@ function level(items: readonly NestItem[], options: NestOptions, cell: number, o
 }
 
 function runStrategy(l: Level, items: readonly NestItem[], members: readonly number[], strategy: Strategy, tick: () => void): SheetState[] | null {
-  return nestGroup(items, strategy.boxes ? l.boxes : l.shapes, members, strategy.turned ? l.turned : l.upright, strategy.score, tick);
+  return nestGroup(items, strategy.boxes ? l.boxes : l.shapes, members, strategy.turned ? l.turned : l.upright, withPreference(strategy), tick);
+}
+
+/** The strategy's score, with every rotation of the other parity ranked after all of the preferred one. */
+function withPreference(strategy: Strategy): Score {
+  const { prefer, score } = strategy;
+  return prefer === undefined ? score : (x, y, r, k) => (k % 2 === prefer ? 0 : 1e15) + score(x, y, r, k);
 }
 
 type Grid = Readonly<{ gw: number; gh: number; origin: readonly [number, number]; cell: number }>;
-type Score = (x: number, y: number, r: Raster) => number;
+/** Lower is better; k indexes the part's allowed rotations (quarter turns from the weave-aligned one). */
+type Score = (x: number, y: number, r: Raster, k: number) => number;
 
 /**
  * Placement rules tried for every group, on the sheet as given and turned by 90° (which keeps every
@@ -208,7 +229,13 @@ type Score = (x: number, y: number, r: Raster) => number;
 const topEdge: Score = (x, y, r) => (y + r.h) * 1e6 + x;
 const bottomLeft: Score = (x, y) => y * 1e6 + x;
 const centre: Score = (x, y, r) => (2 * y + r.h) * 1e6 + x;
-type Strategy = Readonly<{ name: string; turned: boolean; boxes: boolean; score: Score }>;
+/**
+ * With `prefer`, a copy takes a rotation of that parity (an even or odd number of quarter turns from
+ * the weave-aligned one) wherever one fits on the sheet, and only then the other: long parts fill a band
+ * one way, then the strip left over the other way, where a free choice per copy mixes them early and
+ * leaves gaps no copy fits (80 Farline 7 arms: 4 sheets instead of 5).
+ */
+type Strategy = Readonly<{ name: string; turned: boolean; boxes: boolean; score: Score; prefer?: 0 | 1 }>;
 const STRATEGIES: readonly Strategy[] = [
   { name: 'lowest top edge', turned: false, boxes: false, score: topEdge },
   { name: 'lowest top edge, turned sheet', turned: true, boxes: false, score: topEdge },
@@ -219,6 +246,10 @@ const STRATEGIES: readonly Strategy[] = [
   // Bounding boxes only: avoids the trap where interlocking two parts costs a column.
   { name: 'boxes, lowest top edge', turned: false, boxes: true, score: topEdge },
   { name: 'boxes, lowest top edge, turned sheet', turned: true, boxes: true, score: topEdge },
+  { name: 'upright first', turned: false, boxes: false, score: topEdge, prefer: 0 },
+  { name: 'upright first, turned sheet', turned: true, boxes: false, score: topEdge, prefer: 0 },
+  { name: 'quarter-turned first', turned: false, boxes: false, score: topEdge, prefer: 1 },
+  { name: 'quarter-turned first, turned sheet', turned: true, boxes: false, score: topEdge, prefer: 1 },
 ];
 
 /** Fewer sheets wins; then the emptier last sheet (its leftover is worth more). */
@@ -274,7 +305,7 @@ function nestGroup(items: readonly NestItem[], rasters: readonly (readonly Raste
       const pos = firstFit(sh.prevOcc, r, gw, gh, from);
       sh.resume.set(resumeKey, pos === null ? gw * gh : pos.y * gw + pos.x);
       if (pos === null) return;
-      const sc = score(pos.x, pos.y, r);
+      const sc = score(pos.x, pos.y, r, k);
       if (!best || sc < best.score) best = { r, x: pos.x, y: pos.y, score: sc };
     });
     if (!best) return false;
