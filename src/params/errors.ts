@@ -10,7 +10,9 @@ export class DesignError extends Error {
 }
 
 export function formatIssue(i: DesignIssue): string {
-  const shown = i.value === undefined ? '(missing)' : JSON.stringify(i.value);
+  const full = i.value === undefined ? '(missing)' : JSON.stringify(i.value);
+  // A whole file pasted where a value belongs (a DXF given as a design) must not flood the terminal.
+  const shown = full.length > 60 ? `${full.slice(0, 57)}...` : full;
   return `${i.path || '(design)'}: ${shown} ${i.message}`;
 }
 

@@ -78,10 +78,15 @@ export const LayoutSchema = z.discriminatedUnion('kind', [squareFrame, hFrame, a
   error: 'layout.kind must be one of x, h, asymmetric',
 });
 
+const PROP_DIAMETER_ERROR = 'must be a length: mm as a number (25 to 600), or a string with a unit such as "5.1in" or "130mm"';
 const propDiameter = z
-  .union([z.number().min(25).max(600), z.string().regex(/^\s*[0-9]*\.?[0-9]+\s*(in|inch|inches|"|mm|cm)?\s*$/i)], {
-    error: 'must be a length: mm as a number (25 to 600), or a string with a unit such as "5.1in" or "130mm"',
-  })
+  .union(
+    [
+      z.number().min(25, { error: PROP_DIAMETER_ERROR }).max(600, { error: PROP_DIAMETER_ERROR }),
+      z.string().regex(/^\s*[0-9]*\.?[0-9]+\s*(in|inch|inches|"|mm|cm)?\s*$/i, { error: PROP_DIAMETER_ERROR }),
+    ],
+    { error: PROP_DIAMETER_ERROR },
+  )
   .describe('prop diameter: mm as a number, or a string with a unit ("5.1in", "130mm")');
 
 export const DesignSchema = z
@@ -167,7 +172,10 @@ export const DesignSchema = z
             place: z.union([z.enum(['front', 'middle', 'rear']), num(-300, 300, 'mm', 'x offset of the stack centre')]).default('middle').describe('front (x = +length/4), middle (x = 0), rear (x = −length/4), or an x offset in mm'),
             yMm: num(-150, 150, 'mm', 'sideways offset').default(0),
             patternsMm: z.array(num(10, 60, 'mm', 'bolt square side')).min(1).max(4).describe('concentric square patterns, e.g. [30.5, 20]'),
-            boltSize: z.union([screw, z.array(screw)]).default('M3').describe('one size for all patterns, or one per pattern'),
+            boltSize: z
+              .union([screw, z.array(screw)], { error: `must be a screw size (${SCREW_SIZES.join(', ')}) or a list of them, one per pattern` })
+              .default('M3')
+              .describe('one size for all patterns, or one per pattern'),
             countersunk: z.boolean().default(false).describe('countersink the holes from the bottom face for flush heads (e.g. screws under the arms)'),
           })
           .strict(),
@@ -233,7 +241,7 @@ export const DesignSchema = z
     camera: z
       .object({
         widthMm: z
-          .union([z.enum(['nano', 'micro', 'mini']), num(10, 40, 'mm', 'camera body width')])
+          .union([z.enum(['nano', 'micro', 'mini']), num(10, 40, 'mm', 'camera body width')], { error: 'must be nano (14), micro (19), mini (21.5) or a width in mm, 10 to 40' })
           .default('micro')
           .describe('nano 14, micro 19, mini 21.5 mm, or a width in mm'),
         thicknessMm: num(0.5, 6, 'mm', 'side plate thickness').default(2),

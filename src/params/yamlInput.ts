@@ -22,7 +22,10 @@ export function issuesFromZod(issues: readonly z.core.$ZodIssue[], raw: unknown,
       return { path, value: i.keys, message: `unknown key${i.keys.length > 1 ? 's' : ''}; ${unknownKeyHint}` };
     }
     const value = valueAt(raw, i.path as PropertyKey[]);
-    const message = i.code === 'invalid_union' && value === undefined ? 'is required' : i.message;
+    let message = i.message;
+    if (value === undefined && (i.code === 'invalid_union' || (i.code === 'invalid_type' && !/required/.test(i.message)))) {
+      message = i.code === 'invalid_type' ? `is required (${String(i.expected)})` : 'is required';
+    }
     return { path, value, message };
   });
 }

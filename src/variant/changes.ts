@@ -39,7 +39,11 @@ export function editDesignText(text: string, changes: readonly Change[]): string
     const node = doc.getIn(c.path, true);
     if ((isScalar(node) || isCollection(node)) && node.range) {
       const quoted = isScalar(node) && node.type === Scalar.QUOTE_DOUBLE;
-      splices.push({ start: node.range[0], end: node.range[1], text: flowText(c.new, quoted || (isCollection(node) && text.trimStart().startsWith('{'))) });
+      // A block collection's range runs through its last line break; keep that white space so the
+      // next key stays on its own line (a flow value on the line below its key is valid YAML).
+      const trailing = /\s*$/.exec(text.slice(node.range[0], node.range[1]))![0];
+      const value = flowText(c.new, quoted || (isCollection(node) && text.trimStart().startsWith('{')));
+      splices.push({ start: node.range[0], end: node.range[1], text: isCollection(node) && !node.flow ? value + trailing : value });
     } else {
       missing.push(c);
     }

@@ -129,3 +129,30 @@ describe('build runs the checks first', () => {
     }
   });
 });
+
+describe('output folders that cannot be written', () => {
+  it('exit 2 with the path named, no stack trace, for a folder under a file and for /proc', () => {
+    for (const out of ['/dev/null/x', '/proc/framewright-test/x']) {
+      for (const cmd of [['build', 'designs/tessel-5.yaml', '--out', out], ['schema', '--out', `${out}/s.json`]]) {
+        const r = runCli(cmd);
+        expect(r.code, `${cmd.join(' ')}`).toBe(2);
+        expect(r.stderr).toMatch(/cannot (write into|create) /);
+        expect(r.stderr).not.toMatch(STACK_LINE);
+      }
+    }
+  });
+  it('a DXF given to build is pointed to check and modes', () => {
+    const r = runCli(['build', 'test/fixtures/dxf/annotation.dxf']);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/is a DXF drawing; this command takes a design file/);
+    expect(r.stderr.length).toBeLessThan(400);
+  });
+  it('rewriting an existing output folder replaces every file', () => {
+    const out = join(tmp(), 'again');
+    expect(runCli(['build', 'designs/mote-3.yaml', '--out', out]).code).toBe(0);
+    writeFileSync(join(out, 'top-plate.svg'), 'stale');
+    expect(runCli(['build', 'designs/mote-3.yaml', '--out', out]).code).toBe(0);
+    expect(readFileSync(join(out, 'top-plate.svg'), 'utf8')).toMatch(/^<\?xml/);
+    expect(readdirSync(out).filter((f) => f.includes('.tmp'))).toEqual([]);
+  });
+});

@@ -122,3 +122,19 @@ describe('stability', () => {
     expect(makeVariant(src, { props: '6in' }).text).toBe(makeVariant(src, { props: '6in' }).text);
   });
 });
+
+describe('block-style lists (regression: a replaced block list swallowed the next key)', () => {
+  it('a block list replaced by a flow list keeps the file valid and the next key in place', () => {
+    const text = ['motor:', '  boltCircleMm:', '    - 12', '  boltSize: M2 # keep', 'name: x', ''].join('\n');
+    const out = editDesignText(text, [{ path: ['motor', 'boltCircleMm'], old: [12], new: [16], why: 't' }]);
+    const parsed = YAML.parse(out);
+    expect(parsed.motor).toEqual({ boltCircleMm: [16], boltSize: 'M2' });
+    expect(out).toContain('boltSize: M2 # keep');
+  });
+  it('a variant of a design written with block lists reads back', () => {
+    const src = demoText('mote-3').replace('boltCircleMm: [12]', 'boltCircleMm:\n    - 12');
+    expect(src).toContain('    - 12');
+    const v = makeVariant(src, { props: '6in', motor: 'auto' });
+    expect(YAML.parse(v.text).motor.boltSize).toBe('M3');
+  });
+});
