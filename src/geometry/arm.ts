@@ -18,6 +18,9 @@ export type ArmShape = Readonly<{
   rootLengthMm: number;
 }>;
 
+/** Width of the arm where it is clamped: the truss spread, or the (root) width of a bar arm. mm. */
+export const armRootWidthMm = (d: Design): number => (d.arms.style === 'truss' ? d.arms.truss!.spreadMm : (d.arms.widthMm ?? 0));
+
 /** Distance from the arm's root end to the outermost root bolt plus its margin. mm. */
 export const rootBlockLength = (d: Design): number =>
   2 * d.arms.root.edgeMarginMm + (d.arms.root.boltCount - 1) * d.arms.root.boltSpacingMm;
@@ -33,17 +36,18 @@ export function armShape(d: Design, lengthMm: number, withRoot: boolean, sourceP
   const rootLen = rootBlockLength(d);
   const pieces: Loop[] = [circle([L, 0], padR)];
   const members: Member[] = [];
-  const rootR = Math.min(2, a.widthMm / 2 - 0.01);
+  // Straight and tapered arms have a width (validated in params); a truss takes its widths from arms.truss.
+  const width = a.widthMm ?? 0;
   switch (a.style) {
     case 'straight':
-      pieces.push(roundedRect([L / 2, 0], L, a.widthMm, rootR));
-      members.push({ name: 'arm', startMm: [0, 0], endMm: [L, 0], widthMm: a.widthMm });
+      pieces.push(roundedRect([L / 2, 0], L, width, Math.min(2, width / 2 - 0.01)));
+      members.push({ name: 'arm', startMm: [0, 0], endMm: [L, 0], widthMm: width });
       break;
     case 'tapered': {
-      const w0 = a.widthMm / 2;
-      const w1 = (a.tipWidthMm ?? a.widthMm) / 2;
+      const w0 = width / 2;
+      const w1 = (a.tipWidthMm ?? width) / 2;
       pieces.push(filletCorners(polygon([[0, -w0], [L, -w1], [L, w1], [0, w0]]), Math.min(2, w0 * 0.9, w1 * 0.9), 'outside'));
-      members.push({ name: 'arm', startMm: [0, 0], endMm: [L, 0], widthMm: (a.widthMm + (a.tipWidthMm ?? a.widthMm)) / 2 });
+      members.push({ name: 'arm', startMm: [0, 0], endMm: [L, 0], widthMm: (width + (a.tipWidthMm ?? width)) / 2 });
       break;
     }
     case 'truss': {

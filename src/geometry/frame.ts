@@ -2,7 +2,7 @@ import type { Design } from '../params/design.js';
 import { DesignError, type DesignIssue } from '../params/errors.js';
 import { clearanceHoleMm } from '../params/screws.js';
 import { degToRad } from '../params/units.js';
-import { armShape, filletedUnion, rootBlockLength } from './arm.js';
+import { armRootWidthMm, armShape, filletedUnion, rootBlockLength } from './arm.js';
 import { BooleanGuardError } from './boolean.js';
 import { FilletError } from './fillet.js';
 import { cutout, roundedCutout, screwHole, squareHoles, type SourcedFeature } from './holes.js';
@@ -107,7 +107,8 @@ function bottomPlate(d: Design, sites: readonly MotorSite[]): Part {
       // A pad under each arm root carries the root bolts.
       const end = d.arms.root.reachMm + (d.arms.root.boltCount - 1) * d.arms.root.boltSpacingMm + d.arms.root.edgeMarginMm;
       const centre = alongArm(site, end / 2);
-      pieces.push(roundedRect(centre, end, d.arms.style === 'truss' ? d.arms.truss!.spreadMm : d.arms.widthMm, Math.min(2, d.arms.widthMm / 2 - 0.01), site.armDirRad));
+      const w = armRootWidthMm(d);
+      pieces.push(roundedRect(centre, end, w, Math.min(2, w / 2 - 0.01), site.armDirRad));
       for (let i = 0; i < d.arms.root.boltCount; i++) {
         features.push(screwHole(d, alongArm(site, d.arms.root.reachMm + i * d.arms.root.boltSpacingMm), d.arms.root.boltSize, 'arm-root-bolt', 'arms.root.reachMm'));
       }

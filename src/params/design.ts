@@ -55,6 +55,12 @@ function resolve(d: DesignParsed): Design {
       issues.push({ path: `${path}.material`, value: sec.material, message: `is not in materials (${materialNames.join(', ')})` });
     }
   }
+  if (d.arms.style !== 'truss' && d.arms.widthMm === undefined) {
+    issues.push({ path: 'arms.widthMm', value: undefined, message: `is required for ${d.arms.style} arms (4 to 60 mm)` });
+  }
+  if (d.arms.style === 'truss' && d.arms.widthMm !== undefined) {
+    issues.push({ path: 'arms.widthMm', value: d.arms.widthMm, message: 'applies to straight and tapered arms; a truss arm takes its widths from arms.truss (remove arms.widthMm)' });
+  }
   if (d.arms.style === 'tapered' && d.arms.tipWidthMm === undefined) {
     issues.push({ path: 'arms.tipWidthMm', value: undefined, message: 'is required for tapered arms (4 to 60 mm)' });
   }

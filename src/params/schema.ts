@@ -121,7 +121,7 @@ export const DesignSchema = z
       .object({
         construction: z.enum(['separate', 'unibody']).default('separate').describe('separate arm plates, or one piece with the bottom plate'),
         style: z.enum(['straight', 'tapered', 'truss']).default('straight').describe('straight bar, tapered bar (widthMm to tipWidthMm), or truss (main and secondary strut with windows)'),
-        widthMm: num(4, 60, 'mm', 'arm width (at the root for tapered arms)'),
+        widthMm: num(4, 60, 'mm', 'arm width (at the root for tapered arms); straight and tapered arms only').optional(),
         tipWidthMm: num(4, 60, 'mm', 'arm width at the motor for tapered arms').optional(),
         truss: z
           .object({

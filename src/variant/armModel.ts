@@ -24,9 +24,9 @@ export function effectiveArmWidthMm(d: Design): number {
   const a = d.arms;
   switch (a.style) {
     case 'straight':
-      return a.widthMm;
+      return a.widthMm!;
     case 'tapered':
-      return (a.widthMm + (a.tipWidthMm ?? a.widthMm)) / 2;
+      return (a.widthMm! + (a.tipWidthMm ?? a.widthMm!)) / 2;
     case 'truss':
       return a.truss!.mainWidthMm + a.truss!.secondaryWidthMm * a.truss!.meetFraction;
   }

@@ -31,11 +31,11 @@ export function armWidthParams(d: Design): WidthParam[] {
   const rootMin = a.construction === 'separate' ? 3 * clearanceHoleMm(a.root.boltSize, d.cutting.holeSeries) : 4;
   switch (a.style) {
     case 'straight':
-      return [{ path: ['arms', 'widthMm'], value: a.widthMm, minMm: Math.max(4, rootMin), maxMm: 60 }];
+      return [{ path: ['arms', 'widthMm'], value: a.widthMm!, minMm: Math.max(4, rootMin), maxMm: 60 }];
     case 'tapered':
       return [
-        { path: ['arms', 'widthMm'], value: a.widthMm, minMm: Math.max(4, rootMin), maxMm: 60 },
-        { path: ['arms', 'tipWidthMm'], value: a.tipWidthMm ?? a.widthMm, minMm: 4, maxMm: 60 },
+        { path: ['arms', 'widthMm'], value: a.widthMm!, minMm: Math.max(4, rootMin), maxMm: 60 },
+        { path: ['arms', 'tipWidthMm'], value: a.tipWidthMm ?? a.widthMm!, minMm: 4, maxMm: 60 },
       ];
     case 'truss': {
       const t = a.truss!;

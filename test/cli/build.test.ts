@@ -4,6 +4,7 @@ import { join } from 'node:path';
 import YAML from 'yaml';
 import { describe, expect, it } from 'vitest';
 import { DEMO_FILES, DESIGNS_DIR, demoFrame, designWith } from '../helpers/demo.js';
+import { partBBox } from '../../src/geometry/index.js';
 import { runCli, STACK_LINE } from '../helpers/cli.js';
 
 const tmp = () => mkdtempSync(join(tmpdir(), 'fw-build-'));
@@ -154,5 +155,18 @@ describe('output folders that cannot be written', () => {
     expect(runCli(['build', 'designs/mote-3.yaml', '--out', out]).code).toBe(0);
     expect(readFileSync(join(out, 'top-plate.svg'), 'utf8')).toMatch(/^<\?xml/);
     expect(readdirSync(out).filter((f) => f.includes('.tmp'))).toEqual([]);
+  });
+});
+
+describe('the SVG files build writes', () => {
+  it('are as large in mm as each part bounding box', () => {
+    const out = join(tmp(), 'svg');
+    expect(runCli(['build', 'designs/tessel-5.yaml', '--out', out]).code).toBe(0);
+    for (const p of demoFrame('tessel-5.yaml').parts) {
+      const svg = readFileSync(join(out, `${p.name}.svg`), 'utf8');
+      const b = partBBox(p);
+      expect(Number(/width="([0-9.]+)mm"/.exec(svg)![1])).toBeCloseTo(b[2] - b[0], 3);
+      expect(Number(/height="([0-9.]+)mm"/.exec(svg)![1])).toBeCloseTo(b[3] - b[1], 3);
+    }
   });
 });

@@ -116,7 +116,7 @@ describe('other layouts and arm styles build', () => {
     }
   });
   it('straight, tapered and guarded arms build; a pad that misses the body is refused naming body.widthMm', () => {
-    for (const arms of [{ style: 'straight' }, { style: 'tapered', tipWidthMm: 10 }, { tipGuardMm: 4 }]) {
+    for (const arms of [{ style: 'straight', widthMm: 12, truss: undefined }, { style: 'tapered', widthMm: 12, tipWidthMm: 10, truss: undefined }, { tipGuardMm: 4 }]) {
       const f = buildFrame(validateDesign(designWith('tessel-5.yaml', { arms })));
       for (const p of f.parts) expect(loopProblem(p.outline)).toBeNull();
     }
