@@ -57,10 +57,12 @@ export function parsePropsOption(text: string): number {
   return mm;
 }
 
-/** "Tessel 5" → "Tessel 5 (7in)"; an earlier "(…)" size suffix is replaced, so variants of variants stay tidy. */
 /**
  * The smallest wheelbase from `startMm` up, in `stepMm` steps, at which the checks' prop-clearance
- * rule finds no error (layout shape kept, arms as they are: they do not move the props). mm.
+ * rule finds no error (layout shape kept, arms as they are: they do not move the props). A layout
+ * whose plates cannot be built yet (the arms are sized later) cannot be judged here, so the search
+ * stops there and the later build reports it. mm. Throws VariantRequestError when 400 steps do not
+ * clear the props.
  */
 function clearOfParts(d: Design, startMm: number, stepMm: number): number {
   const base = wheelbaseOf(motorSites(d));
@@ -75,9 +77,10 @@ function clearOfParts(d: Design, startMm: number, stepMm: number): number {
     }
     if (!propClearanceRule(frame, options, propDiscs(frame)).some((f) => f.severity === 'error')) return wb;
   }
-  return startMm;
+  throw new VariantRequestError('--wheelbase', 'auto', `found no wheelbase from ${startMm} mm up to ${(startMm + 400 * stepMm).toFixed(0)} mm at which the props clear the frame parts (prop-clearance rule); check the body and camera plates`);
 }
 
+/** "Tessel 5" → "Tessel 5 (7in)"; an earlier "(…)" size suffix is replaced, so variants of variants stay tidy. */
 export function variantName(name: string, propsText: string): string {
   const base = name.replace(/\s*\([0-9.]+\s*(in|mm|cm)\)\s*$/i, '');
   return `${base} (${propsText.trim()})`;
