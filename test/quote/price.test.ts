@@ -39,9 +39,11 @@ describe('time and price, hand-worked example', () => {
   const q = quoteParts([part], { quantity: 1, shop: SHOP, toolDiameterMm: 3 });
   const p = q.parts[0];
 
-  it('feed from the catalogue cutting data is 955 mm/min', () => {
-    expect(rpm).toBeCloseTo(15915.5, 1);
-    expect(FEED).toBe(955);
+  it('the 5 mm part is cut at the catalogue feed, 955 mm/min (15 915 rpm × 0.060 mm/rev)', () => {
+    // reference-values.md "Cutting and cost": 15,915 rpm, 955 mm/min for a 3 mm tool at Vc 150 m/min
+    expect(rpm).toBeCloseTo(15915, 0);
+    expect(feedFor(SHOP, part.thicknessMm)?.feedMmPerMin).toBe(955);
+    expect((p.cut.toolPathMm * 2) / 955).toBeCloseTo(p.time.cutMin, 9);
   });
 
   it('per part: path, passes, plunges, rapids, allowance', () => {
