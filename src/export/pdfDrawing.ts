@@ -1,7 +1,7 @@
 import PDFDocument from 'pdfkit';
 import type { Vec2 } from '../geometry/types.js';
 import { assertNever } from '../geometry/types.js';
-import { layoutDrawing, type DrawingSet, type PaperItem, type PaperSheet, type Stroke } from '../quote/index.js';
+import { type DrawingSet, type PaperItem, type PaperSheet, type Stroke } from '../quote/index.js';
 import { loopPathData } from './svgPath.js';
 
 /** PDF points per millimetre (72 pt per inch, 25.4 mm per inch). */
@@ -19,10 +19,10 @@ export type PdfDrawingOptions = Readonly<{
 
 /**
  * The drawing set as a multi-page PDF (A4 landscape, built-in Helvetica, no embedded fonts). The
- * layout comes from src/quote (layoutDrawing); this only serialises it. Deterministic: a fixed
+ * sheets are laid out by src/quote (layoutDrawing) and passed in; this only serialises them. Deterministic: a fixed
  * creation date and no other varying metadata, so the same set gives the same bytes.
  */
-export async function drawingToPdf(set: DrawingSet, options: PdfDrawingOptions = {}): Promise<Uint8Array> {
+export async function drawingToPdf(set: DrawingSet, sheets: readonly PaperSheet[], options: PdfDrawingOptions = {}): Promise<Uint8Array> {
   const date = options.creationDate ?? dateOf(set.date);
   const doc = new PDFDocument({
     autoFirstPage: false,
@@ -35,7 +35,7 @@ export async function drawingToPdf(set: DrawingSet, options: PdfDrawingOptions =
     doc.on('end', () => resolve());
     doc.on('error', reject);
   });
-  for (const sheet of layoutDrawing(set)) page(doc, sheet);
+  for (const sheet of sheets) page(doc, sheet);
   doc.end();
   await done;
   return new Uint8Array(Buffer.concat(chunks));

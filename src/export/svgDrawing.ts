@@ -1,18 +1,18 @@
 import { loopBBox, transformLoop } from '../geometry/loop.js';
 import type { Part } from '../geometry/part.js';
 import { assertNever, type Vec2 } from '../geometry/types.js';
-import { layoutDrawing, type DrawingSet, type NestedSheet, type PaperItem, type PaperSheet, type Stroke } from '../quote/index.js';
+import { type NestedSheet, type PaperItem, type PaperSheet, type Stroke } from '../quote/index.js';
 import { fmt, xmlEscape } from './format.js';
 import { loopPathData } from './svgPath.js';
 
 const LINE_MM: Record<Stroke, number> = { outline: 0.35, thin: 0.18, frame: 0.5 };
 
 /**
- * The drawing set as SVG files, one per sheet (A4 landscape, 1 user unit = 1 mm), laid out by
- * src/quote (layoutDrawing) exactly as the PDF. Deterministic text.
+ * The drawing sheets as SVG files, one per sheet (A4 landscape, 1 user unit = 1 mm), the same
+ * sheets (laid out by src/quote's layoutDrawing) as the PDF. Deterministic text.
  */
-export function drawingToSvgs(set: DrawingSet): string[] {
-  return layoutDrawing(set).map(sheetSvg);
+export function drawingToSvgs(sheets: readonly PaperSheet[]): string[] {
+  return sheets.map(sheetSvg);
 }
 
 function sheetSvg(sheet: PaperSheet): string {

@@ -1,7 +1,9 @@
 import type { Loop, Vec2 } from './types.js';
 
-/** ISO metric screw sizes framewright knows hole series for. */
-export type ScrewSize = 'M2' | 'M2.5' | 'M3' | 'M4' | 'M5';
+import type { Material, ScrewSize } from '../params/types.js';
+
+// The design's vocabulary (params) is the lowest layer; parts reuse its screw and material types.
+export type { Material, ScrewSize };
 
 /** Why a hole or cut-out is there: checks and drawings treat them differently. */
 export type FeaturePurpose =
@@ -37,16 +39,6 @@ export type Feature = Readonly<{
 
 /** A load-carrying strut: its centreline in part coordinates and its width. */
 export type Member = Readonly<{ name: string; startMm: Vec2; endMm: Vec2; widthMm: number }>;
-
-/** Woven 0/90 laminate, in-plane engineering constants. */
-export type Material = Readonly<{
-  name: string;
-  e1Gpa: number;
-  e2Gpa: number;
-  g12Gpa: number;
-  nu12: number;
-  densityGPerCm3: number;
-}>;
 
 /** Where one copy of a part sits in the assembled frame. Frame axes: x forward, y left, z up. */
 export type Placement = Readonly<{

@@ -1,4 +1,4 @@
-import type { Material, ScrewSize } from '../geometry/part.js';
+import type { Material, ScrewSize } from './types.js';
 import { DesignError, type DesignIssue } from './errors.js';
 import { DesignSchema, type DesignParsed } from './schema.js';
 import { issuesFromZod, parseYamlText } from './yamlInput.js';

@@ -6,3 +6,4 @@ export * from './design.js';
 export * from './jsonSchema.js';
 export * from './reference.js';
 export * from './yamlInput.js';
+export * from './types.js';

@@ -1,4 +1,4 @@
-import type { ScrewSize } from '../geometry/part.js';
+import type { ScrewSize } from './types.js';
 import { MM_PER_INCH } from './units.js';
 
 /**

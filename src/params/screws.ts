@@ -1,4 +1,4 @@
-import type { ScrewSize } from '../geometry/part.js';
+import type { ScrewSize } from './types.js';
 
 export const SCREW_SIZES = ['M2', 'M2.5', 'M3', 'M4', 'M5'] as const satisfies readonly ScrewSize[];
 export type HoleSeries = 'fine' | 'medium' | 'coarse';

@@ -18,7 +18,7 @@ let pdf: Uint8Array;
 
 beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), 'fw-drawing-'));
-  pdf = await drawingToPdf(set);
+  pdf = await drawingToPdf(set, layoutDrawing(set));
   writeFileSync(join(dir, 'drawing.pdf'), pdf);
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -74,7 +74,7 @@ describe('drawing layout', () => {
 
 describe('PDF drawing', () => {
   it('is deterministic: the same set gives the same bytes', async () => {
-    const again = await drawingToPdf(set);
+    const again = await drawingToPdf(set, layoutDrawing(set));
     expect(Buffer.from(again).equals(Buffer.from(pdf))).toBe(true);
     expect(Buffer.from(pdf).subarray(0, 5).toString()).toBe('%PDF-');
   });
@@ -117,7 +117,7 @@ describe('PDF drawing', () => {
 });
 
 describe('SVG drawing', () => {
-  const svgs = drawingToSvgs(set);
+  const svgs = drawingToSvgs(layoutDrawing(set));
   it('one file per sheet, each renders with rsvg-convert', () => {
     expect(svgs).toHaveLength(set.sheets.length);
     expect(svgs[1]).toContain('Hole table');

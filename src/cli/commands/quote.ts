@@ -7,7 +7,7 @@ import { placedPartsToDxf } from '../../export/dxf.js';
 import { drawingToPdf } from '../../export/pdfDrawing.js';
 import { drawingToSvgs, sheetLayoutToSvg } from '../../export/svgDrawing.js';
 import { parseShopText } from '../../params/shop.js';
-import { drawingSet, quoteParts, quoteReport } from '../../quote/index.js';
+import { drawingSet, layoutDrawing, quoteParts, quoteReport } from '../../quote/index.js';
 import { readDesign, readText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 import { slug } from './build.js';
@@ -93,8 +93,9 @@ export function registerQuote(program: Command): void {
       const files: OutputFile[] = [];
       const report = quoteReport(quote, meta);
       files.push({ path: join(outDir, 'quote.json'), data: `${JSON.stringify(report, null, 2)}\n` });
-      files.push({ path: join(outDir, 'drawing.pdf'), data: await drawingToPdf(set) });
-      drawingToSvgs(set).forEach((svg, i) => files.push({ path: join(outDir, `drawing-${pad(i + 1)}.svg`), data: svg }));
+      const sheets = layoutDrawing(set);
+      files.push({ path: join(outDir, 'drawing.pdf'), data: await drawingToPdf(set, sheets) });
+      drawingToSvgs(sheets).forEach((svg, i) => files.push({ path: join(outDir, `drawing-${pad(i + 1)}.svg`), data: svg }));
       quote.nesting.sheets.forEach((s, i) => {
         const name = `sheet-${pad(i + 1)}-${s.thicknessMm}mm`;
         const note = `${design.name} rev ${design.revision}: sheet ${i + 1} of ${quote.nesting.sheets.length}, ${s.thicknessMm} mm ${s.material}, ${s.placements.length} parts, utilisation ${(s.utilisation * 100).toFixed(1)} %`;
