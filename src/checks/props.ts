@@ -179,6 +179,6 @@ export function cameraViewRule(frame: Frame, o: CheckOptions, discs: readonly Pr
     off === null ? `no camera.forwardOffsetMm up to ${FORWARD_OFFSET_RANGE_MM[1]} mm hides them` : `camera.forwardOffsetMm ≥ ${(Math.ceil(off * 100) / 100).toFixed(2)} mm (set ${c.forwardOffsetMm})`,
     tilt === null ? `no uptilt in the slot's ${c.uptiltMinDeg}–${c.uptiltMaxDeg}° hides them` : `uptilt ${tilt.toFixed(2)}° (set ${c.uptiltDeg}°)`,
   ];
-  out.push(finding(CAMERA_RULE, 'info', FRAME_PART, off, c.forwardOffsetMm, 'mm', null, `no prop in view with ${parts.join(', or with ')}`));
+  out.push(finding(CAMERA_RULE, 'info', FRAME_PART, off, null, 'mm', null, `no prop in view with ${parts.join(', or with ')}`));
   return out;
 }
