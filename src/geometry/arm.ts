@@ -5,7 +5,7 @@ import { signedArea } from './loop.js';
 import { motorHoles, motorPadRadius, screwHole, type SourcedFeature } from './holes.js';
 import type { Member } from './part.js';
 import { circle, polygon, roundedRect, slot } from './primitives.js';
-import type { Loop, Vec2 } from './types.js';
+import { assertNever, type Loop, type Vec2 } from './types.js';
 import { lerp } from './vec.js';
 
 /** Outline pieces, holes and members of one arm in its own frame: root end at x = 0, motor on +x. */
@@ -64,6 +64,8 @@ export function armShape(d: Design, lengthMm: number, withRoot: boolean, sourceP
       members.push({ name: 'secondary strut', startMm: secStart, endMm: meet, widthMm: t.secondaryWidthMm });
       break;
     }
+    default:
+      return assertNever(a.style);
   }
   const features: SourcedFeature[] = [];
   if (withRoot) {

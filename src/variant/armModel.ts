@@ -1,3 +1,4 @@
+import { assertNever } from '../geometry/types.js';
 import type { CantileverBeam } from '../analysis/beam.js';
 import type { Design } from '../params/design.js';
 import { motorSites, type MotorSite, type SiteId } from '../geometry/layout.js';
@@ -29,6 +30,8 @@ export function effectiveArmWidthMm(d: Design): number {
       return (a.widthMm! + (a.tipWidthMm ?? a.widthMm!)) / 2;
     case 'truss':
       return a.truss!.mainWidthMm + a.truss!.secondaryWidthMm * a.truss!.meetFraction;
+    default:
+      return assertNever(a.style);
   }
 }
 

@@ -1,3 +1,4 @@
+import { assertNever } from '../geometry/types.js';
 import type { Design } from '../params/design.js';
 import { motorSites, wheelbaseOf, type MotorSite, type SiteId } from '../geometry/layout.js';
 import { dist } from '../geometry/vec.js';
@@ -48,6 +49,8 @@ export function scaledLayout(d: Design, factor: number): Design['layout'] {
       return { ...L, wheelbaseMm: L.wheelbaseMm * factor };
     case 'asymmetric':
       return { ...L, front: { ...L.front, reachMm: L.front.reachMm * factor }, rear: { ...L.rear, reachMm: L.rear.reachMm * factor } };
+    default:
+      return assertNever(L);
   }
 }
 

@@ -1,3 +1,4 @@
+import { assertNever } from '../geometry/types.js';
 import { cantileverFrequencyHz, cantileverTipDeflectionMm } from '../analysis/beam.js';
 import type { Design } from '../params/design.js';
 import { clearanceHoleMm } from '../params/screws.js';
@@ -45,6 +46,8 @@ export function armWidthParams(d: Design): WidthParam[] {
         { path: ['arms', 'truss', 'spreadMm'], value: t.spreadMm, minMm: Math.max(4, rootMin), maxMm: 80 },
       ];
     }
+    default:
+      return assertNever(a.style);
   }
 }
 
