@@ -105,7 +105,7 @@ export function motorsOnPlate(pm: PlateModel, sites: Frame['sites']): MotorOnPla
     const nodes: number[] = [];
     for (const b of bolts) {
       const c = featureCentre(pm, b.feature, b.nodes);
-      const nearest = sites.reduce((best, t) => (Math.hypot(c[0] - t.motorMm[0], c[1] - t.motorMm[1]) < Math.hypot(c[0] - best.motorMm[0], c[1] - best.motorMm[1]) ? t : best), sites[0]);
+      const nearest = sites.reduce((best, site) => (Math.hypot(c[0] - site.motorMm[0], c[1] - site.motorMm[1]) < Math.hypot(c[0] - best.motorMm[0], c[1] - best.motorMm[1]) ? site : best), sites[0]);
       if (nearest.id === s.id) nodes.push(...b.nodes);
     }
     return { id: s.id, front: s.front, left: s.left, motorMm: s.motorMm, armDirRad: s.armDirRad, nodes };

@@ -3,7 +3,8 @@ import { DxfReadError } from './errors.js';
 /** One group-code pair of an ASCII DXF file; `line` is the 1-based line of the code. */
 export type Pair = Readonly<{ code: number; value: string; line: number }>;
 
-const BINARY_SENTINEL = 'AutoCAD Binary DXF';
+/** A binary DXF opens with a 22-byte sentinel ending in "Binary DXF", CR LF, SUB, NUL (DXF reference). */
+const BINARY_SENTINEL = /^[^\r\n]{0,16}Binary DXF\r\n\u001a\u0000/;
 
 /**
  * Split ASCII DXF text into group-code pairs. Tolerant of CRLF, leading spaces on codes and a
@@ -11,7 +12,7 @@ const BINARY_SENTINEL = 'AutoCAD Binary DXF';
  * Throws DxfReadError naming the line.
  */
 export function readPairs(text: string, maxPairs: number): Pair[] {
-  if (text.startsWith(BINARY_SENTINEL)) {
+  if (BINARY_SENTINEL.test(text.slice(0, 32))) {
     throw new DxfReadError('this is a binary DXF file; only ASCII DXF is read (save it again as ASCII DXF)');
   }
   if (text.includes('\u0000')) throw new DxfReadError('the file contains binary data (NUL bytes); it is not an ASCII DXF file');
