@@ -8,6 +8,22 @@ export type ArmStatics = Readonly<{ thrustN: number; tipDeflectionMm: number; st
 export type TipDeflection = Readonly<{ site: string; thrustN: number; tipDeflectionMm: number }>;
 export type BodyTwist = Readonly<{ thrustN: number; twistDeg: number; pattern: string }>;
 
+/**
+ * The plate held only at the mesh node nearest the stack centre (w and both tilts), so a
+ * self-balanced load twists it without any other support stiffening it.
+ */
+function heldAtStack(pm0: PlateModel): PlateModel {
+  const stacks = featureNodes(pm0, 'stack-bolt').map((f) => featureCentre(pm0, f.feature, f.nodes));
+  const c = stacks.length ? [stacks.reduce((s, p) => s + p[0], 0) / stacks.length, stacks.reduce((s, p) => s + p[1], 0) / stacks.length] : [0, 0];
+  let hold = 0;
+  let best = Infinity;
+  for (let i = 0; i < pm0.mesh.xy.length / 2; i++) {
+    const d = Math.hypot(pm0.mesh.xy[2 * i] - c[0], pm0.mesh.xy[2 * i + 1] - c[1]);
+    if (d < best) [best, hold] = [d, i];
+  }
+  return withFixed(pm0, [hold], [2, 3, 4]);
+}
+
 /** Solve the bending system K u = f; returns six values per node. */
 function solveBending(pm: PlateModel, f: Float64Array): Float64Array {
   const a = assemble(pm.model, BENDING_DOFS);
@@ -74,15 +90,7 @@ export function unibodyTipDeflections(part: Part, sites: Frame['sites'], thrustN
  */
 export function bodyTwist(part: Part, sites: Frame['sites'], thrustN: number, meshSizeMm?: number): BodyTwist {
   const pm0 = plateModel(part, meshSizeMm ?? defaultMeshSizeMm(part));
-  const stacks = featureNodes(pm0, 'stack-bolt').map((f) => featureCentre(pm0, f.feature, f.nodes));
-  const c = stacks.length ? [stacks.reduce((s, p) => s + p[0], 0) / stacks.length, stacks.reduce((s, p) => s + p[1], 0) / stacks.length] : [0, 0];
-  let hold = 0;
-  let best = Infinity;
-  for (let i = 0; i < pm0.mesh.xy.length / 2; i++) {
-    const d = Math.hypot(pm0.mesh.xy[2 * i] - c[0], pm0.mesh.xy[2 * i + 1] - c[1]);
-    if (d < best) [best, hold] = [d, i];
-  }
-  const pm = withFixed(pm0, [hold], [2, 3, 4]);
+  const pm = heldAtStack(pm0);
   const motors = motorsOnPlate(pm0, sites);
   const f = new Float64Array(pm.model.fixed.length);
   for (const m of motors) spreadForce(f, m.nodes, m.front === m.left ? thrustN : -thrustN);
@@ -118,15 +126,7 @@ export function rootLoadedBodyTwist(part: Part, sites: Frame['sites'], thrustN: 
     site: s,
     bolts: roots.filter((r) => sites.every((t) => across(s, r.centre) <= across(t, r.centre) && along(s, r.centre) > 0)),
   }));
-  const stacks = featureNodes(pm0, 'stack-bolt').map((f) => featureCentre(pm0, f.feature, f.nodes));
-  const c = stacks.length ? [stacks.reduce((s, p) => s + p[0], 0) / stacks.length, stacks.reduce((s, p) => s + p[1], 0) / stacks.length] : [0, 0];
-  let hold = 0;
-  let best = Infinity;
-  for (let i = 0; i < pm0.mesh.xy.length / 2; i++) {
-    const d = Math.hypot(pm0.mesh.xy[2 * i] - c[0], pm0.mesh.xy[2 * i + 1] - c[1]);
-    if (d < best) [best, hold] = [d, i];
-  }
-  const pm = withFixed(pm0, [hold], [2, 3, 4]);
+  const pm = heldAtStack(pm0);
   const f = new Float64Array(pm.model.fixed.length);
   for (const { site, bolts } of bySite) {
     if (!bolts.length) continue;
