@@ -19,20 +19,10 @@ import { buildFrame, type Frame } from '../../geometry/index.js';
 import { DesignError } from '../../params/errors.js';
 import type { Design } from '../../params/design.js';
 import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
-import { runDxfCheck } from './checkDxf.js';
+import { runDxfCheck, type DxfCheckFlags } from './checkDxf.js';
 
-export type CheckCliOptions = {
-  json?: boolean;
-  annotate?: string;
-  relieveCorners?: boolean;
-  tool?: string;
-  limit?: string[];
-  /** DXF input only (see checkDxf.ts). */
-  thickness?: string;
-  material?: string;
-  units?: string;
-  layers?: string;
-};
+/** Flags of `check`; thickness, material, units and layers apply to DXF input only (checkDxf.ts). */
+export type CheckCliOptions = DxfCheckFlags;
 
 /** What `check` works on. The DXF import adds a branch here (a `.dxf` path gives parts without a frame). */
 type CheckInput = Readonly<{ kind: 'design'; design: Design }>;
