@@ -6,6 +6,7 @@ import { DesignError } from '../params/errors.js';
 /** Bad usage or input: printed without a stack trace, exit code 2. */
 export class UsageError extends Error {}
 
+/** A text file's contents; a missing or unreadable file is a UsageError naming it. */
 export function readText(path: string): string {
   try {
     return readFileSync(path, 'utf8');

@@ -33,6 +33,7 @@ export function cornerIndices(loop: Loop, side: CornerSide): number[] {
   return out;
 }
 
+/** Indices of the segments that end at an inside corner (see cornerIndices). */
 export const insideCornerIndices = (loop: Loop): number[] => cornerIndices(loop, 'inside');
 
 /**

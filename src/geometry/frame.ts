@@ -81,6 +81,7 @@ function standoffHoles(d: Design): SourcedFeature[] {
   return d.body.standoffs.positionsMm.map((p, i) => screwHole(d, p, d.body.standoffs.boltSize, 'standoff', `body.standoffs.positionsMm.${i}`));
 }
 
+/** Centre of stack mount i on the bottom plate (frame coordinates, mm). */
 export function stackCentre(d: Design, i: number): Vec2 {
   const s = d.stacks[i];
   const x = typeof s.place === 'number' ? s.place : s.place === 'front' ? d.body.lengthMm / 4 : s.place === 'rear' ? -d.body.lengthMm / 4 : 0;

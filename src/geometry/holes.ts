@@ -14,6 +14,7 @@ export function screwHole(d: Design, center: Vec2, screw: ScrewSize, purpose: Fe
   return { loop: circle(center, dia / 2, false), kind: 'hole', purpose, screw, centerMm: center, diameterMm: dia, sourcePath };
 }
 
+/** A round hole of a given diameter that no screw sizes (e.g. a motor bore). */
 export function plainHole(center: Vec2, diameterMm: number, purpose: FeaturePurpose, sourcePath: string): SourcedFeature {
   return { loop: circle(center, diameterMm / 2, false), kind: 'hole', purpose, centerMm: center, diameterMm, sourcePath };
 }

@@ -63,6 +63,7 @@ function inCircularSegment(s: Arc, p: Vec2): boolean {
   return side(p) * side(m) > 0;
 }
 
+/** Is p inside the loop (non-zero winding)? Boundary points: either answer. */
 export const isInside = (loop: Loop, p: Vec2): boolean => windingNumber(loop, p) !== 0;
 
 /** Shortest distance from p to the loop's boundary. mm. */

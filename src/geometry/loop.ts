@@ -10,18 +10,22 @@ export function signedArea(loop: Loop): number {
   return a;
 }
 
+/** Length of the whole loop (mm). */
 export const loopLength = (loop: Loop): number => loop.reduce((acc, s) => acc + lengthOf(s), 0);
 
+/** Exact bounding box of the loop, arc extremes included (mm). */
 export function loopBBox(loop: Loop): BBox {
   let b: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
   for (const s of loop) b = unionBBox(b, segmentBBox(s)) as [number, number, number, number];
   return b;
 }
 
+/** Smallest box holding both boxes. */
 export function unionBBox(a: BBox, b: BBox): BBox {
   return [Math.min(a[0], b[0]), Math.min(a[1], b[1]), Math.max(a[2], b[2]), Math.max(a[3], b[3])];
 }
 
+/** The loop walked the other way (orientation flips). */
 export function reverseLoop(loop: Loop): Loop {
   return loop.map(reverseSegment).reverse();
 }
@@ -43,6 +47,7 @@ export function maxChainGap(loop: Loop): { gapMm: number; at: Vec2 } {
   return worst;
 }
 
+/** Does every segment end where the next starts, within gapMm? */
 export const isClosed = (loop: Loop, gapMm = CHAIN_GAP_MM): boolean => loop.length > 0 && maxChainGap(loop).gapMm <= gapMm;
 
 /** A full circle stored as one arc: its centre and radius, else null. */
@@ -68,6 +73,7 @@ export function transformPoint(p: Vec2, t: Transform): Vec2 {
   return add(rotVec(m, t.rotateRad), t.translate);
 }
 
+/** The segment mirrored, rotated and moved by t (see transformPoint). */
 export function transformSegment(s: Segment, t: Transform): Segment {
   switch (s.kind) {
     case 'line':

@@ -8,6 +8,7 @@ export const partArea = (p: Part): number => signedArea(p.outline) + p.features.
 /** Total length of every contour as drawn (not the tool-centre path). mm. */
 export const partCutLength = (p: Part): number => loopLength(p.outline) + p.features.reduce((a, f) => a + loopLength(f.loop), 0);
 
+/** Bounding box of the part, every contour included (mm). */
 export const partBBox = (p: Part): BBox => p.features.reduce((b, f) => unionBBox(b, loopBBox(f.loop)), loopBBox(p.outline));
 
 /** Mass of one copy: area × thickness × density. g. */

@@ -2,8 +2,10 @@ import { CHORD_TOL_MM } from './tolerance.js';
 import { assertNever, type Arc, type BBox, type Line, type Segment, type Vec2 } from './types.js';
 import { add, cross, dist, dot, len, normAngle, polar, sub } from './vec.js';
 
+/** A straight segment from start to end (mm). */
 export const line = (start: Vec2, end: Vec2): Line => ({ kind: 'line', start, end });
 
+/** A circular arc (mm, rad; positive sweep counter-clockwise). */
 export const arc = (center: Vec2, radius: number, startRad: number, sweepRad: number): Arc => ({
   kind: 'arc',
   center,
@@ -24,9 +26,12 @@ export function pointAt(s: Segment, t: number): Vec2 {
   }
 }
 
+/** Where the segment starts. */
 export const startOf = (s: Segment): Vec2 => (s.kind === 'line' ? s.start : pointAt(s, 0));
+/** Where the segment ends. */
 export const endOf = (s: Segment): Vec2 => (s.kind === 'line' ? s.end : pointAt(s, 1));
 
+/** Length along the segment (mm). */
 export function lengthOf(s: Segment): number {
   switch (s.kind) {
     case 'line':
@@ -56,6 +61,7 @@ export function tangentAt(s: Segment, t: number): Vec2 {
   }
 }
 
+/** The same segment walked the other way. */
 export function reverseSegment(s: Segment): Segment {
   switch (s.kind) {
     case 'line':

@@ -18,6 +18,7 @@ export type Loop = readonly Segment[];
 
 export type BBox = readonly [minX: number, minY: number, maxX: number, maxY: number];
 
+/** For the default branch of an exhaustive switch: reaching it is a bug. */
 export function assertNever(x: never): never {
   throw new Error(`unexpected value: ${JSON.stringify(x)}`);
 }

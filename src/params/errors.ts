@@ -9,6 +9,7 @@ export class DesignError extends Error {
   }
 }
 
+/** One issue as a line: "path: value message". */
 export function formatIssue(i: DesignIssue): string {
   const full = i.value === undefined ? '(missing)' : JSON.stringify(i.value);
   // A whole file pasted where a value belongs (a DXF given as a design) must not flood the terminal.
@@ -16,5 +17,6 @@ export function formatIssue(i: DesignIssue): string {
   return `${i.path || '(design)'}: ${shown} ${i.message}`;
 }
 
+/** A DesignError with a single issue. */
 export const designError = (path: string, value: unknown, message: string): DesignError =>
   new DesignError([{ path, value, message }]);

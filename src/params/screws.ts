@@ -12,6 +12,7 @@ const ISO_273: Record<ScrewSize, Record<HoleSeries, number>> = {
   M5: { fine: 5.3, medium: 5.5, coarse: 5.8 },
 };
 
+/** ISO 273 clearance hole for the screw in the series (mm). */
 export const clearanceHoleMm = (screw: ScrewSize, series: HoleSeries): number => ISO_273[screw][series];
 
 /** Nominal thread diameter, mm. */
@@ -22,4 +23,5 @@ export const nominalDiameterMm = (screw: ScrewSize): number => Number(screw.slic
  * ISO 10642 for M3 and up (M5 value from memory; the others from the standards' tables).
  */
 const COUNTERSUNK_HEAD_MM: Record<ScrewSize, number> = { M2: 4.4, 'M2.5': 5.5, M3: 6.72, M4: 8.96, M5: 11.2 };
+/** Head diameter of a flush 90° countersunk screw (mm). */
 export const countersunkHeadMm = (screw: ScrewSize): number => COUNTERSUNK_HEAD_MM[screw];

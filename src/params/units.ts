@@ -6,7 +6,9 @@ export const MM_PER_INCH = 25.4;
 /** 1/8 inch end mill, the commonest router bit for plate frames. */
 export const EIGHTH_INCH_MM = MM_PER_INCH / 8;
 
+/** Degrees to radians. */
 export const degToRad = (deg: number): number => (deg * Math.PI) / 180;
+/** Radians to degrees. */
 export const radToDeg = (rad: number): number => (rad * 180) / Math.PI;
 
 /**
