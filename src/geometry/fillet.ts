@@ -1,6 +1,7 @@
 import type { Loop, Segment, Vec2 } from './types.js';
 import { arc, closestPoint, endOf, startOf, subSegment, tangentAt } from './segment.js';
 import { SMOOTH_JOINT_RAD } from './tolerance.js';
+import { carrierHits, type Carrier } from './carriers.js';
 import { cross, dist, dot, normAngle, sub } from './vec.js';
 
 export class FilletError extends Error {
@@ -118,8 +119,6 @@ function filletCentres(a: Segment, b: Segment, r: number, corner: Vec2): Vec2[] 
   return intersectOffsets(offsetRight(a, r), offsetRight(b, r)).sort((p, q) => dist(p, corner) - dist(q, corner));
 }
 
-type Carrier = { kind: 'line'; p: Vec2; d: Vec2 } | { kind: 'circle'; c: Vec2; r: number };
-
 function offsetRight(s: Segment, r: number): Carrier | null {
   if (s.kind === 'line') {
     const t = tangentAt(s, 0);
@@ -131,39 +130,4 @@ function offsetRight(s: Segment, r: number): Carrier | null {
   return { kind: 'circle', c: s.center, r: rr };
 }
 
-function intersectOffsets(x: Carrier | null, y: Carrier | null): Vec2[] {
-  if (!x || !y) return [];
-  if (x.kind === 'line' && y.kind === 'line') {
-    const den = cross(x.d, y.d);
-    if (Math.abs(den) < 1e-15) return [];
-    const t = cross(sub(y.p, x.p), y.d) / den;
-    return [[x.p[0] + x.d[0] * t, x.p[1] + x.d[1] * t]];
-  }
-  if (x.kind === 'circle' && y.kind === 'line') return lineCircle(y.p, y.d, x.c, x.r);
-  if (x.kind === 'line' && y.kind === 'circle') return lineCircle(x.p, x.d, y.c, y.r);
-  if (x.kind === 'circle' && y.kind === 'circle') return circleCircle(x.c, x.r, y.c, y.r);
-  return [];
-}
-
-function lineCircle(p: Vec2, d: Vec2, c: Vec2, r: number): Vec2[] {
-  const f = sub(p, c);
-  const b = dot(f, d);
-  const disc = b * b - (dot(f, f) - r * r);
-  if (disc < 0) return [];
-  const s = Math.sqrt(disc);
-  return [-b - s, -b + s].map((t) => [p[0] + d[0] * t, p[1] + d[1] * t] as Vec2);
-}
-
-function circleCircle(c0: Vec2, r0: number, c1: Vec2, r1: number): Vec2[] {
-  const d = dist(c0, c1);
-  if (d < 1e-12 || d > r0 + r1 || d < Math.abs(r0 - r1)) return [];
-  const x = (d * d + r0 * r0 - r1 * r1) / (2 * d);
-  const h = Math.sqrt(Math.max(0, r0 * r0 - x * x));
-  const ex: Vec2 = [(c1[0] - c0[0]) / d, (c1[1] - c0[1]) / d];
-  const base: Vec2 = [c0[0] + ex[0] * x, c0[1] + ex[1] * x];
-  return [
-    [base[0] - ex[1] * h, base[1] + ex[0] * h],
-    [base[0] + ex[1] * h, base[1] - ex[0] * h],
-  ];
-}
-
+const intersectOffsets = (x: Carrier | null, y: Carrier | null): Vec2[] => (x && y ? carrierHits(x, y) : []);

@@ -16,3 +16,4 @@ export * from './holes.js';
 export * from './arm.js';
 export * from './frame.js';
 export * from './metrics.js';
+export * from './carriers.js';

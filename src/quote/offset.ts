@@ -3,6 +3,9 @@ import {
   arc,
   asCircle,
   assertNever,
+  carrierHits,
+  carrierOf,
+  pointAt,
   endOf,
   flattenLoop,
   line,
@@ -88,16 +91,10 @@ function offsetSegment(s: Segment, d: number): Segment | null {
   }
 }
 
-const pieceStart = (p: Piece): Vec2 => at(p.seg, p.t0);
-const pieceEnd = (p: Piece): Vec2 => at(p.seg, p.t1);
+const pieceStart = (p: Piece): Vec2 => pointAt(p.seg, p.t0);
+const pieceEnd = (p: Piece): Vec2 => pointAt(p.seg, p.t1);
 
 /** Point on the carrier at any parameter (lines and arcs extend beyond [0, 1]). */
-function at(s: Segment, t: number): Vec2 {
-  if (s.kind === 'line') return [s.start[0] + (s.end[0] - s.start[0]) * t, s.start[1] + (s.end[1] - s.start[1]) * t];
-  const a = s.startRad + s.sweepRad * t;
-  return [s.center[0] + s.radius * Math.cos(a), s.center[1] + s.radius * Math.sin(a)];
-}
-
 /** Parameter of a point on the carrier; for arcs the turn nearest `near`. */
 function paramOf(s: Segment, p: Vec2, near: number): number {
   if (s.kind === 'line') {
@@ -108,49 +105,6 @@ function paramOf(s: Segment, p: Vec2, near: number): number {
   const base = (ang - s.startRad) / s.sweepRad;
   const period = (2 * Math.PI) / Math.abs(s.sweepRad);
   return base + Math.round((near - base) / period) * period;
-}
-
-/** Meeting points of two carriers (infinite lines, full circles). */
-function carrierHits(a: Segment, b: Segment): Vec2[] {
-  if (a.kind === 'line' && b.kind === 'line') {
-    const r = sub(a.end, a.start);
-    const s = sub(b.end, b.start);
-    const den = cross(r, s);
-    if (Math.abs(den) < 1e-14 * dot(r, r) * dot(s, s)) return [];
-    const t = cross(sub(b.start, a.start), s) / den;
-    return [at(a, t)];
-  }
-  if (a.kind === 'arc' && b.kind === 'arc') return circleCircle(a, b);
-  const l = (a.kind === 'line' ? a : b) as Extract<Segment, { kind: 'line' }>;
-  const c = (a.kind === 'arc' ? a : b) as Arc;
-  const d = sub(l.end, l.start);
-  const f = sub(l.start, c.center);
-  const A = dot(d, d);
-  const B = 2 * dot(f, d);
-  const C = dot(f, f) - c.radius * c.radius;
-  let disc = B * B - 4 * A * C;
-  if (disc < 0) {
-    // A tangent meeting that rounding pushed apart still counts as one point.
-    if (disc > -1e-9 * B * B) disc = 0;
-    else return [];
-  }
-  const sq = Math.sqrt(disc);
-  return [at(l, (-B - sq) / (2 * A)), at(l, (-B + sq) / (2 * A))];
-}
-
-function circleCircle(a: Arc, b: Arc): Vec2[] {
-  const d = dist(a.center, b.center);
-  if (d < 1e-12) return [];
-  const x = (d * d + a.radius * a.radius - b.radius * b.radius) / (2 * d);
-  const h2 = a.radius * a.radius - x * x;
-  if (h2 < -1e-9 * a.radius * a.radius) return [];
-  const h = Math.sqrt(Math.max(0, h2));
-  const ex: Vec2 = [(b.center[0] - a.center[0]) / d, (b.center[1] - a.center[1]) / d];
-  const base: Vec2 = [a.center[0] + ex[0] * x, a.center[1] + ex[1] * x];
-  return [
-    [base[0] - ex[1] * h, base[1] + ex[0] * h],
-    [base[0] + ex[1] * h, base[1] - ex[0] * h],
-  ];
 }
 
 /** The exact offset, or null when the construction cannot close (the caller falls back). */
@@ -181,7 +135,7 @@ function exactOffset(loop: Loop, d: number): Loop | null {
       const e = pieceEnd(a);
       const s = pieceStart(b);
       if (dist(e, s) <= 1e-9) continue;
-      const hits = carrierHits(a.seg, b.seg);
+      const hits = carrierHits(carrierOf(a.seg), carrierOf(b.seg));
       if (hits.length === 0) return null;
       const mid: Vec2 = [(e[0] + s[0]) / 2, (e[1] + s[1]) / 2];
       const p = hits.reduce((best, h) => (dist(h, mid) < dist(best, mid) ? h : best));
@@ -218,7 +172,7 @@ function pieceLength(p: Piece): number {
 
 function toSegment(p: Piece): Segment {
   const s = p.seg;
-  if (s.kind === 'line') return line(at(s, p.t0), at(s, p.t1));
+  if (s.kind === 'line') return line(pointAt(s, p.t0), pointAt(s, p.t1));
   return arc(s.center, s.radius, s.startRad + s.sweepRad * p.t0, s.sweepRad * (p.t1 - p.t0));
 }
 
