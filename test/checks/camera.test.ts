@@ -1,3 +1,4 @@
+import { rng } from '../helpers/random.js';
 import { describe, expect, it } from 'vitest';
 import { buildFrame } from '../../src/geometry/index.js';
 import { validateDesign } from '../../src/params/index.js';
@@ -63,17 +64,6 @@ describe('camera-view rule on a design', () => {
 });
 
 describe('view margin against sampling the disc through a projection (seeded)', () => {
-  /** mulberry32 */
-  function rng(seed: number): () => number {
-    let a = seed >>> 0;
-    return () => {
-      a = (a + 0x6d2b79f5) >>> 0;
-      let t = a;
-      t = Math.imul(t ^ (t >>> 15), t | 1);
-      t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-      return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-    };
-  }
   /** Is a point seen: rotate into camera axes (pitch by the uptilt) and project onto the image plane. */
   function seen(pose: CameraPose, p: readonly [number, number, number]): boolean {
     const d = [p[0] - pose.eyeMm[0], p[1] - pose.eyeMm[1], p[2] - pose.eyeMm[2]];

@@ -1,3 +1,4 @@
+import { rng } from '../helpers/random.js';
 import { describe, expect, it } from 'vitest';
 import { segmentDistance } from '../../src/geometry/distance.js';
 import { arc, line, pointAt } from '../../src/geometry/segment.js';
@@ -5,17 +6,6 @@ import type { BBox, Segment } from '../../src/geometry/types.js';
 import { dist } from '../../src/geometry/vec.js';
 import { buildBoxGrid, queryBoxGrid } from '../../src/checks/spatial.js';
 
-/** Small seeded generator (mulberry32) so failures reproduce. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 function randomSegment(r: () => number): Segment {
   if (r() < 0.4) return line([r() * 40 - 20, r() * 40 - 20], [r() * 40 - 20, r() * 40 - 20]);

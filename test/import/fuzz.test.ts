@@ -1,18 +1,8 @@
+import { rng } from '../helpers/random.js';
 import { describe, expect, it } from 'vitest';
 import { DxfReadError, importDxf } from '../../src/import/index.js';
 import { fixtureText } from './helpers.js';
 
-/** mulberry32: a small seeded generator, so a failing case can be replayed from its seed. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const SOURCES = ['line-arc-plate.dxf', 'bulge-arm-r12.dxf', 'blocks.dxf', 'splines.dxf', 'duplicate.dxf', 'annotation.dxf'].map(fixtureText);
 const NASTY = ['', '-1', '0', '1e308', '-1e308', 'NaN', '1e-320', '999999999', 'SECTION', 'ENDSEC', 'EOF', 'INSERT', 'POLYLINE', 'VERTEX', 'SEQEND', 'BLOCK', 'ENDBLK', '\u0000', 'é', '3.5', '100000'];
