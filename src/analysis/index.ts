@@ -9,3 +9,4 @@ export * from './solve.js';
 export * from './describe.js';
 export * from './statics.js';
 export * from './modes.js';
+export * from './rotation.js';

@@ -1,16 +1,19 @@
-import { checkOptions, propClearanceRule, propDiscs } from '../checks/index.js';
+import { checkFrame, checkOptions, propClearanceRule, propDiscs, type CheckReport, type Finding } from '../checks/index.js';
 import { buildFrame, type Frame } from '../geometry/frame.js';
 import { motorSites, wheelbaseOf } from '../geometry/layout.js';
 import { partMassG } from '../geometry/metrics.js';
 import { parseDesignText, type Design } from '../params/design.js';
 import { DesignError } from '../params/errors.js';
+import { PROP_TABLE_RANGE_IN } from '../params/motorTable.js';
+import { motorBoreMm } from '../params/derived.js';
 import { MM_PER_INCH, parseLengthMm } from '../params/units.js';
 import { editDesignText, realChanges, type Change } from './changes.js';
-import { VariantRequestError } from './errors.js';
+import { VariantRefusal, VariantRequestError } from './errors.js';
 import { ceilToStep, minTipGapMm, minWheelbaseMm, scaledLayout } from './layoutScale.js';
 import { chooseMotor, type MotorChoice } from './motor.js';
-import { sizeArms, type ArmSizing } from './stiffness.js';
-import { bodyKeptWheelbaseMm, fitBody, fitBodyWidthForH, requiredBodyClearanceMm, type BodyFit } from './body.js';
+import { withRootRoom } from './rootRoom.js';
+import { armSections, armWidthParams, measureArms, MAX_WIDTH_FACTOR, ruleLines, sizeRule, STOCK_THICKNESSES_MM, withArmSize, type ArmSection, type RuleMeasure, type SizeRule } from './sizeRule.js';
+import { bodyKeptWheelbaseMm, fitBody, requiredBodyClearanceMm, type BodyFit } from './body.js';
 
 /** What the user asks for. Lengths in mm; `props` as written ("7in", "178mm"). */
 export type VariantRequest = Readonly<{
@@ -19,24 +22,47 @@ export type VariantRequest = Readonly<{
   wheelbase?: 'auto' | number;
   /** Auto wheelbase is rounded up to a multiple of this (0: exact). mm. Default 1. */
   wheelbaseStepMm?: number;
-  /** Motor size class ("2207", "22xx", "20xx-24xx") or "auto"; omitted keeps the motor. */
+  /** "auto" (default: from the prop-size table), "keep", or a motor size class ("2207", "22xx", "20xx-24xx"). */
   motor?: string;
 }>;
 
 /** Auto wheelbases are rounded up to whole millimetres unless asked otherwise. mm. */
 export const DEFAULT_WHEELBASE_STEP_MM = 1;
 
+/** The resolution of an "exact" (step 0) auto wheelbase. mm. */
+const EXACT_STEP_MM = 1e-6;
+
+/** Arm sections built and checked before the variant is refused (lightest first). */
+const MAX_CHECKED_SECTIONS = 4;
+
+/** The arm rule's outcome. */
+export type ArmResult = Readonly<{
+  rule: SizeRule;
+  section: ArmSection;
+  /** The variant's arms (after rounding, root moves and fillet easing) against the rule. */
+  measure: RuleMeasure;
+  /** The source's arms against the same rule (its own f1 and its deflection under the new thrust). */
+  sourceMeasure: RuleMeasure;
+  /** Root reach of separate arms, source and variant (moved out when wider roots need the room). mm. */
+  rootReachMm: readonly [number, number] | null;
+  /** Sections checked before one passed. */
+  tried: number;
+  lines: readonly string[];
+}>;
+
 export type VariantResult = Readonly<{
   /** The new design file (YAML; comments and key order of the source kept). */
   text: string;
   design: Design;
   frame: Frame;
+  /** Every check on the variant (0 errors: a variant is only returned when it passes). */
+  report: CheckReport;
   sourceDesign: Design;
   sourceFrame: Frame;
   propDiameterMm: number;
-  wheelbase: Readonly<{ minimumMm: number; bodyKeptMm: number; bound: 'tip gap' | 'body clearance' | 'requested'; chosenMm: number; stepMm: number; requestedGapMm: number; achievedGapMm: number; sourceMm: number }>;
+  wheelbase: WheelbaseChoice & Readonly<{ achievedGapMm: number }>;
   motor: MotorChoice;
-  arms: ArmSizing;
+  arms: ArmResult;
   body: BodyFit;
   /** Every edit made to the design file (only real changes). */
   changes: readonly Change[];
@@ -47,12 +73,17 @@ export type VariantResult = Readonly<{
 /** Total mass of every plate copy. g. */
 export const frameMassG = (f: Frame): number => f.parts.reduce((a, p) => a + partMassG(p) * p.quantity, 0);
 
-/** Prop diameter text as the user wrote it → mm, with the range the design file allows. */
+/** Prop sizes a variant may take: the prop-size table's range. mm. */
+export const VARIANT_PROP_RANGE_MM = [PROP_TABLE_RANGE_IN[0] * MM_PER_INCH, PROP_TABLE_RANGE_IN[1] * MM_PER_INCH] as const;
+
+/** Prop diameter text as the user wrote it → mm, within the prop-size table's 1 to 13 in. Throws VariantRequestError. */
 export function parsePropsOption(text: string): number {
   const mm = parseLengthMm(text);
   if (mm === null) throw new VariantRequestError('--props', text, 'is not a length; write it with a unit, e.g. 7in, 5.1in or 178mm');
-  if (mm < 25 || mm > 600) {
-    throw new VariantRequestError('--props', text, `is ${mm} mm, outside 25 to 600 mm (1 to 23.6 in)${/^\s*[0-9.]+\s*$/.test(text) ? '; a bare number is millimetres, write 7in for inches' : ''}`);
+  const [lo, hi] = VARIANT_PROP_RANGE_MM;
+  if (mm < lo - 0.01 || mm > hi + 0.01) {
+    const bare = /^\s*[0-9.]+\s*$/.test(text) ? '; a bare number is millimetres, write 7in for inches' : '';
+    throw new VariantRequestError('--props', text, `is ${Number(mm.toFixed(2))} mm (${Number((mm / MM_PER_INCH).toFixed(2))} in), outside ${PROP_TABLE_RANGE_IN[0]} to ${PROP_TABLE_RANGE_IN[1]} in (${lo} to ${hi} mm)${bare}`);
   }
   return mm;
 }
@@ -86,36 +117,122 @@ export function variantName(name: string, propsText: string): string {
   return `${base} (${propsText.trim()})`;
 }
 
+/** Design text and its parsed design after some edits; the edits are collected. */
+type Draft = Readonly<{ text: string; design: Design; changes: readonly Change[] }>;
+
+function applyEdits(draft: Draft, cs: readonly Change[]): Draft {
+  const text = editDesignText(draft.text, cs);
+  return { text, design: parseDesignText(text, 'variant'), changes: [...draft.changes, ...realChanges(cs)] };
+}
+
+/** Merge repeated edits of one key (the fillet steps) into one row: first old, last new. */
+function mergedChanges(changes: readonly Change[]): Change[] {
+  const merged = new Map<string, Change>();
+  for (const c of changes) {
+    const key = c.path.join('.');
+    const prev = merged.get(key);
+    merged.set(key, prev ? { ...c, old: prev.old } : c);
+  }
+  return realChanges([...merged.values()]);
+}
+
 /**
- * Make a size variant of a design: new props, wheelbase from the tip gap, motor from the table when
- * asked, arms by the stiffness rule, body only where the new prop clearances need it; hardware kept.
- * Pure: text in, text and data out. Throws VariantRequestError for impossible requests and
- * DesignError when the source is invalid or the variant cannot be built.
+ * Build, easing the root fillet in 0.5 mm steps (never below the router bit's radius: an inside
+ * corner cannot be sharper) when a resized arm has no room for it. Throws the DesignError when the
+ * fillet is not at fault or cannot go lower.
+ */
+function buildEasingFillet(draft: Draft): { draft: Draft; frame: Frame } {
+  const minFillet = ceilToStep(draft.design.cutting.toolDiameterMm / 2, 0.5);
+  let cur = draft;
+  for (;;) {
+    try {
+      return { draft: cur, frame: buildFrame(cur.design) };
+    } catch (e) {
+      if (!(e instanceof DesignError)) throw e;
+      const next = cur.design.arms.rootFilletMm - 0.5;
+      if (!e.issues.some((i) => i.path === 'arms.rootFilletMm') || next < minFillet) throw e;
+      cur = applyEdits(cur, [{ path: ['arms', 'rootFilletMm'], old: cur.design.arms.rootFilletMm, new: next, why: `the resized arm has no room for a ${cur.design.arms.rootFilletMm} mm fillet (kept ≥ bit radius ${minFillet} mm)` }]);
+    }
+  }
+}
+
+/** The edits that give the design an arm section (widths, plate thickness, root reach). */
+function sectionChanges(d: Design, placed: Design, s: ArmSection, rule: SizeRule, wantedBoreMm: number): Change[] {
+  const why = `arm size rule: f1 ≥ ${rule.requiredHz.toFixed(1)} Hz, tip deflection ≤ ${s.measure.allowedDeflectionMm.toFixed(2)} mm; lightest passing section`;
+  const out: Change[] = armWidthParams(d).map((p, i) => ({ path: p.path, old: p.value, new: s.widths[i], why }));
+  if (d.arms.construction === 'separate') {
+    out.push({ path: ['arms', 'thicknessMm'], old: d.arms.thicknessMm, new: s.thicknessMm, why: `${why}; stocked sheet` });
+    out.push({ path: ['arms', 'weaveDeg'], old: d.arms.weaveDeg, new: s.weaveDeg, why: 'weave laid along the arm: stiffer for its mass (laminate theory)' });
+    if (placed.arms.construction === 'separate' && placed.arms.root.reachMm !== d.arms.root.reachMm) {
+      out.push({ path: ['arms', 'root', 'reachMm'], old: d.arms.root.reachMm, new: placed.arms.root.reachMm, why: `roots moved out so the wider arm roots keep clear of each other and of the other brace` });
+    }
+  } else {
+    out.push({ path: ['body', 'thicknessMm'], old: d.body.thicknessMm, new: s.thicknessMm, why: `${why}; stocked sheet (unibody arms are cut from the bottom plate)` });
+    out.push({ path: ['body', 'weaveDeg'], old: d.body.weaveDeg, new: s.weaveDeg, why: 'weave turned to lay the arms along the fibres: stiffer arms for their mass (laminate theory); the weave rule suggests the same angle' });
+  }
+  // The bore the motor wants, as large as the web rule allows on this plate (the derived default's rule).
+  const bore = motorBoreMm(d.motor.boltCircleMm, d.motor.boltSize, d.cutting.holeSeries, d.checks, s.thicknessMm, wantedBoreMm);
+  if (bore !== d.motor.boreMm) out.push({ path: ['motor', 'boreMm'], old: d.motor.boreMm, new: bore, why: `${wantedBoreMm} mm bore for the motor${bore < wantedBoreMm ? `, kept to ${bore} mm for the web rule's web to the bolt holes on the ${s.thicknessMm} mm plate` : ''}` });
+  return out;
+}
+
+const errorsOf = (r: CheckReport): Finding[] => r.findings.filter((f) => f.severity === 'error');
+const findingText = (f: Finding): string => `${f.rule}${f.part ? ` on ${f.part}` : ''}: ${f.message}`;
+
+/**
+ * Make a size variant of a design: new props; motor from the prop-size table (unless kept or
+ * named); wheelbase from the tip gap and the props' clearance; body only where a given wheelbase
+ * needs it; arms by the size rule, lightest passing section first; hardware kept. Every check runs
+ * on the result and has the last word. Pure: text in, text and data out.
+ * Throws VariantRequestError for impossible requests (bad input), VariantRefusal when no variant
+ * passes every check (naming the constraint and the nearest valid alternative), DesignError when
+ * the source is invalid.
  */
 export function makeVariant(sourceText: string, req: VariantRequest, sourceName = 'design'): VariantResult {
+  return variantOrRefusal(sourceText, req, sourceName, true);
+}
+
+/** Wheelbase outcome: the minimum for the tip gap, the least that keeps the body, what set it, and the result. mm. */
+export type WheelbaseChoice = Readonly<{ minimumMm: number; bodyKeptMm: number; bound: 'tip gap' | 'body clearance' | 'requested'; chosenMm: number; stepMm: number; requestedGapMm: number; sourceMm: number }>;
+
+/** The first steps of a variant (props and name, motor, wheelbase, body), before the arms are sized. */
+export type VariantPlan = Readonly<{
+  source: Design;
+  sourceFrame: Frame;
+  propMm: number;
+  propsText: string;
+  motor: MotorChoice;
+  wheelbase: WheelbaseChoice;
+  body: BodyFit;
+  /** The design file so far: `text`, its `design`, and the changes made. */
+  text: string;
+  design: Design;
+  changes: readonly Change[];
+}>;
+
+/**
+ * Props, name and motor; wheelbase from the tip gap and the props' clearance (layout shape kept);
+ * the body only where a given wheelbase needs it. The arms are as in the source. Throws
+ * VariantRequestError for impossible requests.
+ */
+export function planVariant(sourceText: string, req: VariantRequest, sourceName = 'design'): VariantPlan {
   const source = parseDesignText(sourceText, sourceName);
   const sourceFrame = buildFrame(source);
-  let text = sourceText;
   const propMm = parsePropsOption(req.props);
   const step = req.wheelbaseStepMm ?? DEFAULT_WHEELBASE_STEP_MM;
   if (!(step >= 0) || step > 50) throw new VariantRequestError('--wheelbase-step', step, 'must be from 0 (exact) to 50 mm');
-  const changes: Change[] = [];
-  const edit = (cs: readonly Change[]): Design => {
-    text = editDesignText(text, cs);
-    changes.push(...realChanges(cs));
-    return parseDesignText(text, 'variant');
-  };
+  const propsText = req.props.trim();
 
   // 1. Props, name and motor.
   const motor = chooseMotor(source, req.motor, propMm);
-  const propsText = req.props.trim();
-  let cur = edit([
+  let draft = applyEdits({ text: sourceText, design: source, changes: [] }, [
     { path: ['name'], old: source.name, new: variantName(source.name, propsText), why: 'names the size' },
     { path: ['props', 'diameter'], old: source.props.diameter, new: propsText, why: `requested (${(propMm / MM_PER_INCH).toFixed(2)} in = ${propMm.toFixed(1)} mm)` },
     ...motor.changes,
   ]);
 
   // 2. Wheelbase: the tip gap, and (auto) the props' clearance to the body hardware, layout shape kept.
+  const cur = draft.design;
   const gap = cur.props.minTipGapMm;
   const minimumMm = minWheelbaseMm(cur, propMm, gap);
   const bodyClearanceMm = requiredBodyClearanceMm(source, cur);
@@ -125,13 +242,14 @@ export function makeVariant(sourceText: string, req: VariantRequest, sourceName 
   let bound: 'tip gap' | 'body clearance' | 'requested';
   if (req.wheelbase === undefined || req.wheelbase === 'auto') {
     bound = bodyKeptMm > minimumMm ? 'body clearance' : 'tip gap';
-    chosenMm = ceilToStep(Math.max(minimumMm, bodyKeptMm), step);
+    // "Exact" (step 0) is written to the micrometre, rounded up, so float noise cannot put the gap a hair under.
+    chosenMm = ceilToStep(Math.max(minimumMm, bodyKeptMm), step > 0 ? step : EXACT_STEP_MM);
     wbWhy =
       bound === 'tip gap'
         ? `smallest keeping the ${gap} mm tip gap (${minimumMm.toFixed(2)} mm), rounded up to ${step} mm`
         : `smallest keeping the props ${bodyClearanceMm.toFixed(1)} mm clear of the standoffs and stack with the body kept (${bodyKeptMm.toFixed(2)} mm; tip gap alone: ${minimumMm.toFixed(2)} mm), rounded up to ${step} mm`;
-    // The checks' own prop-clearance rule has the last word (it also sees the camera side plates
-    // and the plates' heights): grow the wheelbase in steps until it finds no strike.
+    // The checks' own prop-clearance rule has the last word on the wheelbase (it also sees the
+    // camera side plates and the plates' heights): grow it in steps until the rule finds no strike.
     const raised = clearOfParts(cur, chosenMm, Math.max(step, 0.5));
     if (raised > chosenMm) {
       wbWhy += `; raised to ${raised} mm so no prop comes closer to a frame part than the prop-clearance rule allows`;
@@ -157,72 +275,196 @@ export function makeVariant(sourceText: string, req: VariantRequest, sourceName 
   } else if (L.kind !== 'asymmetric') {
     layoutChanges.push({ path: ['layout', 'wheelbaseMm'], old: L.wheelbaseMm, new: chosenMm, why: wbWhy });
   }
-  cur = edit(layoutChanges);
+  draft = applyEdits(draft, layoutChanges);
 
   // 3. Body: only what the new layout and prop clearances need.
-  cur = edit(fitBodyWidthForH(source, cur));
-  const body = fitBody(source, cur);
-  cur = edit(body.changes);
+  const body = fitBody(source, draft.design);
+  draft = applyEdits(draft, body.changes);
+  const wheelbase = { minimumMm, bodyKeptMm, bound, chosenMm, stepMm: step, requestedGapMm: gap, sourceMm: wheelbaseOf(sourceFrame.sites) };
+  return { source, sourceFrame, propMm, propsText, motor, wheelbase, body, ...draft };
+}
 
-  // 4. Arms by the stiffness rule.
-  // Buildable with the design's root fillet or a smaller one the build step below may fall back to.
-  const minFillet = ceilToStep(cur.cutting.toolDiameterMm / 2, 0.5);
-  const buildable = (d: Design): boolean => {
-    for (let f = d.arms.rootFilletMm; ; f -= 0.5) {
-      try {
-        buildFrame({ ...d, arms: { ...d.arms, rootFilletMm: f } });
-        return true;
-      } catch (e) {
-        if (!(e instanceof DesignError)) throw e;
-        if (!e.issues.some((i) => i.path === 'arms.rootFilletMm') || f - 0.5 < minFillet) return false;
-      }
+function variantOrRefusal(sourceText: string, req: VariantRequest, sourceName: string, withAlternatives: boolean): VariantResult {
+  const plan = planVariant(sourceText, req, sourceName);
+  const { source, sourceFrame, propMm, propsText, motor, body } = plan;
+  let draft: Draft = { text: plan.text, design: plan.design, changes: plan.changes };
+  let cur = draft.design;
+
+  // 4. Arms by the size rule; 5. every check has the last word.
+  const rule = sizeRule(source, propMm);
+  let sections = armSections(cur, rule, withRootRoom);
+  if (sections.length === 0) {
+    // Separate arms: the clamp moves out (the bottom plate's arm pads and the braces grow with it)
+    // to the smallest whole-millimetre root reach at which the rule can be met.
+    const moved = clampFurtherOut(cur, rule);
+    if (moved) {
+      draft = applyEdits(draft, [moved.change]);
+      cur = draft.design;
+      sections = moved.sections;
     }
-  };
-  const arms = sizeArms(source, source.motorMassG, cur, cur.motorMassG, buildable);
-  cur = edit(arms.changes);
-
-  // 5. Build. A slimmer arm may have no room for the source's root fillet: reduce it in 0.5 mm
-  // steps, never below the router bit's radius (an inside corner cannot be sharper).
-  let frame: Frame | null = null;
-  for (;;) {
+  }
+  if (sections.length === 0) {
+    throw new VariantRefusal(propsText, armRuleConstraint(cur, rule), withAlternatives ? armRuleAlternative(sourceText, req, sourceName, cur, rule) : 'none searched', null);
+  }
+  // The motor's own bore: the new class's when the motor changed, else the source's.
+  const wantedBore = motor.changes.length && motor.variantClass !== motor.sourceClass ? motor.variantClass.boreMm : source.motor.boreMm;
+  let accepted: { draft: Draft; frame: Frame; report: CheckReport; section: ArmSection; index: number } | null = null;
+  let firstFailure: { draft: Draft | null; report: CheckReport | null; problem: string } | null = null;
+  for (const [index, section] of sections.slice(0, MAX_CHECKED_SECTIONS).entries()) {
+    const placed = withRootRoom(withArmSize(cur, section.widths, section.thicknessMm, section.weaveDeg))!;
+    let built: { draft: Draft; frame: Frame };
     try {
-      frame = buildFrame(cur);
-      break;
+      built = buildEasingFillet(applyEdits(draft, sectionChanges(cur, placed, section, rule, wantedBore)));
     } catch (e) {
       if (!(e instanceof DesignError)) throw e;
-      const filletAtFault = e.issues.some((i) => i.path === 'arms.rootFilletMm');
-      const next = cur.arms.rootFilletMm - 0.5;
-      if (filletAtFault && next >= minFillet) {
-        cur = edit([{ path: ['arms', 'rootFilletMm'], old: cur.arms.rootFilletMm, new: next, why: `the resized arm has no room for a ${cur.arms.rootFilletMm} mm fillet (kept ≥ bit radius ${minFillet} mm)` }]);
-        continue;
-      }
-      const hint = body.factor < 1 ? `; the body had to be shortened to ${cur.body.lengthMm} mm for the props to clear its standoffs and stack, and its hardware no longer fits: give --wheelbase ${body.keepBodyWheelbaseMm} or more to keep the body` : '';
-      throw new VariantRequestError('--props', propsText, `gives a variant that cannot be built${hint}:\n${e.message}`);
+      firstFailure ??= { draft: null, report: null, problem: `the ${section.thicknessMm} mm arm cannot be built: ${e.message}` };
+      continue;
     }
+    const report = checkFrame(built.frame);
+    if (report.summary.errors === 0) {
+      accepted = { ...built, report, section, index };
+      break;
+    }
+    firstFailure ??= { draft: built.draft, report, problem: errorsOf(report).slice(0, 3).map(findingText).join('; ') };
   }
-  const design = cur;
-  // Merge repeated edits of one key (the fillet steps) into one row: first old, last new.
-  const merged = new Map<string, Change>();
-  for (const c of changes) {
-    const key = c.path.join('.');
-    const prev = merged.get(key);
-    merged.set(key, prev ? { ...c, old: prev.old } : c);
+  if (!accepted) {
+    const failure = firstFailure!;
+    const n = failure.report ? errorsOf(failure.report).length : 0;
+    const constraint = failure.report ? `every check (${n} error${n === 1 ? '' : 's'} on the lightest arm that meets the size rule: ${failure.problem})` : `a buildable arm (${failure.problem})`;
+    const attempt = failure.draft && failure.report ? { text: failure.draft.text, errors: failure.report.summary.errors, warnings: failure.report.summary.warnings } : null;
+    throw new VariantRefusal(propsText, constraint, withAlternatives ? checkAlternative(sourceText, req, sourceName, source, failure.report) : 'none searched', attempt);
   }
-  changes.length = 0;
-  changes.push(...realChanges([...merged.values()]));
+
+  const design = accepted.draft.design;
+  const frame = accepted.frame;
+  const measure = measureArms(design, rule);
+  const sourceMeasure = measureArms(source, rule);
+  const rootReachMm: readonly [number, number] | null = source.arms.construction === 'separate' && design.arms.construction === 'separate' ? [source.arms.root.reachMm, design.arms.root.reachMm] : null;
+  const beam = (m: RuleMeasure) => `L ${m.beam.lengthMm.toFixed(1)} mm, width ${m.beam.widthMm.toFixed(2)} mm, t ${m.beam.thicknessMm} mm, E ${m.beam.modulusGpa.toFixed(1)} GPa, motor ${m.beam.tipMassG} g`;
+  const lines = [
+    ...ruleLines(rule),
+    `  source  ${sourceMeasure.beam.site}: ${beam(sourceMeasure)} -> f1 ${sourceMeasure.frequencyHz.toFixed(1)} Hz`,
+    `  variant ${measure.beam.site}: ${beam(measure)} -> f1 ${measure.frequencyHz.toFixed(1)} Hz (>= ${rule.requiredHz.toFixed(1)}), deflection ${measure.deflectionMm.toFixed(3)} mm (<= ${measure.allowedDeflectionMm.toFixed(3)})`,
+    `  section: ${accepted.section.thicknessMm} mm, weave ${accepted.section.weaveDeg}°, width factor ${accepted.section.widthFactor.toFixed(3)}${accepted.index > 0 ? ` (the ${accepted.index} lighter section${accepted.index > 1 ? 's' : ''} failed a check)` : ''}${rootReachMm && rootReachMm[1] !== rootReachMm[0] ? `; arm roots moved out ${rootReachMm[0]} -> ${rootReachMm[1]} mm` : ''}`,
+  ];
   return {
-    text,
+    text: accepted.draft.text,
     design,
     frame,
+    report: accepted.report,
     sourceDesign: source,
     sourceFrame,
     propDiameterMm: propMm,
-    wheelbase: { minimumMm, bodyKeptMm, bound, chosenMm, stepMm: step, requestedGapMm: gap, achievedGapMm: minTipGapMm(frame.sites, propMm), sourceMm: wheelbaseOf(sourceFrame.sites) },
+    wheelbase: { ...plan.wheelbase, achievedGapMm: minTipGapMm(frame.sites, propMm) },
     motor,
-    arms,
+    arms: { rule, section: accepted.section, measure, sourceMeasure, rootReachMm, tried: accepted.index + 1, lines },
     body,
-    changes,
+    changes: mergedChanges(accepted.draft.changes),
     massG: frameMassG(frame),
     sourceMassG: frameMassG(sourceFrame),
   };
+}
+
+/**
+ * The smallest root reach (whole mm, above the design's) at which some arm section meets the rule,
+ * with the sections there; null for unibody arms or when none up to the roots' limit does. The
+ * rule gets easier as the clamp moves out (shorter free arm), so the reach is bisected.
+ */
+function clampFurtherOut(d: Design, rule: SizeRule): { change: Change; sections: ArmSection[] } | null {
+  const a = d.arms;
+  if (a.construction !== 'separate') return null;
+  const at = (reach: number): ArmSection[] => armSections({ ...d, arms: { ...a, root: { ...a.root, reachMm: reach } } }, rule, withRootRoom);
+  const limit = Math.floor(0.6 * Math.min(...motorSites(d).map((s) => s.motorAlongMm)) - (a.root.boltCount - 1) * a.root.boltSpacingMm - a.root.edgeMarginMm);
+  let lo = Math.floor(a.root.reachMm);
+  let hi = limit;
+  if (hi <= lo || at(hi).length === 0) return null;
+  while (hi - lo > 1) {
+    const mid = Math.floor((lo + hi) / 2);
+    if (at(mid).length) hi = mid;
+    else lo = mid;
+  }
+  return {
+    change: { path: ['arms', 'root', 'reachMm'], old: a.root.reachMm, new: hi, why: `arms clamped further out: with the roots at ${a.root.reachMm} mm no arm section meets the size rule; the bottom plate's arm pads and the braces grow with them` },
+    sections: at(hi),
+  };
+}
+
+/** What the stiffest allowed arm reaches, for the refusal. */
+function armRuleConstraint(d: Design, rule: SizeRule): string {
+  const t = STOCK_THICKNESSES_MM[STOCK_THICKNESSES_MM.length - 1];
+  const widths = armWidthParams(d).map((p) => Math.min(p.maxMm, MAX_WIDTH_FACTOR * p.value));
+  const placed = withRootRoom(withArmSize(d, widths, t));
+  const reach = placed ? measureArms(placed, rule) : null;
+  const what = reach
+    ? `the stiffest allowed arm (${t} mm, widths ${MAX_WIDTH_FACTOR} × the source's) reaches f1 ${reach.frequencyHz.toFixed(1)} Hz and deflects ${reach.deflectionMm.toFixed(3)} mm (allowed ${reach.allowedDeflectionMm.toFixed(3)} mm)`
+    : `the widest allowed arm roots (${MAX_WIDTH_FACTOR} × the source's) do not fit side by side`;
+  return `the arm size rule (f1 ≥ ${rule.requiredHz.toFixed(1)} Hz and tip deflection ≤ ${(100 * rule.allowedDeflectionRatio).toFixed(2)} % of the free length): ${what}`;
+}
+
+/** Nearest alternatives when no section meets the rule: the plate that would, the clamp that would, and the nearest prop size that passes. */
+function armRuleAlternative(sourceText: string, req: VariantRequest, sourceName: string, d: Design, rule: SizeRule): string {
+  const out: string[] = [];
+  const widths = armWidthParams(d).map((p) => Math.min(p.maxMm, MAX_WIDTH_FACTOR * p.value));
+  const meets = (t: number, dd: Design = d) => {
+    const placed = withRootRoom(withArmSize(dd, widths, t));
+    return placed !== null && measureArms(placed, rule).met;
+  };
+  if (meets(8)) {
+    let lo: number = STOCK_THICKNESSES_MM[STOCK_THICKNESSES_MM.length - 1];
+    let hi = 8;
+    for (let i = 0; i < 30; i++) {
+      const mid = (lo + hi) / 2;
+      if (meets(mid)) hi = mid;
+      else lo = mid;
+    }
+    out.push(`arms of ${ceilToStep(hi, 0.1)} mm plate at ${MAX_WIDTH_FACTOR} × the source's widths (thicker than the stocked ${STOCK_THICKNESSES_MM[STOCK_THICKNESSES_MM.length - 1]} mm)`);
+  }
+  if (d.arms.construction === 'separate') {
+    const a = d.arms;
+    for (let reach = a.root.reachMm + 1; reach < a.root.reachMm + 200; reach += 1) {
+      const moved: Design = { ...d, arms: { ...a, root: { ...a.root, reachMm: reach } } };
+      if (Math.min(...motorSites(moved).map((s) => s.motorAlongMm)) - reach < 2 * a.root.edgeMarginMm) break;
+      if (meets(STOCK_THICKNESSES_MM[STOCK_THICKNESSES_MM.length - 1], moved)) {
+        out.push(`arms clamped further out: arms.root.reachMm ${reach} mm (the body's arm pads and braces grow with it)`);
+        break;
+      }
+    }
+  }
+  const near = nearestPassingProps(sourceText, req, sourceName);
+  if (near) out.push(`props of ${near} with this design`);
+  return out.length ? out.join('; or ') : 'none found: change the arm style or the motor';
+}
+
+/** Nearest alternatives when every candidate fails a check. */
+function checkAlternative(sourceText: string, req: VariantRequest, sourceName: string, source: Design, report: CheckReport | null): string {
+  const out: string[] = [];
+  if (report) {
+    const sourceErrors = new Set(errorsOf(checkFrame(buildFrame(source))).map((f) => `${f.rule} ${f.part}`));
+    if (errorsOf(report).some((f) => sourceErrors.has(`${f.rule} ${f.part}`))) out.push('fix the source design first (`framewright check` finds the same errors there)');
+  }
+  if (typeof req.wheelbase === 'number') out.push('--wheelbase auto');
+  const near = nearestPassingProps(sourceText, req, sourceName);
+  if (near) out.push(`props of ${near} with this design`);
+  return out.length ? out.join('; or ') : 'none found nearby';
+}
+
+/**
+ * The prop size nearest the requested one, in 0.5 in steps towards the source's size, whose variant
+ * passes every check; null when none does (not even the source's own size).
+ */
+function nearestPassingProps(sourceText: string, req: VariantRequest, sourceName: string): string | null {
+  const want = parsePropsOption(req.props) / MM_PER_INCH;
+  const have = parseDesignText(sourceText, sourceName).props.diameterMm / MM_PER_INCH;
+  const dir = have < want ? -1 : 1;
+  for (let k = 1; k <= 24; k++) {
+    const inches = Math.round((want + dir * 0.5 * k) * 2) / 2;
+    if ((dir < 0 && inches < have) || (dir > 0 && inches > have) || inches < PROP_TABLE_RANGE_IN[0]) break;
+    try {
+      variantOrRefusal(sourceText, { ...req, props: `${inches}in`, wheelbase: 'auto' }, sourceName, false);
+      return `${inches}in`;
+    } catch (e) {
+      if (!(e instanceof VariantRefusal || e instanceof VariantRequestError || e instanceof DesignError)) throw e;
+    }
+  }
+  return null;
 }

@@ -1,0 +1,103 @@
+import { armRootWidthMm } from '../geometry/arm.js';
+import { alongArm, motorSites, type MotorSite } from '../geometry/layout.js';
+import { convexHull } from '../geometry/primitives.js';
+import type { Vec2 } from '../geometry/types.js';
+import { dot, perp, polar, sub, unit } from '../geometry/vec.js';
+import type { Design, SeparateArms } from '../params/design.js';
+import { clearanceHoleMm } from '../params/screws.js';
+
+/**
+ * Room at the arm roots of separate arms. Arms (and the brace plates under their roots) are
+ * separate plates side by side on one bottom plate: they must not overlap, and keep a little air so
+ * a crash-bent arm does not bind its neighbour. A wider arm root therefore needs its roots further
+ * out from where the arm lines start; this module finds how far.
+ */
+
+/** Air between neighbouring arm plates and between the brace plates. mm. Common practice, no source. */
+export const ROOT_CLEARANCE_MM = 1;
+
+/**
+ * Separation of two convex polygons along the best separating axis among their edge normals:
+ * positive when they are apart (a lower bound of their distance), negative when they overlap. mm.
+ */
+export function convexGapMm(a: readonly Vec2[], b: readonly Vec2[]): number {
+  let best = -Infinity;
+  for (const [p, q] of [[a, b], [b, a]] as const) {
+    for (let i = 0; i < p.length; i++) {
+      const n = unit(perp(sub(p[(i + 1) % p.length], p[i])));
+      const span = (poly: readonly Vec2[]) => {
+        let lo = Infinity;
+        let hi = -Infinity;
+        for (const v of poly) {
+          const x = dot(v, n);
+          lo = Math.min(lo, x);
+          hi = Math.max(hi, x);
+        }
+        return [lo, hi] as const;
+      };
+      const [p0, p1] = span(p);
+      const [q0, q1] = span(q);
+      best = Math.max(best, q0 - p1, p0 - q1);
+    }
+  }
+  return best;
+}
+
+/** The band an arm plate can occupy: its root width, from its root end to the motor (conservative for tapered and truss arms). */
+function armStrip(d: Design, a: SeparateArms, site: MotorSite): Vec2[] {
+  const w = armRootWidthMm(d) / 2;
+  const s0 = a.root.reachMm - a.root.edgeMarginMm;
+  const n: Vec2 = [-Math.sin(site.armDirRad), Math.cos(site.armDirRad)];
+  const at = (s: number, side: number): Vec2 => {
+    const p = alongArm(site, s);
+    return [p[0] + side * w * n[0], p[1] + side * w * n[1]];
+  };
+  return [at(s0, -1), at(site.motorAlongMm, -1), at(site.motorAlongMm, 1), at(s0, 1)];
+}
+
+/** A brace plate's outline as a convex polygon: the hull of its root bolts' pads (16-gon each). */
+function bracePolygon(d: Design, a: SeparateArms, pair: readonly MotorSite[]): Vec2[] {
+  const r = clearanceHoleMm(a.root.boltSize, d.cutting.holeSeries) / 2 + (d.braces?.marginMm ?? 0);
+  const pts: Vec2[] = [];
+  for (const s of pair) {
+    for (let i = 0; i < a.root.boltCount; i++) {
+      const c = alongArm(s, a.root.reachMm + i * a.root.boltSpacingMm);
+      for (let k = 0; k < 16; k++) {
+        const o = polar(r / Math.cos(Math.PI / 16), (k * Math.PI) / 8);
+        pts.push([c[0] + o[0], c[1] + o[1]]);
+      }
+    }
+  }
+  return convexHull(pts);
+}
+
+/** Smallest gap between neighbouring arm plates and between the front and rear braces (separate arms). mm. Infinity for unibody frames. */
+export function rootGapMm(d: Design): number {
+  const a = d.arms;
+  if (a.construction !== 'separate') return Infinity;
+  const sites = motorSites(d);
+  const strips = sites.map((s) => armStrip(d, a, s));
+  let gap = Infinity;
+  for (let i = 0; i < strips.length; i++) for (let j = i + 1; j < strips.length; j++) gap = Math.min(gap, convexGapMm(strips[i], strips[j]));
+  if (d.braces) {
+    gap = Math.min(gap, convexGapMm(bracePolygon(d, a, sites.filter((s) => s.front)), bracePolygon(d, a, sites.filter((s) => !s.front))));
+  }
+  return gap;
+}
+
+/**
+ * The design with its arm roots moved out (arms.root.reachMm up in 0.5 mm steps from where it is)
+ * until the arm plates and braces keep ROOT_CLEARANCE_MM; unchanged when they already do. Null when
+ * the roots would have to pass 60 % of the way to the motors (then the arms are too wide for the
+ * layout). Unibody frames are returned as they are.
+ */
+export function withRootRoom(d: Design): Design | null {
+  const a = d.arms;
+  if (a.construction !== 'separate') return d;
+  const limit = 0.6 * Math.min(...motorSites(d).map((s) => s.motorAlongMm));
+  for (let reach = a.root.reachMm; reach + (a.root.boltCount - 1) * a.root.boltSpacingMm + a.root.edgeMarginMm <= limit; reach += 0.5) {
+    const moved: Design = reach === a.root.reachMm ? d : { ...d, arms: { ...a, root: { ...a.root, reachMm: reach } } };
+    if (rootGapMm(moved) >= ROOT_CLEARANCE_MM) return moved;
+  }
+  return null;
+}
