@@ -6,3 +6,8 @@ export * from './plates.js';
 export * from './parts.js';
 export * from './joints.js';
 export * from './components.js';
+export * from './balance.js';
+export * from './hardware.js';
+export * from './hardwareMass.js';
+export * from './report.js';
+export * from './views.js';

@@ -55,8 +55,9 @@ type JointInput = Readonly<{
   standoffEnds?: BoltedJoint['standoffEnds'];
   /** Length beyond the grip that the screw needs (nut + a pitch, or thread engagement). mm. */
   beyondGripMm: number;
-  /** Extra length under a countersunk head already counted in the grip (the head sits in the plate). */
   nut: ReturnType<typeof nutOf> | null;
+  /** Distance from the last plate to the nut's face (boards stacked between them). mm. */
+  nutOffsetMm?: number;
 }>;
 
 /** A joint record from its plates and what the screw ends in. Screw length: shortest preferred length covering grip + what lies beyond. */
@@ -85,6 +86,7 @@ export function makeJoint(j: JointInput): BoltedJoint {
     gripMm: grip,
     screwLengthMm: length,
     nut: j.nut,
+    ...(j.nut ? { nutAtMm: [headAt[0], headAt[1], headZ + j.up * (grip + (j.nutOffsetMm ?? 0))] as Vec3 } : {}),
     endsIn: j.endsIn,
   };
 }
@@ -136,3 +138,6 @@ function standoffBottom(d: Design, so: Standoff, platesUp: readonly PlacedPlate[
   const countersunk = platesUp.some((p) => p.part.features.some((f) => f.purpose === 'standoff' && f.countersink));
   return makeJoint({ id: `${so.id} bottom`, kind: 'standoff-bottom', screw, planMm: so.planMm, clamps: platesUp, up: 1, style: countersunk ? 'countersunk' : 'socket', endsIn: 'standoff', standoffEnds: [{ standoff: so.id, end: 'bottom' }], beyondGripMm: engagementMm(d, screw), nut: null });
 }
+
+/** Whether the screw's head stands proud of its first plate (countersunk heads sit inside it; a stud has none). */
+export const jointStandsProud = (j: BoltedJoint): boolean => !j.stud && j.headStandard !== 'ISO 10642' && j.headStandard !== 'ISO 14581';

@@ -139,6 +139,8 @@ export type BoltedJoint = Readonly<{
   /** Screw length from the hardware list (ISO 4762 preferred series). mm. */
   screwLengthMm: number;
   nut: Readonly<{ standard: NutStandard; heightMm: number; acrossFlatsMm: number }> | null;
+  /** Where the nut's bearing face meets the axis (after the plates, or on top of a stack). */
+  nutAtMm?: Vec3;
   /** Where the screw ends: a nut, a standoff thread, the motor's threaded base, a press nut. */
   endsIn: 'nut' | 'standoff' | 'motor-thread' | 'press-nut' | 'camera-thread';
   /** Set when the "screw" is a male–female standoff's own stud (no screw to buy; screwLengthMm 0). */
@@ -242,4 +244,36 @@ export type StackUp = Readonly<{
   topPlateLowMm: number;
   topPlateTopMm: number;
   propPlaneMm: number;
+}>;
+
+/** One line of the hardware list: identical items for one use, counted per frame and per batch. */
+export type HardwareItem = Readonly<{
+  item: string;
+  /** Product standard ("ISO 4762"), or "none" for parts no standard covers (standoffs, press nuts). */
+  standard: string;
+  size: string;
+  /** Nominal length (screws, standoffs, spacers); null for nuts. mm. */
+  lengthMm: number | null;
+  count: number;
+  countPerBatch: number;
+  use: string;
+}>;
+
+export type HardwareList = Readonly<{ batchSize: number; items: readonly HardwareItem[] }>;
+
+/** Mass and balance of the assembled frame. g, mm, g·mm². */
+export type MassBalance = Readonly<{
+  massG: Readonly<{ frame: number; hardware: number; motors: number; components: number; battery: number; allUp: number }>;
+  /** Centre of gravity, all up. mm. */
+  cgMm: Vec3;
+  /** Centre of gravity without the battery. mm. */
+  cgDryMm: Vec3;
+  /** Centroid of the motor axes in plan: where the thrust acts when all motors pull alike. mm. */
+  thrustCentreMm: Vec2;
+  /** Plan distance from the thrust centre to the centre of gravity. mm. */
+  cgOffsetMm: number;
+  /** That offset over the mean motor distance from the thrust centre. */
+  cgOffsetShare: number;
+  /** Inertia tensor about the centre of gravity, frame axes, all up. g·mm². */
+  inertiaGMm2: Mat3;
 }>;
