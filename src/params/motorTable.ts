@@ -23,19 +23,22 @@ export type MotorClass = Readonly<{
   boreMm: number;
   /** Typical motor mass, the arm's tip mass in the stiffness rule. g. */
   massG: number;
+  /** Typical depth of the threaded holes in the motor base (a longer motor screw reaches the windings). mm. */
+  threadDepthMm: number;
 }>;
 
 /**
  * common practice, no source (bolt circles and bolt sizes per ../shared/domain.md; the smallest and
- * largest rows, their bells, bores and masses from memory).
+ * largest rows, their bells, bores and masses, and every thread depth from memory: domain.md gives
+ * 3–5 mm of thread in a motor base).
  */
 export const MOTOR_CLASSES: readonly MotorClass[] = [
-  { name: '08xx-11xx', statorMinMm: 8, statorMaxMm: 11, boltCirclesMm: [9], boltSize: 'M2', propsIn: [1, 2.5], bellDiameterMm: 14, boreMm: 3, massG: 5 },
-  { name: '12xx-18xx', statorMinMm: 12, statorMaxMm: 18, boltCirclesMm: [9, 12], boltSize: 'M2', propsIn: [2.5, 4.5], bellDiameterMm: 19, boreMm: 5, massG: 12 },
-  { name: '20xx-24xx', statorMinMm: 20, statorMaxMm: 24, boltCirclesMm: [16], boltSize: 'M3', propsIn: [4.5, 6.5], bellDiameterMm: 28, boreMm: 7, massG: 33 },
-  { name: '25xx-28xx', statorMinMm: 25, statorMaxMm: 28, boltCirclesMm: [16, 19], boltSize: 'M3', propsIn: [6, 8], bellDiameterMm: 33, boreMm: 8, massG: 50 },
-  { name: '30xx-35xx', statorMinMm: 30, statorMaxMm: 35, boltCirclesMm: [19, 25], boltSize: 'M3', propsIn: [7.5, 10.5], bellDiameterMm: 37, boreMm: 9, massG: 75 },
-  { name: '36xx-46xx', statorMinMm: 36, statorMaxMm: 46, boltCirclesMm: [25, 30], boltSize: 'M3', propsIn: [10, 13], bellDiameterMm: 46, boreMm: 10, massG: 115 },
+  { name: '08xx-11xx', statorMinMm: 8, statorMaxMm: 11, boltCirclesMm: [9], boltSize: 'M2', propsIn: [1, 2.5], bellDiameterMm: 14, boreMm: 3, massG: 5, threadDepthMm: 2.5 },
+  { name: '12xx-18xx', statorMinMm: 12, statorMaxMm: 18, boltCirclesMm: [9, 12], boltSize: 'M2', propsIn: [2.5, 4.5], bellDiameterMm: 19, boreMm: 5, massG: 12, threadDepthMm: 2.5 },
+  { name: '20xx-24xx', statorMinMm: 20, statorMaxMm: 24, boltCirclesMm: [16], boltSize: 'M3', propsIn: [4.5, 6.5], bellDiameterMm: 28, boreMm: 7, massG: 33, threadDepthMm: 3.5 },
+  { name: '25xx-28xx', statorMinMm: 25, statorMaxMm: 28, boltCirclesMm: [16, 19], boltSize: 'M3', propsIn: [6, 8], bellDiameterMm: 33, boreMm: 8, massG: 50, threadDepthMm: 4 },
+  { name: '30xx-35xx', statorMinMm: 30, statorMaxMm: 35, boltCirclesMm: [19, 25], boltSize: 'M3', propsIn: [7.5, 10.5], bellDiameterMm: 37, boreMm: 9, massG: 75, threadDepthMm: 4.5 },
+  { name: '36xx-46xx', statorMinMm: 36, statorMaxMm: 46, boltCirclesMm: [25, 30], boltSize: 'M3', propsIn: [10, 13], bellDiameterMm: 46, boreMm: 10, massG: 115, threadDepthMm: 5 },
 ];
 
 /**

@@ -115,6 +115,7 @@ function motorChanges(d: Design, from: MotorClass, c: MotorClass, massG: number,
     const circles = (out.find((x) => x.path[1] === 'boltCircleMm')?.new as number[] | undefined) ?? d.motor.boltCircleMm;
     const plate = d.arms.construction === 'separate' ? d.arms.thicknessMm : d.body.thicknessMm;
     const bore = motorBoreMm(circles, c.boltSize, d.cutting.holeSeries, d.checks, plate, c.boreMm);
+    out.push({ path: ['motor', 'threadDepthMm'], old: d.motor.threadDepthMm, new: c.threadDepthMm, why: `${why}: typical thread depth in the motor base` });
     out.push({ path: ['motor', 'boreMm'], old: d.motor.boreMm, new: bore, why: `${why}: typical shaft-clip bore${bore < c.boreMm ? `, kept ${bore} mm to leave the web rule's web to the bolt holes` : ''}` });
   }
   out.push({ path: ['motor', 'massG'], old: d.motor.massG ?? d.motorMassG, new: massG, why });

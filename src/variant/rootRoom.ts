@@ -1,4 +1,6 @@
-import { armRootWidthMm } from '../geometry/arm.js';
+import { screwHead } from '../assembly/standards.js';
+import { armShape } from '../geometry/arm.js';
+import { flattenLoop, transformLoop } from '../geometry/loop.js';
 import { alongArm, motorSites, type MotorSite } from '../geometry/layout.js';
 import { convexHull } from '../geometry/primitives.js';
 import type { Vec2 } from '../geometry/types.js';
@@ -8,12 +10,13 @@ import { clearanceHoleMm } from '../params/screws.js';
 
 /**
  * Room at the arm roots of separate arms. Arms (and the brace plates under their roots) are
- * separate plates side by side on one bottom plate: they must not overlap, and keep a little air so
- * a crash-bent arm does not bind its neighbour. A wider arm root therefore needs its roots further
- * out from where the arm lines start; this module finds how far.
+ * separate plates side by side on one bottom plate: they must not overlap each other or the
+ * standoffs, and keep a little air so a crash-bent arm does not bind its neighbour. A wider arm root
+ * therefore needs its roots further out from where the arm lines start; this module finds how far.
+ * A fast estimate on convex hulls for the search; the assembly's fit checks have the last word.
  */
 
-/** Air between neighbouring arm plates and between the brace plates. mm. Common practice, no source. */
+/** Air between neighbouring arm plates, standoffs and brace plates. mm. Common practice, no source. */
 export const ROOT_CLEARANCE_MM = 1;
 
 /**
@@ -43,16 +46,28 @@ export function convexGapMm(a: readonly Vec2[], b: readonly Vec2[]): number {
   return best;
 }
 
-/** The band an arm plate can occupy: its root width, from its root end to the motor (conservative for tapered and truss arms). */
-function armStrip(d: Design, a: SeparateArms, site: MotorSite): Vec2[] {
-  const w = armRootWidthMm(d) / 2;
-  const s0 = a.root.reachMm - a.root.edgeMarginMm;
-  const n: Vec2 = [-Math.sin(site.armDirRad), Math.cos(site.armDirRad)];
-  const at = (s: number, side: number): Vec2 => {
-    const p = alongArm(site, s);
-    return [p[0] + side * w * n[0], p[1] + side * w * n[1]];
-  };
-  return [at(s0, -1), at(site.motorAlongMm, -1), at(site.motorAlongMm, 1), at(s0, 1)];
+/** Chord tolerance for the arm hulls: coarse, the hull only has to contain the arm. mm. */
+const HULL_CHORD_MM = 0.2;
+
+/**
+ * An arm plate copy as a convex polygon in frame coordinates: the convex hull of its outline pieces
+ * (the arm lies inside it; a truss's windows are covered), placed as the frame places it.
+ */
+function armHull(d: Design, a: SeparateArms, site: MotorSite): Vec2[] {
+  const start = a.root.reachMm - a.root.edgeMarginMm;
+  const shape = armShape(d, site.motorAlongMm - start);
+  const tf = { rotateRad: site.armDirRad, translate: alongArm(site, start), mirrorY: site.left };
+  return convexHull(shape.pieces.flatMap((p) => flattenLoop(transformLoop(p, tf), HULL_CHORD_MM)));
+}
+
+/** Round things an arm plate must keep clear of: the standoffs (and their screw heads) at the body. */
+function standoffDiscs(d: Design): Vec2[][] {
+  const so = d.body.standoffs;
+  const r = Math.max(screwHead(so.boltSize, 'socket').diameterMm / 2, so.shape === 'hex' ? so.acrossFlatsMm / Math.sqrt(3) : so.acrossFlatsMm / 2);
+  return so.positionsMm.map((c) => Array.from({ length: 16 }, (_, k) => {
+    const o = polar(r / Math.cos(Math.PI / 16), (k * Math.PI) / 8);
+    return [c[0] + o[0], c[1] + o[1]] as Vec2;
+  }));
 }
 
 /** A brace plate's outline as a convex polygon: the hull of its root bolts' pads (16-gon each). */
@@ -71,14 +86,18 @@ function bracePolygon(d: Design, a: SeparateArms, pair: readonly MotorSite[]): V
   return convexHull(pts);
 }
 
-/** Smallest gap between neighbouring arm plates and between the front and rear braces (separate arms). mm. Infinity for unibody frames. */
+/**
+ * Smallest gap between neighbouring arm plates, between an arm plate and a standoff (with its screw
+ * head), and between the front and rear braces (separate arms). mm. Infinity for unibody frames.
+ */
 export function rootGapMm(d: Design): number {
   const a = d.arms;
   if (a.construction !== 'separate') return Infinity;
   const sites = motorSites(d);
-  const strips = sites.map((s) => armStrip(d, a, s));
+  const hulls = sites.map((s) => armHull(d, a, s));
   let gap = Infinity;
-  for (let i = 0; i < strips.length; i++) for (let j = i + 1; j < strips.length; j++) gap = Math.min(gap, convexGapMm(strips[i], strips[j]));
+  for (let i = 0; i < hulls.length; i++) for (let j = i + 1; j < hulls.length; j++) gap = Math.min(gap, convexGapMm(hulls[i], hulls[j]));
+  for (const disc of standoffDiscs(d)) for (const h of hulls) gap = Math.min(gap, convexGapMm(h, disc));
   if (d.braces) {
     gap = Math.min(gap, convexGapMm(bracePolygon(d, a, sites.filter((s) => s.front)), bracePolygon(d, a, sites.filter((s) => !s.front))));
   }

@@ -219,7 +219,16 @@ function rootBoltsHeld(d: Design): boolean {
 }
 
 /** One arm section the rule allows: thickness, weave angle of the arm plate, width factor, the rounded widths. */
-export type ArmSection = Readonly<{ thicknessMm: number; weaveDeg: number; widthFactor: number; widths: readonly number[]; measure: RuleMeasure; massIndex: number }>;
+export type ArmSection = Readonly<{
+  thicknessMm: number;
+  weaveDeg: number;
+  widthFactor: number;
+  widths: readonly number[];
+  measure: RuleMeasure;
+  massIndex: number;
+  /** The design with this section, as placed (arm roots moved out where they need room). */
+  design: Design;
+}>;
 
 /**
  * The lightest section meeting the rule at each stock thickness, lightest first. `prepare` applies
@@ -277,7 +286,7 @@ export function armSections(variant: Design, rule: SizeRule, prepare: (d: Design
     const b = firstFrom(kLo, kHi, met);
     const best = at(b) as Extract<At, { kind: 'placed' }>;
     const widths = scaledWidths(params, b, lo, hi);
-    out.push({ thicknessMm: t, weaveDeg: weave, widthFactor: b, widths, measure: best.m, massIndex: armMassIndex(best.d) });
+    out.push({ thicknessMm: t, weaveDeg: weave, widthFactor: b, widths, measure: best.m, massIndex: armMassIndex(best.d), design: best.d });
   }
   return out.sort((p, q) => p.massIndex - q.massIndex || q.thicknessMm - p.thicknessMm);
 }

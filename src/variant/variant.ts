@@ -33,7 +33,7 @@ export const DEFAULT_WHEELBASE_STEP_MM = 1;
 const EXACT_STEP_MM = 1e-6;
 
 /** Arm sections built and checked before the variant is refused (lightest first). */
-const MAX_CHECKED_SECTIONS = 4;
+const MAX_CHECKED_SECTIONS = 8;
 
 /** The arm rule's outcome. */
 export type ArmResult = Readonly<{
@@ -169,6 +169,8 @@ function sectionChanges(d: Design, placed: Design, s: ArmSection, rule: SizeRule
   } else {
     out.push({ path: ['body', 'thicknessMm'], old: d.body.thicknessMm, new: s.thicknessMm, why: `${why}; stocked sheet (unibody arms are cut from the bottom plate)` });
     out.push({ path: ['body', 'weaveDeg'], old: d.body.weaveDeg, new: s.weaveDeg, why: 'weave turned to lay the arms along the fibres: stiffer arms for their mass (laminate theory); the weave rule suggests the same angle' });
+    // Heights on the frame are measured from the bottom plate's lower face: the camera stays where it was over the plate's top face.
+    if (d.camera) out.push({ path: ['camera', 'pivotHeightMm'], old: d.camera.pivotHeightMm, new: Number((d.camera.pivotHeightMm + s.thicknessMm - d.body.thicknessMm).toFixed(3)), why: 'keeps the camera at its height over the thicker (or thinner) bottom plate' });
   }
   // The bore the motor wants, as large as the web rule allows on this plate (the derived default's rule).
   const bore = motorBoreMm(d.motor.boltCircleMm, d.motor.boltSize, d.cutting.holeSeries, d.checks, s.thicknessMm, wantedBoreMm);
@@ -308,24 +310,37 @@ function variantOrRefusal(sourceText: string, req: VariantRequest, sourceName: s
   }
   // The motor's own bore: the new class's when the motor changed, else the source's.
   const wantedBore = motor.changes.length && motor.variantClass !== motor.sourceClass ? motor.variantClass.boreMm : source.motor.boreMm;
-  let accepted: { draft: Draft; frame: Frame; report: CheckReport; section: ArmSection; index: number } | null = null;
+  type Accepted = { draft: Draft; frame: Frame; report: CheckReport; section: ArmSection; index: number };
   let firstFailure: { draft: Draft | null; report: CheckReport | null; problem: string } | null = null;
-  for (const [index, section] of sections.slice(0, MAX_CHECKED_SECTIONS).entries()) {
-    const placed = withRootRoom(withArmSize(cur, section.widths, section.thicknessMm, section.weaveDeg))!;
-    let built: { draft: Draft; frame: Frame };
-    try {
-      built = buildEasingFillet(applyEdits(draft, sectionChanges(cur, placed, section, rule, wantedBore)));
-    } catch (e) {
-      if (!(e instanceof DesignError)) throw e;
-      firstFailure ??= { draft: null, report: null, problem: `the ${section.thicknessMm} mm arm cannot be built: ${e.message}` };
-      continue;
+  // Build and check sections in order; the first with no check error is taken.
+  const firstPassing = (list: readonly ArmSection[]): Accepted | null => {
+    for (const [index, section] of list.slice(0, MAX_CHECKED_SECTIONS).entries()) {
+      let built: { draft: Draft; frame: Frame };
+      try {
+        built = buildEasingFillet(applyEdits(draft, sectionChanges(cur, section.design, section, rule, wantedBore)));
+      } catch (e) {
+        if (!(e instanceof DesignError)) throw e;
+        firstFailure ??= { draft: null, report: null, problem: `the ${section.thicknessMm} mm arm cannot be built: ${e.message}` };
+        continue;
+      }
+      const report = checkFrame(built.frame);
+      if (report.summary.errors === 0) return { ...built, report, section, index };
+      firstFailure ??= { draft: built.draft, report, problem: errorsOf(report).slice(0, 3).map(findingText).join('; ') };
     }
-    const report = checkFrame(built.frame);
-    if (report.summary.errors === 0) {
-      accepted = { ...built, report, section, index };
-      break;
-    }
-    firstFailure ??= { draft: built.draft, report, problem: errorsOf(report).slice(0, 3).map(findingText).join('; ') };
+    return null;
+  };
+  let accepted = firstPassing(sections);
+  // Roots moved out for room make sections possible that were not at the old reach: search again
+  // from where the roots now are until nothing lighter passes, so a variant of this variant at the
+  // same size finds the same arms (the search has a fixed point).
+  for (let round = 0; accepted && round < 3; round++) {
+    const d = accepted.section.design;
+    if (d.arms.construction !== 'separate' || cur.arms.construction !== 'separate' || d.arms.root.reachMm === cur.arms.root.reachMm) break;
+    const reach = d.arms.root.reachMm;
+    const lighter = armSections({ ...cur, arms: { ...cur.arms, root: { ...cur.arms.root, reachMm: reach } } }, rule, withRootRoom).filter((s) => s.massIndex < accepted!.section.massIndex * (1 - 1e-3));
+    const better = lighter.length ? firstPassing(lighter) : null;
+    if (!better) break;
+    accepted = better;
   }
   if (!accepted) {
     const failure = firstFailure!;
