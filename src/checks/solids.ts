@@ -29,14 +29,16 @@ export type Prism = Readonly<{
   owner?: string;
 }>;
 
-/** Flattening of arcs for overlap areas and plan gaps; rule margins (0.5 mm and up) are kept ten times above it. mm. */
+/** Flattening of plate arcs for overlap areas and plan gaps; rule margins (0.5 mm and up) are kept ten times above it. mm. */
 export const FIT_CHORD_MM = 0.05;
+/** Flattening of the small round solids (heads, nuts, standoffs, motors): 0.25 % of a 3 mm head's area. mm. */
+export const SMALL_CHORD_MM = 0.005;
 /** Faces closer than this along the axis touch (intended contact), they do not intersect. mm. */
 export const CONTACT_MM = 0.01;
 /** Overlap areas below this are contact along an edge, not interference. mm². */
 export const OVERLAP_AREA_MM2 = 0.05;
 
-const toPaths = (loops: readonly Loop[]): PathsD => loops.map((l) => flattenLoop(l, FIT_CHORD_MM).map(([x, y]) => ({ x, y })));
+const toPaths = (loops: readonly Loop[], chordMm = SMALL_CHORD_MM): PathsD => loops.map((l) => flattenLoop(l, chordMm).map(([x, y]) => ({ x, y })));
 
 const partPaths = new WeakMap<PlacedPlate['part'], PathsD>();
 
@@ -65,7 +67,7 @@ export function platePrism(p: PlacedPlate): Prism {
   // Flatten each part once, then move the points of every copy.
   let flat = partPaths.get(p.part);
   if (!flat) {
-    flat = toPaths([p.part.outline, ...p.part.features.map((f) => f.loop)]);
+    flat = toPaths([p.part.outline, ...p.part.features.map((f) => f.loop)], FIT_CHORD_MM);
     partPaths.set(p.part, flat);
   }
   const pl = p.placement;
