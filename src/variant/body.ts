@@ -57,6 +57,10 @@ function xPositions(d: Design): Array<{ path: (string | number)[]; value: number
     out.push({ path: ['layout', 'frontArmStartMm', 0], value: d.layout.frontArmStartMm[0] });
     out.push({ path: ['layout', 'rearArmStartMm', 0], value: d.layout.rearArmStartMm[0] });
   }
+  d.components.forEach((c, i) => {
+    if ('atMm' in c && c.atMm) out.push({ path: ['components', i, 'atMm', 0], value: c.atMm[0] });
+    if (c.kind === 'battery') out.push({ path: ['components', i, 'xMm'], value: c.xMm });
+  });
   const t = d.topPlate;
   t.strapSlots.xPositionsMm.forEach((x, i) => out.push({ path: ['topPlate', 'strapSlots', 'xPositionsMm', i], value: x }));
   if (t.leadOpening) out.push({ path: ['topPlate', 'leadOpening', 'xMm'], value: t.leadOpening.xMm });
