@@ -1,4 +1,4 @@
-import YAML, { isCollection, isScalar, parseDocument, Scalar } from 'yaml';
+import YAML, { isCollection, isMap, isScalar, parseDocument, Scalar, type Document } from 'yaml';
 
 /** One edit of the design file: the path of the key, old and new values, and why it changed. */
 export type Change = Readonly<{
@@ -27,8 +27,9 @@ function flowText(v: unknown, doubleQuoted: boolean): string {
 /**
  * Apply changes to design text (YAML or JSON) and return the new text. A value whose key exists is
  * replaced in place, character range for character range, so every comment, blank line, key order
- * and the style of every untouched value stay byte-identical. Keys that do not exist yet are added
- * through the `yaml` document API (appended to their map; comments kept).
+ * and the style of every untouched value stay byte-identical. A key that does not exist yet is
+ * inserted as a new line after the last entry of its block map (at that map's indentation); other
+ * missing keys go through the `yaml` document API (appended to their map; comments kept).
  */
 export function editDesignText(text: string, changes: readonly Change[]): string {
   const doc = parseDocument(text);
@@ -45,12 +46,14 @@ export function editDesignText(text: string, changes: readonly Change[]): string
       const value = flowText(c.new, quoted || (isCollection(node) && text.trimStart().startsWith('{')));
       splices.push({ start: node.range[0], end: node.range[1], text: isCollection(node) && !node.flow ? value + trailing : value });
     } else {
-      missing.push(c);
+      const added = insertion(doc, text, c);
+      if (added) splices.push(added);
+      else missing.push(c);
     }
   }
-  splices.sort((a, b) => b.start - a.start);
+  splices.sort((a, b) => b.start - a.start || b.end - a.end);
   for (let i = 1; i < splices.length; i++) {
-    if (splices[i].end > splices[i - 1].start) throw new Error('overlapping design edits (a value and a part of it changed together)');
+    if (splices[i].end > splices[i - 1].start && splices[i].start !== splices[i].end) throw new Error('overlapping design edits (a value and a part of it changed together)');
   }
   let out = text;
   for (const s of splices) out = out.slice(0, s.start) + s.text + out.slice(s.end);
@@ -62,4 +65,24 @@ export function editDesignText(text: string, changes: readonly Change[]): string
     doc2.setIn(c.path, node);
   }
   return doc2.toString({ flowCollectionPadding: false });
+}
+
+/**
+ * A new `key: value` line for a key missing from an existing block map with entries: after the
+ * map's last entry, at the indentation of its first key. Null when the parent is not such a map.
+ */
+function insertion(doc: Document, text: string, c: Change): { start: number; end: number; text: string } | null {
+  const parent = doc.getIn(c.path.slice(0, -1), true);
+  if (!isMap(parent) || parent.flow || parent.items.length === 0) return null;
+  const first = parent.items[0].key;
+  const last = parent.items[parent.items.length - 1];
+  const lastNode = (last.value ?? last.key) as { range?: [number, number, number] } | null;
+  if (!isScalar(first) || !first.range || !lastNode?.range) return null;
+  const indent = first.range[0] - (text.lastIndexOf('\n', first.range[0] - 1) + 1);
+  const line = `${' '.repeat(indent)}${flowText(String(c.path[c.path.length - 1]), false)}: ${flowText(c.new, false)}`;
+  const end = lastNode.range[1];
+  // A block collection's range already ends at the start of the next line.
+  if (text[end - 1] === '\n') return { start: end, end, text: `${line}\n` };
+  const eol = text.indexOf('\n', end);
+  return eol < 0 ? { start: text.length, end: text.length, text: `\n${line}` } : { start: eol, end: eol, text: `\n${line}` };
 }

@@ -22,7 +22,7 @@ describe('framewright variant (built CLI)', () => {
     expect(text.stderr).toBe('');
     expect(text.status).toBe(0);
     expect(text.stdout).toMatch(/parameter\s+old\s+new\s+why/);
-    expect(text.stdout).toMatch(/layout\.wheelbaseMm\s+224\s+\d+/);
+    expect(text.stdout).toMatch(/layout\.wheelbaseMm\s+236\s+\d+/);
     expect(text.stdout).toMatch(/Arm size rule: each arm a cantilever/);
     expect(text.stdout).toMatch(/Checks on the variant: 0 errors/);
     expect(text.stdout).toMatch(/props off first/);

@@ -57,11 +57,11 @@ describe('motor-size table', () => {
 
   it('auto takes class and mass from the prop size; keep refuses a prop the mount cannot turn; a named class is taken', () => {
     const d = parseDesignText(demoText('tessel-5'));
-    // 7 in: the 28xx-class row, 50 g; the 16 mm M3 mount already fits 25xx-28xx, so only bell, bore and mass change
+    // 7 in: the 28xx-class row, 50 g; the 16 mm M3 mount already fits 25xx-28xx, so only bell, bore, thread depth and mass change
     const seven = chooseMotor(d, undefined, 177.8);
     expect(seven.variantClass.name).toBe('25xx-28xx');
     expect(seven.massG).toBe(50);
-    expect(seven.changes.map((c) => c.path.join('.')).sort()).toEqual(['motor.bellDiameterMm', 'motor.boreMm', 'motor.massG']);
+    expect(seven.changes.map((c) => c.path.join('.')).sort()).toEqual(['motor.bellDiameterMm', 'motor.boreMm', 'motor.massG', 'motor.threadDepthMm']);
     // the source's own size and row: the motor is kept as it is
     expect(chooseMotor(d, 'auto', 5.1 * 25.4).changes).toEqual([]);
     expect(chooseMotor(d, 'auto', 5.1 * 25.4).massG).toBe(32);
