@@ -46,7 +46,7 @@ export function rotationBand(propDiameterMm: number, tips: Readonly<{ low: numbe
 
 /**
  * Static thrust of one prop turning at `rotationHz`: T = C_T ρ n² D⁴. N.
- * @example propThrustN(127, 650) // ≈ 13.4: a 5-inch prop at 650 rev/s
+ * @example propThrustN(127, 650) // ≈ 13.46: a 5-inch prop at 650 rev/s
  */
 export function propThrustN(propDiameterMm: number, rotationHz: number, thrustCoefficient = STATIC_THRUST_COEFFICIENT, airDensity = SEA_LEVEL_AIR_DENSITY): number {
   if (!(propDiameterMm > 0) || !(rotationHz >= 0)) throw new RangeError(`prop diameter must be positive and rotation ≥ 0 (got ${propDiameterMm} mm, ${rotationHz} Hz)`);
@@ -56,6 +56,6 @@ export function propThrustN(propDiameterMm: number, rotationHz: number, thrustCo
 
 /**
  * A motor's full thrust: its prop at the top of the rotation band (the high tip speed). N.
- * @example fullThrustN(127) // ≈ 12.8 (1.3 kgf), a 5-inch prop
+ * @example fullThrustN(127) // ≈ 13.0 (1.33 kgf), a 5-inch prop
  */
 export const fullThrustN = (propDiameterMm: number): number => propThrustN(propDiameterMm, rotationBand(propDiameterMm).highHz);

@@ -1,3 +1,4 @@
+import { wrap } from '../quote/drawingLayout.js';
 import { fmt, xmlEscape } from './format.js';
 
 /** One frame of a size range on the chart. Props in inches; wheelbase mm; mass g; frequencies Hz. */
@@ -44,6 +45,12 @@ export function niceTicks(lo: number, hi: number, count = 5): number[] {
   return out;
 }
 
+/** Average advance of a sans-serif character, as a fraction of the font size (about half an em). */
+const CHAR_EM = 0.55;
+
+/** Break text at spaces into lines that fit `widthMm` at `fontMm`. */
+export const wrapText = (text: string, widthMm: number, fontMm: number): string[] => wrap(text, Math.max(10, Math.floor(widthMm / (CHAR_EM * fontMm))));
+
 type Series = Readonly<{ name: string; key: string; values: readonly number[]; colour: string; dashed?: boolean }>;
 
 /**
@@ -59,7 +66,10 @@ export function rangeChartSvg(points: readonly RangeChartPoint[], band: readonly
   const xTicks = niceTicks(Math.min(...xs, ...band.map((b) => b.propsIn)), Math.max(...xs, ...band.map((b) => b.propsIn)), 6);
   const x0 = xTicks[0];
   const x1 = xTicks[xTicks.length - 1];
-  const footer = options.footer ?? [];
+  const textW = PLOT_W + LEFT + RIGHT - 2 * 6;
+  const title = wrapText(options.title, textW, 5);
+  const footer = (options.footer ?? []).flatMap((f) => wrapText(f, textW, FONT - 0.5));
+  const head = 8 + title.length * 6;
   const panels: Array<{ title: string; unit: string; series: Series[]; band?: readonly RangeChartBandSample[] }> = [
     { title: 'Wheelbase', unit: 'mm', series: [{ name: 'wheelbase', key: 'wheelbase', values: sorted.map((p) => p.wheelbaseMm), colour: '#1f5fa8' }] },
     { title: 'Frame mass (plates)', unit: 'g', series: [{ name: 'mass', key: 'mass', values: sorted.map((p) => p.massG), colour: '#8a4b08' }] },
@@ -75,16 +85,16 @@ export function rangeChartSvg(points: readonly RangeChartPoint[], band: readonly
   ];
   const panelH = TOP + PLOT_H + PANEL_GAP;
   const W = LEFT + PLOT_W + RIGHT;
-  const H = 14 + panels.length * panelH + footer.length * 5 + 6;
+  const H = head + panels.length * panelH + footer.length * 4.2 + 6;
   const out: string[] = [
     '<?xml version="1.0" encoding="UTF-8"?>',
     `<svg xmlns="http://www.w3.org/2000/svg" width="${fmt(W, 3)}mm" height="${fmt(H, 3)}mm" viewBox="0 0 ${fmt(W, 3)} ${fmt(H, 3)}" font-family="sans-serif">`,
     `<title>${xmlEscape(options.title)}</title>`,
     `<rect width="${fmt(W, 3)}" height="${fmt(H, 3)}" fill="#ffffff"/>`,
-    `<text x="${fmt(LEFT, 3)}" y="9" font-size="5">${xmlEscape(options.title)}</text>`,
+    ...title.map((t, i) => `<text x="6" y="${fmt(9 + i * 6, 3)}" font-size="5">${xmlEscape(t)}</text>`),
   ];
   panels.forEach((panel, pi) => {
-    const top = 14 + pi * panelH + TOP;
+    const top = head + pi * panelH + TOP;
     const bottom = top + PLOT_H;
     const all = [...panel.series.flatMap((s) => s.values), ...(panel.band ?? []).flatMap((b) => [b.lowHz, b.highHz])];
     const yTicks = niceTicks(Math.min(...all), Math.max(...all), 5);
@@ -129,7 +139,7 @@ export function rangeChartSvg(points: readonly RangeChartPoint[], band: readonly
     out.push(`<rect x="${fmt(LEFT, 3)}" y="${fmt(top, 3)}" width="${fmt(PLOT_W, 3)}" height="${fmt(PLOT_H, 3)}" fill="none" stroke="#000000" stroke-width="0.3"/>`);
     out.push('</g>');
   });
-  footer.forEach((line, i) => out.push(`<text x="${fmt(LEFT, 3)}" y="${fmt(H - 4 - (footer.length - 1 - i) * 5, 3)}" font-size="${FONT - 0.5}">${xmlEscape(line)}</text>`));
+  footer.forEach((line, i) => out.push(`<text x="6" y="${fmt(H - 4 - (footer.length - 1 - i) * 4.2, 3)}" font-size="${FONT - 0.5}">${xmlEscape(line)}</text>`));
   out.push('</svg>', '');
   return out.join('\n');
 }

@@ -236,8 +236,8 @@ function titleBlock(set: DrawingSet, sheet: DrawingSheet, n: number, m: number, 
   items.push(text([x + w - 2, y + 27.5], `quoted for ${set.shop}`, 2, 'end'));
 }
 
-/** Greedy word wrap to about `chars` characters per line. */
-function wrap(s: string, chars: number): string[] {
+/** Greedy word wrap to about `chars` characters per line (the range chart wraps its notes with it too). */
+export function wrap(s: string, chars: number): string[] {
   const out: string[] = [];
   let cur = '';
   for (const w of s.split(' ')) {

@@ -91,7 +91,7 @@ describe('README motor table', () => {
     const readme = readFileSync(new URL('../../README.md', import.meta.url), 'utf8');
     const section = readme.slice(readme.indexOf('<!-- section:variants -->'), readme.indexOf('<!-- /section:variants -->'));
     for (const c of MOTOR_CLASSES) {
-      const row = `| ${c.name} | ${c.boltCirclesMm.join(' or ')} mm | ${c.boltSize} | ${c.propsIn[0]}–${c.propsIn[1]} in | ${c.bellDiameterMm} mm | ${c.boreMm} mm | ${c.massG} g |`;
+      const row = `| ${c.name} | ${c.boltCirclesMm.join(' or ')} mm | ${c.boltSize} | ${c.propsIn[0]}–${c.propsIn[1]} in | ${c.bellDiameterMm} mm | ${c.boreMm} mm | ${c.massG} g | ${c.threadDepthMm} mm |`;
       expect(section).toContain(row);
     }
     for (const r of MOTOR_BY_PROP) expect(section).toContain(`| ${r.fromIn}–${r.toIn} in | ${r.className} | ${r.circleMm} mm | ${r.massG} g |`);
