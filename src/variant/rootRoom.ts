@@ -1,6 +1,6 @@
 import { screwHead } from '../assembly/standards.js';
 import { armShape } from '../geometry/arm.js';
-import { flattenLoop, transformLoop } from '../geometry/loop.js';
+import { flattenLoop, transformPoint } from '../geometry/loop.js';
 import { alongArm, motorSites, type MotorSite } from '../geometry/layout.js';
 import { convexHull } from '../geometry/primitives.js';
 import type { Vec2 } from '../geometry/types.js';
@@ -50,14 +50,24 @@ export function convexGapMm(a: readonly Vec2[], b: readonly Vec2[]): number {
 const HULL_CHORD_MM = 0.2;
 
 /**
- * An arm plate copy as a convex polygon in frame coordinates: the convex hull of its outline pieces
- * (the arm lies inside it; a truss's windows are covered), placed as the frame places it.
+ * Every arm plate copy as a convex polygon in frame coordinates: the convex hull of its outline
+ * pieces (the arm lies inside it; a truss's windows are covered), placed as the frame places it.
+ * Arms of one length share one hull, computed once in the arm's own frame.
  */
-function armHull(d: Design, a: SeparateArms, site: MotorSite): Vec2[] {
+function armHulls(d: Design, a: SeparateArms, sites: readonly MotorSite[]): Vec2[][] {
   const start = a.root.reachMm - a.root.edgeMarginMm;
-  const shape = armShape(d, site.motorAlongMm - start);
-  const tf = { rotateRad: site.armDirRad, translate: alongArm(site, start), mirrorY: site.left };
-  return convexHull(shape.pieces.flatMap((p) => flattenLoop(transformLoop(p, tf), HULL_CHORD_MM)));
+  const local = new Map<number, Vec2[]>();
+  return sites.map((site) => {
+    const length = site.motorAlongMm - start;
+    const key = Math.round(length * 1e6);
+    let hull = local.get(key);
+    if (!hull) {
+      hull = convexHull(armShape(d, length).pieces.flatMap((p) => flattenLoop(p, HULL_CHORD_MM)));
+      local.set(key, hull);
+    }
+    const tf = { rotateRad: site.armDirRad, translate: alongArm(site, start), mirrorY: site.left };
+    return hull.map((p) => transformPoint(p, tf));
+  });
 }
 
 /** Round things an arm plate must keep clear of: the standoffs (and their screw heads) at the body. */
@@ -94,7 +104,7 @@ export function rootGapMm(d: Design): number {
   const a = d.arms;
   if (a.construction !== 'separate') return Infinity;
   const sites = motorSites(d);
-  const hulls = sites.map((s) => armHull(d, a, s));
+  const hulls = armHulls(d, a, sites);
   let gap = Infinity;
   for (let i = 0; i < hulls.length; i++) for (let j = i + 1; j < hulls.length; j++) gap = Math.min(gap, convexGapMm(hulls[i], hulls[j]));
   for (const disc of standoffDiscs(d)) for (const h of hulls) gap = Math.min(gap, convexGapMm(h, disc));
@@ -105,18 +115,35 @@ export function rootGapMm(d: Design): number {
 }
 
 /**
- * The design with its arm roots moved out (arms.root.reachMm up in 0.5 mm steps from where it is)
- * until the arm plates and braces keep ROOT_CLEARANCE_MM; unchanged when they already do. Null when
- * the roots would have to pass 60 % of the way to the motors (then the arms are too wide for the
- * layout). Unibody frames are returned as they are.
+ * The design with its arm roots moved out (arms.root.reachMm up, in 0.5 mm steps from where it is)
+ * until the arm plates, standoffs and braces keep ROOT_CLEARANCE_MM; unchanged when they already do.
+ * Null when the roots would have to pass 60 % of the way to the motors (the arms are too wide for
+ * the layout). Moving out only opens the gaps, so the search doubles its step until clear and then
+ * halves back to the 0.5 mm step. Unibody frames are returned as they are.
  */
 export function withRootRoom(d: Design): Design | null {
   const a = d.arms;
   if (a.construction !== 'separate') return d;
-  const limit = 0.6 * Math.min(...motorSites(d).map((s) => s.motorAlongMm));
-  for (let reach = a.root.reachMm; reach + (a.root.boltCount - 1) * a.root.boltSpacingMm + a.root.edgeMarginMm <= limit; reach += 0.5) {
-    const moved: Design = reach === a.root.reachMm ? d : { ...d, arms: { ...a, root: { ...a.root, reachMm: reach } } };
-    if (rootGapMm(moved) >= ROOT_CLEARANCE_MM) return moved;
+  const limit = 0.6 * Math.min(...motorSites(d).map((s) => s.motorAlongMm)) - (a.root.boltCount - 1) * a.root.boltSpacingMm - a.root.edgeMarginMm;
+  const at = (steps: number): Design => (steps === 0 ? d : { ...d, arms: { ...a, root: { ...a.root, reachMm: a.root.reachMm + 0.5 * steps } } });
+  const clear = (steps: number): boolean => rootGapMm(at(steps)) >= ROOT_CLEARANCE_MM;
+  const maxSteps = Math.floor((limit - a.root.reachMm) / 0.5 + 1e-9);
+  if (maxSteps < 0) return null;
+  if (clear(0)) return d;
+  let bad = 0;
+  let good = -1;
+  for (let n = 1; ; n = Math.min(2 * n, maxSteps)) {
+    if (clear(n)) {
+      good = n;
+      break;
+    }
+    bad = n;
+    if (n === maxSteps) return null;
   }
-  return null;
+  while (good - bad > 1) {
+    const mid = Math.floor((good + bad) / 2);
+    if (clear(mid)) good = mid;
+    else bad = mid;
+  }
+  return at(good);
 }

@@ -245,12 +245,21 @@ export function armSections(variant: Design, rule: SizeRule, prepare: (d: Design
     const hi = params.map((p) => Math.min(p.maxMm, ceilTo(MAX_WIDTH_FACTOR * p.value, WIDTH_STEP_MM)));
     if (lo.some((l, i) => l > hi[i])) continue;
     type At = { kind: 'narrow' } | { kind: 'no room' } | { kind: 'placed'; d: Design; m: RuleMeasure };
+    // Widths are rounded to a step, so many k give the same section: each is placed and measured once.
+    const seen = new Map<string, At>();
     const at = (k: number): At => {
       const widths = scaledWidths(params, k, lo, hi);
-      if (!trussWindowOk(variant, widths)) return { kind: 'narrow' };
-      const d = prepare(withArmSize(variant, widths, t, weave));
-      if (!d) return { kind: 'no room' };
-      return rootBoltsHeld(d) ? { kind: 'placed', d, m: measureArms(d, rule) } : { kind: 'narrow' };
+      const key = widths.join(',');
+      const known = seen.get(key);
+      if (known) return known;
+      let r: At;
+      if (!trussWindowOk(variant, widths)) r = { kind: 'narrow' };
+      else {
+        const d = prepare(withArmSize(variant, widths, t, weave));
+        r = !d ? { kind: 'no room' } : rootBoltsHeld(d) ? { kind: 'placed', d, m: measureArms(d, rule) } : { kind: 'narrow' };
+      }
+      seen.set(key, r);
+      return r;
     };
     // Smallest k in [a, b] from which `holds` is true, bisected on the rounded widths (a step function).
     const firstFrom = (a: number, b: number, holds: (k: number) => boolean): number => {

@@ -98,17 +98,33 @@ export function parsePropsOption(text: string): number {
 function clearOfParts(d: Design, startMm: number, stepMm: number): number {
   const base = wheelbaseOf(motorSites(d));
   const options = checkOptions({ toolDiameterMm: d.cutting.toolDiameterMm, limits: d.checks, minTipGapMm: d.props.minTipGapMm });
-  for (let wb = startMm, k = 0; k < 400; k++, wb = ceilToStep(wb + stepMm, stepMm)) {
+  // Clear (or not yet judgeable) at startMm + n steps: moving the props out only opens their clearances.
+  const clear = (n: number): boolean => {
     let frame: Frame;
     try {
-      frame = buildFrame({ ...d, layout: scaledLayout(d, wb / base) });
+      frame = buildFrame({ ...d, layout: scaledLayout(d, wb(n) / base) });
     } catch (e) {
-      if (e instanceof DesignError) return wb;
+      if (e instanceof DesignError) return true;
       throw e;
     }
-    if (!propClearanceRule(frame, options, propDiscs(frame)).some((f) => f.severity === 'error')) return wb;
+    return !propClearanceRule(frame, options, propDiscs(frame)).some((f) => f.severity === 'error');
+  };
+  const wb = (n: number): number => (n === 0 ? startMm : ceilToStep(startMm + n * stepMm, stepMm));
+  if (clear(0)) return startMm;
+  // Double the step until clear, then halve back to one step.
+  let bad = 0;
+  let good = 1;
+  while (!clear(good)) {
+    bad = good;
+    good *= 2;
+    if (good > 400) throw new VariantRequestError('--wheelbase', 'auto', `found no wheelbase from ${startMm} mm up to ${wb(400).toFixed(0)} mm at which the props clear the frame parts (prop-clearance rule); check the body and camera plates`);
   }
-  throw new VariantRequestError('--wheelbase', 'auto', `found no wheelbase from ${startMm} mm up to ${(startMm + 400 * stepMm).toFixed(0)} mm at which the props clear the frame parts (prop-clearance rule); check the body and camera plates`);
+  while (good - bad > 1) {
+    const mid = Math.floor((good + bad) / 2);
+    if (clear(mid)) good = mid;
+    else bad = mid;
+  }
+  return wb(good);
 }
 
 /** "Tessel 5" → "Tessel 5 (7in)"; an earlier "(…)" size suffix is replaced, so variants of variants stay tidy. */
