@@ -1,6 +1,7 @@
 import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
 import type { Design } from '../params/design.js';
 import { DesignError } from '../params/errors.js';
+import { printable } from '../export/format.js';
 import { binaryKind, decodeText } from './fileKind.js';
 import { UsageError } from './usageError.js';
 
@@ -130,11 +131,12 @@ export { writeAllAtomically, recoverOutputs, SET_MARKER, type OutputFile } from 
 /** Turn an error into a message and exit code; a bug (anything unexpected) keeps its stack. */
 export function reportError(e: unknown): number {
   if (e instanceof DesignError) {
-    process.stderr.write(`framewright: ${e.issues.length === 1 ? 'a problem' : `${e.issues.length} problems`} in the input; nothing was written.\n${e.message}\n`);
+    process.stderr.write(printable(`framewright: ${e.issues.length === 1 ? 'a problem' : `${e.issues.length} problems`} in the input; nothing was written.\n${e.message}\n`));
     return 2;
   }
   if (e instanceof UsageError) {
-    process.stderr.write(`framewright: ${e.message}\n`);
+    // printable: a file name or value must not reach the terminal with control characters in it.
+    process.stderr.write(printable(`framewright: ${e.message}\n`));
     return 2;
   }
   process.stderr.write(`framewright: internal error (please report it with the design file):\n${(e as Error)?.stack ?? String(e)}\n`);

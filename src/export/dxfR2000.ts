@@ -1,6 +1,7 @@
 import DxfWriter from 'dxf-writer';
 import { assertNever } from '../geometry/types.js';
 import { DXF_LAYERS, type DxfDocument } from './dxfDocument.js';
+import { dxfCommentLines, plainLine } from './format.js';
 
 /** Coordinates rounded the same way as the R12 writer, so both give stable bytes. */
 const r6 = (x: number): number => {
@@ -37,12 +38,12 @@ export function writeDxfR2000(doc: DxfDocument): string {
         break;
       }
       case 'text':
-        d.drawText(r6(e.x), r6(e.y), r6(e.height), 0, e.text);
+        d.drawText(r6(e.x), r6(e.y), r6(e.height), 0, plainLine(e.text));
         break;
       default:
         assertNever(e);
     }
   }
-  const comments = doc.comments.map((c) => `999\n${c.replace(/[\r\n]+/g, ' ')}\n`).join('');
+  const comments = dxfCommentLines(doc.comments).map((line) => `999\n${line}\n`).join('');
   return comments + d.toDxfString();
 }
