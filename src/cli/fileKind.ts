@@ -64,8 +64,11 @@ function looksBinary(units: ArrayLike<number>): boolean {
   return controls > units.length / 20;
 }
 
-/** Text decoded from bytes, or why it cannot be (the reason completes "the file is ..."). */
-export type Decoded = Readonly<{ text: string; encoding: TextEncoding } | { problem: string }>;
+/**
+ * Text decoded from bytes, or why it cannot be: `kind` names binary content ("a PDF document"),
+ * `problem` describes text in an encoding that cannot be read (both complete "the file is ...").
+ */
+export type Decoded = Readonly<{ text: string; encoding: TextEncoding } | { kind: string } | { problem: string }>;
 
 /**
  * Decode an input file that YAML (or JSON, which is YAML) will read: UTF-8, or UTF-16 in either
@@ -74,39 +77,36 @@ export type Decoded = Readonly<{ text: string; encoding: TextEncoding } | { prob
  */
 export function decodeText(bytes: Uint8Array): Decoded {
   const kind = binaryKind(bytes.subarray(0, 4096));
-  if (kind) return { problem: kind };
+  if (kind) return { kind };
   const encoding = detectEncoding(bytes);
-  if (encoding === 'utf-32le' || encoding === 'utf-32be') return { problem: 'UTF-32 text (save it as UTF-8)' };
+  if (encoding === 'utf-32le' || encoding === 'utf-32be') return { problem: 'UTF-32 text; save it as UTF-8' };
   try {
     // fatal: a byte sequence that is not valid in the encoding throws instead of becoming U+FFFD.
     const text = new TextDecoder(encoding, { fatal: true, ignoreBOM: false }).decode(bytes);
     const head = text.slice(0, 4096);
-    if (looksBinary(Array.from(head, (ch) => ch.charCodeAt(0)))) return { problem: 'binary data' };
-    if (text.includes('\u0000')) return { problem: `binary data (a NUL character at character ${text.indexOf('\u0000')})` };
+    if (looksBinary(Array.from(head, (ch) => ch.charCodeAt(0)))) return { kind: 'binary data' };
+    if (text.includes('\u0000')) return { kind: `binary data (a NUL character at character ${text.indexOf('\u0000')})` };
     return { text, encoding };
   } catch {
-    return { problem: `not valid ${encoding.toUpperCase()} text (at byte ${firstInvalidUtf8(bytes, encoding)}); save it as UTF-8` };
+    // Random bytes often look like UTF-16 by their first two; only UTF-8 gets a position.
+    if (encoding !== 'utf-8') return { kind: 'binary data' };
+    return { problem: `not valid UTF-8 text (at byte ${firstInvalidUtf8(bytes)}); save it as UTF-8` };
   }
 }
 
-/** The offset of the first byte that breaks UTF-8 (for the message), or 0 for other encodings. */
-function firstInvalidUtf8(bytes: Uint8Array, encoding: TextEncoding): number {
-  if (encoding !== 'utf-8') return 0;
-  let lo = 0;
-  let hi = bytes.length;
-  const ok = (n: number): boolean => {
-    try {
-      new TextDecoder('utf-8', { fatal: true }).decode(bytes.subarray(0, n), { stream: true });
-      return true;
-    } catch {
-      return false;
-    }
-  };
-  // The longest valid prefix (a prefix ending inside a multi-byte character is still valid when streaming).
-  while (lo < hi) {
-    const mid = Math.ceil((lo + hi) / 2);
-    if (ok(mid)) lo = mid;
-    else hi = mid - 1;
+/**
+ * The offset of the first byte that starts an invalid UTF-8 sequence (for the message), by the
+ * well-formed byte sequences of RFC 3629, section 4.
+ */
+function firstInvalidUtf8(bytes: Uint8Array): number {
+  let i = 0;
+  while (i < bytes.length) {
+    const b = bytes[i];
+    const [n, lo, hi] = b < 0x80 ? [0, 0, 0] : b >= 0xc2 && b <= 0xdf ? [1, 0x80, 0xbf] : b === 0xe0 ? [2, 0xa0, 0xbf] : b === 0xed ? [2, 0x80, 0x9f] : b >= 0xe1 && b <= 0xef ? [2, 0x80, 0xbf] : b === 0xf0 ? [3, 0x90, 0xbf] : b === 0xf4 ? [3, 0x80, 0x8f] : b >= 0xf1 && b <= 0xf3 ? [3, 0x80, 0xbf] : [-1, 0, 0];
+    if (n < 0 || i + n >= bytes.length + (n === 0 ? 1 : 0)) return i;
+    if (n > 0 && (bytes[i + 1] < lo || bytes[i + 1] > hi)) return i;
+    for (let k = 2; k <= n; k++) if (bytes[i + k] < 0x80 || bytes[i + k] > 0xbf) return i;
+    i += n + 1;
   }
-  return lo;
+  return i;
 }

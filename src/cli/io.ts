@@ -96,7 +96,8 @@ const errCode = (e: unknown): string => (e as NodeJS.ErrnoException).code ?? (e 
  */
 export function readText(path: string, what = 'a YAML or JSON file'): string {
   const d = decodeText(readBounded(path, MAX_DESIGN_BYTES, what));
-  if ('problem' in d) throw new UsageError(`${shownName(path)} is ${d.problem}, not ${what}`);
+  if ('kind' in d) throw new UsageError(`${shownName(path)} is ${d.kind}, not ${what}`);
+  if ('problem' in d) throw new UsageError(`${shownName(path)} is ${d.problem}`);
   return d.text;
 }
 

@@ -76,9 +76,15 @@ async function analyse(path: string, opts: ModesCliOptions): Promise<Loaded> {
 
 async function dxfModes(path: string, opts: ModesCliOptions, options: Record<string, number>): Promise<FrameModes> {
   const [{ importDxfFile }, { armModes, armTipDeflection, partModes }] = await Promise.all([import('../dxfInput.js'), import('../../analysis/index.js')]);
-  let parts: Part[] = importDxfFile(path, opts, 'modes depend on it').imported.parts;
+  const { imported } = importDxfFile(path, opts, 'modes depend on it');
+  let parts: Part[] = imported.parts;
   if (opts.part) parts = parts.filter((p) => p.name === opts.part);
   if (!parts.length) throw new UsageError(`${path}: no closed part${opts.part ? ` named ${JSON.stringify(opts.part)}` : ''} to analyse`);
+  // A part whose contours cross (or that has any other drawing error) has no plate to mesh.
+  for (const p of parts) {
+    const broken = imported.findings.find((f) => f.severity === 'error' && f.rule.startsWith('dxf-') && f.part === p.name);
+    if (broken) throw new UsageError(`${path}: part ${p.name} cannot be analysed: ${broken.rule}: ${broken.message.split('\n')[0]} (\`framewright check ${path}\` lists every problem)`);
+  }
   const results = parts.map((p) => partModes(p, options));
   // A drawing that marks motor and root bolts (it does not, unless a sidecar says so) would also get arm results.
   const arms: ArmResult[] = parts
