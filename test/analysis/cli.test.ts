@@ -1,4 +1,4 @@
-import { outputNames } from '../helpers/cli.js';
+import { outputNames, runCli } from '../helpers/cli.js';
 import { describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readdirSync, readFileSync } from 'node:fs';
@@ -7,11 +7,8 @@ import { join } from 'node:path';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
 import { REPO } from './helpers.js';
 
-/** The built CLI (npm test builds dist/ first), run from the repository root. */
-function cli(args: string[]) {
-  const r = spawnSync(process.execPath, [join(REPO, 'dist', 'cli', 'main.js'), 'modes', ...args], { cwd: REPO, encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
-  return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
-}
+/** `framewright modes ...` through the built CLI (npm test builds dist/ first). */
+const cli = (args: string[]) => runCli(['modes', ...args]);
 const STACK = /^\s+at .+:\d+:\d+\)?$/m;
 
 describe('framewright modes', () => {
