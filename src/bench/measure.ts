@@ -17,7 +17,7 @@ export async function timeOnce(t: Timed): Promise<number> {
   }
   const r = spawnSync(t.argv[0], t.argv.slice(1), { cwd: t.cwd, input: t.input, stdio: ['pipe', 'ignore', 'pipe'], maxBuffer: 1 << 26 });
   const ms = performance.now() - t0;
-  if (r.status !== 0 && r.status !== 1) throw new Error(`${t.argv.join(' ')} exited ${r.status}: ${String(r.stderr).slice(0, 300)}`);
+  if (!(t.exitCodes ?? [0, 1]).includes(r.status ?? -1)) throw new Error(`${t.argv.join(' ')} exited ${r.status}: ${String(r.stderr).slice(0, 300)}`);
   return ms;
 }
 

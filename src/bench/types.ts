@@ -26,5 +26,8 @@ export type BenchFigure = Readonly<{
   measure: () => Promise<FigureResult>;
 }>;
 
-/** Something to time: an async function, or a process (`argv[0]` is the program; `process.execPath` for node). */
-export type Timed = (() => unknown) | Readonly<{ argv: readonly string[]; cwd?: string; input?: string }>;
+/**
+ * Something to time: an async function, or a process (`argv[0]` is the program; `process.execPath`
+ * for node) that must exit with one of `exitCodes` (default 0 or 1).
+ */
+export type Timed = (() => unknown) | Readonly<{ argv: readonly string[]; cwd?: string; input?: string; exitCodes?: readonly number[] }>;

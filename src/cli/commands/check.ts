@@ -4,7 +4,7 @@ import type { CheckOptions, CheckReport } from '../../checks/index.js';
 import type { Frame } from '../../geometry/index.js';
 import { DesignError } from '../../params/errors.js';
 import type { Design } from '../../params/design.js';
-import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
+import { readDesign, readDxfText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import type { DxfCheckFlags } from './checkDxf.js';
 
 /** Flags of `check`; thickness, material, units and layers apply to DXF input only (checkDxf.ts). */
@@ -84,7 +84,11 @@ export function registerCheck(program: Command): void {
     .option('--units <unit>', 'DXF only: drawing units mm, cm, m, in, ft (overrides $INSUNITS)')
     .option('--layers <a,b>', 'DXF only: the layers that hold cut geometry (default: all but frozen, off and annotation layers)')
     .action(async (path: string, opts: CheckCliOptions) => {
-      if (/\.dxf$/i.test(path)) return (await import('./checkDxf.js')).runDxfCheck(path, opts, parseLimitFlags(opts.limit ?? []));
+      if (/\.dxf$/i.test(path)) {
+        // Read (bounded) before loading the stages, so a file that is not DXF is refused at once.
+        const text = readDxfText(path);
+        return (await import('./checkDxf.js')).runDxfCheck(path, text, opts, parseLimitFlags(opts.limit ?? []));
+      }
       const input = await loadCheckInput(path);
       // Limits are judged before the (slower) geometry is built, so bad input fails fast.
       const o = await mergedOptions(input.design, opts);

@@ -24,8 +24,8 @@ export type DxfCheckFlags = Readonly<{
  * every part and print one report with the file findings beside the design findings.
  * Bad input (not DXF, truncated, bad flags or sidecar) → UsageError, exit 2.
  */
-export function runDxfCheck(path: string, flags: DxfCheckFlags, limitFlags: Record<string, Record<string, unknown>>): void {
-  const { imported, settings } = importDxfFile(path, flags);
+export function runDxfCheck(path: string, text: string, flags: DxfCheckFlags, limitFlags: Record<string, Record<string, unknown>>): void {
+  const { imported, settings } = importDxfFile(path, text, flags);
   const toolDiameterMm = settings.toolDiameterMm;
   const o = checkOptions({ ...(toolDiameterMm !== undefined ? { toolDiameterMm } : {}), limits: limitFlags });
   let parts: Part[] = imported.parts;

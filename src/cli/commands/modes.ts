@@ -4,7 +4,7 @@ import type { ArmResult, BodyResult, FrameModes, ModalResult } from '../../analy
 import { DEFAULT_THRUST_N } from '../../analysis/defaults.js';
 import { fmt } from '../../export/format.js';
 import type { Part } from '../../geometry/index.js';
-import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
+import { readDesign, readDxfText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 
 type ModesCliOptions = {
@@ -75,8 +75,9 @@ async function analyse(path: string, opts: ModesCliOptions): Promise<Loaded> {
 }
 
 async function dxfModes(path: string, opts: ModesCliOptions, options: Record<string, number>): Promise<FrameModes> {
+  const text = readDxfText(path);
   const [{ importDxfFile }, { armModes, armTipDeflection, partModes }] = await Promise.all([import('../dxfInput.js'), import('../../analysis/index.js')]);
-  const { imported } = importDxfFile(path, opts, 'modes depend on it');
+  const { imported } = importDxfFile(path, text, opts, 'modes depend on it');
   let parts: Part[] = imported.parts;
   if (opts.part) parts = parts.filter((p) => p.name === opts.part);
   if (!parts.length) throw new UsageError(`${path}: no closed part${opts.part ? ` named ${JSON.stringify(opts.part)}` : ''} to analyse`);
