@@ -1,10 +1,11 @@
+import { spawn } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { MAX_DESIGN_BYTES, MAX_DXF_BYTES } from '../../src/cli/io.js';
-import { DEMO_FILES, DESIGNS_DIR, demoText } from '../helpers/demo.js';
+import { DEMO_FILES, DESIGNS_DIR, demoText, REPO } from '../helpers/demo.js';
 import { outputNames, runCliAsync, STACK_LINE } from '../helpers/cli.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'fw-bad-'));
@@ -97,5 +98,18 @@ describe('input the CLI takes', () => {
   it('standard input beyond 1 MB is refused without reading it all', async () => {
     const r = await runCliAsync(['check', '-'], Buffer.alloc(3 * 1024 * 1024, 'a: 1\n'));
     expectRefused(r, /standard input is more than the 1 MB allowed for a design file/);
+  });
+});
+
+describe('a reader that stops early (`framewright schema | head -1`)', () => {
+  it('ends the command quietly: no stack trace for the write that could not be delivered', async () => {
+    const child = spawn(process.execPath, [join(REPO, 'dist', 'cli', 'main.js'), 'schema'], { cwd: REPO });
+    let stderr = '';
+    child.stderr.on('data', (b: Buffer) => (stderr += b.toString()));
+    // The reading end closes before the command writes: its write must fail with EPIPE.
+    child.stdout.destroy();
+    const code = await new Promise<number | null>((done) => child.on('close', done));
+    expect(stderr).toBe('');
+    expect(code).toBe(0);
   });
 });
