@@ -61,6 +61,8 @@ describe('input the CLI refuses: exit 2, a one-line reason, nothing written (the
       [base.replace(/wheelbaseMm: .*/, 'wheelbaseMm: .nan'), /layout\.wheelbaseMm: \.nan is not a finite number/],
       [base.replace('name: Tessel 5', 'name: "Tessel\\e[31m 5"'), /name: "Tessel\\u001b\[31m 5" contains the control character U\+001B/],
       ['a: &x {b: *x}\n', /contains itself \(an alias inside its own anchor\)/],
+      // Aliases of aliases nine wide and six deep would expand to 9^6 values ("billion laughs").
+      [['a: &a [1,1,1,1,1,1,1,1,1]', ...'bcde'.split('').map((k, i) => `${k}: &${k} [${Array(9).fill(`*${'abcd'[i]}`).join(',')}]`), `f: [${Array(9).fill('*e').join(',')}]`].join('\n'), /cannot be read: Excessive alias count/],
       ['name: [unclosed\n', /is not valid YAML or JSON \(line \d+, column \d+\)/],
     ];
     const results = await Promise.all(cases.map(([text], i) => runCliAsync(['build', file(`y${i}.yaml`, text), '--out', out])));
