@@ -119,7 +119,7 @@ export const ComponentSchema = z.discriminatedUnion(
     cameraComponent,
     antennaComponent,
   ],
-  { error: `kind must be one of ${COMPONENT_KINDS.join(', ')}` },
+  { error: `must be one of ${COMPONENT_KINDS.join(', ')}` },
 );
 
 export const ComponentsSchema = z.array(ComponentSchema).max(24).default([]).describe('what the frame carries: stacks, video transmitter, receiver, battery, camera, antennas');

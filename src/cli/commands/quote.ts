@@ -8,6 +8,7 @@ import { drawingToPdf } from '../../export/pdfDrawing.js';
 import { drawingToSvgs, sheetLayoutToSvg } from '../../export/svgDrawing.js';
 import { parseShopText } from '../../params/shop.js';
 import { drawingSet, layoutDrawing, quoteParts, quoteReport } from '../../quote/index.js';
+import { buildAssembly, hardwareList } from '../../assembly/index.js';
 import { readDesign, readText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 import { slug } from './build.js';
@@ -87,9 +88,11 @@ export function registerQuote(program: Command): void {
       });
       bar?.clear();
       // The drawing carries the design-rule summary for the tool this quote uses.
-      const checks = checkFrame(frame, { toolDiameterMm: quote.toolDiameterMm }).summary;
+      const assembly = buildAssembly(design, frame);
+      const checks = checkFrame(frame, { toolDiameterMm: quote.toolDiameterMm }, assembly).summary;
       const meta = { design: design.name, revision: design.revision, date, checks };
-      const set = drawingSet(frame.parts, quote, { ...meta, generalTolerance: opts.tolerance ?? 'ISO 2768-m unless stated' });
+      const hardware = hardwareList(assembly, design);
+      const set = drawingSet(frame.parts, quote, { ...meta, generalTolerance: opts.tolerance ?? 'ISO 2768-m unless stated', hardware });
       const files: OutputFile[] = [];
       const report = quoteReport(quote, meta);
       files.push({ path: join(outDir, 'quote.json'), data: `${JSON.stringify(report, null, 2)}\n` });
