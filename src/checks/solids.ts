@@ -120,6 +120,11 @@ export function jointPrisms(j: BoltedJoint): Prism[] {
     const far = axisY ? j.nutAtMm[1] : j.nutAtMm[2];
     const [lo, hi] = dir > 0 ? [far, far + j.nut.heightMm] : [far - j.nut.heightMm, far];
     out.push(prism(`${j.id} nut`, 'nut', axisY ? 'y' : 'z', [hexagon(centre, j.nut.acrossFlatsMm)], lo, hi, j.id));
+    if (j.washer) {
+      const h = j.washer.thicknessMm;
+      const [wlo, whi] = dir > 0 ? [far - h, far] : [far, far + h];
+      out.push(prism(`${j.id} washer`, 'nut', axisY ? 'y' : 'z', [circle(centre, j.washer.outerMm / 2)], wlo, whi, j.id));
+    }
   }
   return out;
 }
