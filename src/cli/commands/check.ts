@@ -92,7 +92,11 @@ export function registerCheck(program: Command): void {
       const input = await loadCheckInput(path);
       // Limits are judged before the (slower) geometry is built, so bad input fails fast.
       const o = await mergedOptions(input.design, opts);
-      const [{ buildFrame }, { checkFrame, formatCheckReport, relieveFrame }] = await Promise.all([import('../../geometry/index.js'), import('../../checks/index.js')]);
+      const [{ buildFrame }, { checkFrame, formatCheckReport, relieveFrame }, { buildAssembly, massBalance, massBalanceText }] = await Promise.all([
+        import('../../geometry/index.js'),
+        import('../../checks/index.js'),
+        import('../../assembly/index.js'),
+      ]);
       let frame = buildFrame(input.design);
       let reliefNote = '';
       if (opts.relieveCorners) {
@@ -100,7 +104,9 @@ export function registerCheck(program: Command): void {
         frame = r.frame;
         reliefNote = `Corner relief: ${r.added} dogbone${r.added === 1 ? '' : 's'} added${r.skipped ? `, ${r.skipped} corner${r.skipped === 1 ? '' : 's'} too tight to relieve` : ''}; the report below is for the relieved parts.\n`;
       }
-      const report = checkFrame(frame, o);
+      const assembly = buildAssembly(frame.design, frame);
+      const report = checkFrame(frame, o, assembly);
+      const balance = massBalance(assembly, frame.design);
       if (opts.annotate) {
         const files = await annotatedFiles(frame, report, opts.annotate, o);
         writeAllAtomically(files, opts.annotate);
@@ -108,8 +114,9 @@ export function registerCheck(program: Command): void {
       if (opts.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
       else {
         const heading = `framewright check: ${frame.name} rev ${frame.revision} (router bit ${o.toolDiameterMm.toFixed(3)} mm)`;
-        process.stdout.write(`${reliefNote}${formatCheckReport(report, heading)}`);
+        process.stdout.write(`${reliefNote}${formatCheckReport(report, heading)}${massBalanceText(balance)}\n`);
       }
       process.exitCode = report.summary.errors > 0 ? 1 : 0;
     });
 }
+

@@ -66,13 +66,14 @@ export function registerQuote(program: Command): void {
       const design = await readDesign(designPath);
       const shopPath = opts.shop ?? DEFAULT_SHOP;
       const shopText = readText(shopPath, 'a shop profile (YAML)');
-      const [{ parseShopText }, { buildFrame }, { checkFrame }, { drawingSet, layoutDrawing, quoteParts, quoteReport }, { placedPartsToDxf }, { drawingToSvgs, sheetLayoutToSvg }] = await Promise.all([
+      const [{ parseShopText }, { buildFrame }, { checkFrame }, { drawingSet, layoutDrawing, quoteParts, quoteReport }, { placedPartsToDxf }, { drawingToSvgs, sheetLayoutToSvg }, { buildAssembly, hardwareList }] = await Promise.all([
         import('../../params/shop.js'),
         import('../../geometry/index.js'),
         import('../../checks/index.js'),
         import('../../quote/index.js'),
         import('../../export/dxf.js'),
         import('../../export/svgDrawing.js'),
+        import('../../assembly/index.js'),
       ]);
       const shop = parseShopText(shopText, shopPath);
       const frame = buildFrame(design);
@@ -89,9 +90,11 @@ export function registerQuote(program: Command): void {
       });
       bar?.clear();
       // The drawing carries the design-rule summary for the tool this quote uses.
-      const checks = checkFrame(frame, { toolDiameterMm: quote.toolDiameterMm }).summary;
+      const assembly = buildAssembly(design, frame);
+      const checks = checkFrame(frame, { toolDiameterMm: quote.toolDiameterMm }, assembly).summary;
       const meta = { design: design.name, revision: design.revision, date, checks };
-      const set = drawingSet(frame.parts, quote, { ...meta, generalTolerance: opts.tolerance ?? 'ISO 2768-m unless stated' });
+      const hardware = hardwareList(assembly, design);
+      const set = drawingSet(frame.parts, quote, { ...meta, generalTolerance: opts.tolerance ?? 'ISO 2768-m unless stated', hardware });
       const files: OutputFile[] = [];
       const report = quoteReport(quote, meta);
       files.push({ path: join(outDir, 'quote.json'), data: `${JSON.stringify(report, null, 2)}\n` });
