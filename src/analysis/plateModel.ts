@@ -2,14 +2,14 @@ import { partArea, type Feature, type FeaturePurpose, type Frame, type Part, typ
 import type { MotorOnPlate } from './describe.js';
 import { laminate, type Laminate } from './laminate.js';
 import { meshPart, nodeCount, type PlateMesh } from './mesh.js';
-import type { ShellModel } from './model.js';
+import type { FeModel } from './model.js';
 
 /** A part meshed and turned into a shell model lying in the x–y plane (part coordinates). */
 export type PlateModel = Readonly<{
   part: Part;
   mesh: PlateMesh;
   laminate: Laminate;
-  model: ShellModel;
+  model: FeModel;
 }>;
 
 /** Mass added to the plate: where it sits and how much, for the report. */
@@ -42,7 +42,7 @@ export function plateModel(part: Part, sizeMm = defaultMeshSizeMm(part)): PlateM
     xyz[3 * i] = mesh.xy[2 * i];
     xyz[3 * i + 1] = mesh.xy[2 * i + 1];
   }
-  const model: ShellModel = {
+  const model: FeModel = {
     xyz,
     triangles: mesh.triangles,
     laminates: [lam],
