@@ -121,7 +121,7 @@ export function symmetricEigen(a0: Float64Array, n: number): { values: Float64Ar
 export type EigenOptions = Readonly<{
   /** Shift σ (rad²/s²) below every wanted eigenvalue; K − σM must be positive definite. Default −(2π·10 Hz)². */
   shift?: number;
-  /** Vectors per Krylov block: at least the largest multiplicity expected. Default 6. */
+  /** Vectors per Krylov block: at least the largest multiplicity expected. Default 3. */
   blockSize?: number;
   /**
    * Known eigenvectors at λ = 0 (rigid-body motions of an unsupported model), kept out of the search:
@@ -129,7 +129,7 @@ export type EigenOptions = Readonly<{
    * swamp the precision left for high elastic modes. Vectors that vanish on the active DOFs are ignored.
    */
   deflate?: readonly Float64Array[];
-  /** Relative residual of the inverted operator, ‖Op x − θx‖_M / θ, accepted. Eigenvalue errors go as its square. Default 1e-4. */
+  /** Relative residual of the inverted operator, ‖Op x − θx‖_M / θ, accepted. Eigenvalue errors go as its square. Default 1e-3. */
   tolerance?: number;
 }>;
 
@@ -169,8 +169,8 @@ export function lowestEigenpairs(k: SparseSymmetric, m: SparseSymmetric, count: 
   const want = Math.min(count, n - (options.deflate?.length ?? 0));
   if (want <= 0) return { values: [], vectors: [], basisSize: 0, deflated: 0 };
   const sigma = options.shift ?? -((2 * Math.PI * 10) ** 2);
-  const p = Math.max(1, Math.min(options.blockSize ?? 6, n));
-  const tol = options.tolerance ?? 1e-4;
+  const p = Math.max(1, Math.min(options.blockSize ?? 3, n));
+  const tol = options.tolerance ?? 1e-3;
   const factor = cholesky(k.plus(m, -sigma));
   const lockedQ: Float64Array[] = [];
   const lockedMQ: Float64Array[] = [];

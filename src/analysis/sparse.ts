@@ -539,49 +539,65 @@ export function cholesky(a: SparseSymmetric, symbolic: Symbolic = symbolicFactor
  * so the panel is read once per sweep for all vectors. The vectors are overwritten and returned.
  */
 export function choleskySolveInPlace(l: CholeskyFactor, xs: Float64Array[]): Float64Array[] {
+  const { superStart, rowPtr } = l.symbolic;
+  const ns = superStart.length - 1;
+  let maxRows = 0;
+  for (let s = 0; s < ns; s++) maxRows = Math.max(maxRows, rowPtr[s + 1] - rowPtr[s]);
+  const w = new Float64Array(maxRows * xs.length);
+  for (let s = 0; s < ns; s++) sweepSupernode(l, s, xs, w, true);
+  for (let s = ns - 1; s >= 0; s--) sweepSupernode(l, s, xs, w, false);
+  return xs;
+}
+
+/**
+ * One supernode of the forward (L) or backward (Lᵀ) substitution for every vector, through the dense
+ * work array w (row i of the supernode holds the vectors' values side by side, so each panel entry
+ * is loaded once for all of them).
+ */
+function sweepSupernode(l: CholeskyFactor, s: number, xs: Float64Array[], w: Float64Array, forward: boolean): void {
   const { superStart, rowPtr, rows, panelPtr } = l.symbolic;
   const p = l.panels;
-  const ns = superStart.length - 1;
+  const nc = superStart[s + 1] - superStart[s];
+  const r0 = rowPtr[s];
+  const m = rowPtr[s + 1] - r0;
+  const base = panelPtr[s];
   const nv = xs.length;
-  let w = new Float64Array(0);
-  const sweep = (s: number, forward: boolean) => {
-    const nc = superStart[s + 1] - superStart[s];
-    const r0 = rowPtr[s];
-    const m = rowPtr[s + 1] - r0;
-    const base = panelPtr[s];
-    if (w.length < m * nv) w = new Float64Array(m * nv);
-    // w[v·m + i] = x_v[row i]
-    for (let v = 0; v < nv; v++) {
-      const x = xs[v];
-      for (let i = 0; i < m; i++) w[v * m + i] = x[rows[r0 + i]];
-    }
-    for (let v = 0; v < nv; v++) {
-      const o = v * m;
-      if (forward) {
-        for (let k = 0; k < nc; k++) {
-          const col = base + k * m;
-          const xk = (w[o + k] /= p[col + k]);
-          if (xk === 0) continue;
-          for (let i = k + 1; i < m; i++) w[o + i] -= p[col + i] * xk;
-        }
-      } else {
-        for (let k = nc - 1; k >= 0; k--) {
-          const col = base + k * m;
-          let t = w[o + k];
-          for (let i = k + 1; i < m; i++) t -= p[col + i] * w[o + i];
-          w[o + k] = t / p[col + k];
-        }
+  for (let v = 0; v < nv; v++) {
+    const x = xs[v];
+    for (let i = 0; i < m; i++) w[i * nv + v] = x[rows[r0 + i]];
+  }
+  if (forward) {
+    for (let k = 0; k < nc; k++) {
+      const col = base + k * m;
+      const d = p[col + k];
+      const kv = k * nv;
+      for (let v = 0; v < nv; v++) w[kv + v] /= d;
+      for (let i = k + 1; i < m; i++) {
+        const lik = p[col + i];
+        if (lik === 0) continue;
+        const iv = i * nv;
+        for (let v = 0; v < nv; v++) w[iv + v] -= lik * w[kv + v];
       }
     }
-    const last = forward ? m : nc;
-    for (let v = 0; v < nv; v++) {
-      const x = xs[v];
-      for (let i = 0; i < last; i++) x[rows[r0 + i]] = w[v * m + i];
+  } else {
+    for (let k = nc - 1; k >= 0; k--) {
+      const col = base + k * m;
+      const kv = k * nv;
+      for (let i = k + 1; i < m; i++) {
+        const lik = p[col + i];
+        if (lik === 0) continue;
+        const iv = i * nv;
+        for (let v = 0; v < nv; v++) w[kv + v] -= lik * w[iv + v];
+      }
+      const d = p[col + k];
+      for (let v = 0; v < nv; v++) w[kv + v] /= d;
     }
-  };
-  for (let s = 0; s < ns; s++) sweep(s, true);
-  for (let s = ns - 1; s >= 0; s--) sweep(s, false);
-  return xs;
+  }
+  const last = forward ? m : nc;
+  for (let v = 0; v < nv; v++) {
+    const x = xs[v];
+    for (let i = 0; i < last; i++) x[rows[r0 + i]] = w[i * nv + v];
+  }
 }
 
 /** Solve L Lᵀ x = b with a factor from `cholesky`; b is left untouched. */
