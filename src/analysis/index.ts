@@ -10,3 +10,5 @@ export * from './solve.js';
 export * from './describe.js';
 export * from './statics.js';
 export * from './modes.js';
+export * from './frameModel.js';
+export * from './frameModes.js';

@@ -111,7 +111,7 @@ export function rigidMasters(model: FeModel): Int32Array {
  * Assemble stiffness and mass over the DOFs `dofs` (a subset of 0..5) of every node, skipping fixed
  * ones and eliminating the slaves of rigid bodies. For a plate in the x–y plane the bending set
  * [2, 3, 4] and the membrane set [0, 1, 5] are uncoupled and may be assembled and solved separately;
- * a 3D model uses all six. Equations are numbered node by node in a nested-dissection order
+ * a 3D model uses all six. Equations are numbered node by node in a minimum-degree order
  * (see `fillReducingOrder`), ready for the sparse Cholesky factorisation.
  */
 export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): Assembly {
@@ -150,9 +150,7 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
   for (const b of beams) cliques.push(cliqueOf(b.nodes));
   for (let b = 0; b < nb; b++) cliques.push([b]);
   const graph = blockGraph(nb, cliques);
-  const bxyz = new Float64Array(3 * nb);
-  blockNode.forEach((v, b) => bxyz.set(model.xyz.subarray(3 * v, 3 * v + 3), 3 * b));
-  const order = fillReducingOrder(graph, bxyz);
+  const order = fillReducingOrder(graph, Int32Array.from(blockNode, (v) => width[v]));
   const posOf = new Int32Array(nb);
   order.forEach((b, k) => (posOf[b] = k));
   // Equations, node by node in the order; local index of each DOF inside its block.

@@ -49,7 +49,7 @@ export function solvePlateModes(pm: PlateModel, count: number): PlateSolution {
         rigidBy.set(plane, (rigidBy.get(plane) ?? 0) + 1);
         return;
       }
-      out.push({ frequencyHz: f, plane, shape: normalise(expand(a, r.vectors[i])) });
+      out.push({ frequencyHz: f, plane, shape: normaliseShape(expand(a, r.vectors[i])) });
     });
     return out;
   };
@@ -73,7 +73,7 @@ export function solvePlateModes(pm: PlateModel, count: number): PlateSolution {
 }
 
 /** Scale so the largest nodal translation is 1 and the largest component is positive (a stable sign). */
-function normalise(s: Float64Array): Float64Array {
+export function normaliseShape(s: Float64Array): Float64Array {
   let big = 0;
   let signed = 0;
   for (let i = 0; i < s.length; i += 6) {
