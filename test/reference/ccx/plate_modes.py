@@ -215,8 +215,10 @@ def main():
         deck.nodes = [(n, x, y, 0.0) for n, (x, y) in nodes.items()]
         deck.next_node = max(nodes) + 1
         deck.woven("WOVEN", m)
+        deck.woven("WOVENS", m, stiffen=1000.0)
         c, s = math.cos(spec["weaveRad"]), math.sin(spec["weaveRad"])
-        deck.shells(elems, "WOVEN", spec["thicknessMm"], (c, s, 0), (-s, c, 0))
+        tied_nodes = {n for b in spec.get("rigidMasses", []) for f in b["footprints"] if "centre" in f for n in within(nodes, f["centre"], f["radiusMm"])}
+        deck.shells_with_patches(elems, "WOVEN", spec["thicknessMm"], (c, s, 0), (-s, c, 0), tied_nodes)
         fixed = nodes_on(spec, nodes, spec.get("fixedLoops", []))
         if fixed:
             deck.lines.append("*BOUNDARY")
