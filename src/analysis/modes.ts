@@ -1,4 +1,6 @@
+import { buildAssembly } from '../assembly/build.js';
 import { motorHeightMm } from '../assembly/parts.js';
+import { assembledFrameModes, rotationBandFromTipSpeed, type FrameModalResult } from './frameModes.js';
 import { type Feature, type Frame, type Material, type Part, type PartRole, type Vec2 } from '../geometry/index.js';
 import { describeModes, motionAt, type PointMotion, type ShapeContext } from './describe.js';
 import type { PlateMesh } from './mesh.js';
@@ -26,6 +28,8 @@ export type ModeOptions = Readonly<{
    * arm's top face (its mass is `motorMassG`). Without it the motor is a mass at the bolt-circle centre.
    */
   motor?: Readonly<{ bellDiameterMm: number; heightMm: number }>;
+  /** frameModes: also solve the assembled frame (default true). */
+  assembled?: boolean;
 }>;
 
 export type Boundary = 'free' | 'arm-root-clamped' | 'body-with-motors';
@@ -212,6 +216,8 @@ export type FrameModes = Readonly<{
   body: BodyResult | null;
   /** Separate-arm frames: bottom-plate twist with the arm loads brought in at the root bolts. */
   rootTwist: BodyTwist | null;
+  /** The assembled frame (plates, joints, standoffs, motors, components), free in space; null for a part subset or a drawing. */
+  assembled: FrameModalResult | null;
 }>;
 
 /**
@@ -238,5 +244,9 @@ export function frameModes(frame: Frame, options: ModeOptions = {}): FrameModes 
     };
   }
   const rootTwist = bottom && frame.design.arms.construction === 'separate' ? rootLoadedBodyTwist(bottom, frame.sites, thrustN, opts.meshSizeMm) : null;
-  return { frame: frame.name, motorMassG, thrustN, parts, arms, body, rootTwist };
+  const assembled =
+    options.assembled === false
+      ? null
+      : assembledFrameModes(buildAssembly(frame.design, frame), { modes: options.modes ?? 8, rotationBand: rotationBandFromTipSpeed(frame.propDiameterMm) });
+  return { frame: frame.name, motorMassG, thrustN, parts, arms, body, rootTwist, assembled };
 }

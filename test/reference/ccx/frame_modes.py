@@ -20,7 +20,7 @@ The idealisation is the one framewright states (README, "Stiffness and resonance
     the motor axis);
   - camera side plate edges resting on a plate are tied to its nearest node.
 
-stdin: JSON {"design": path, "dxfDir": dir, "sizeMm": element size, "modes": count}
+stdin: JSON {"design": path, "dxfDir": dir, "sizeMm": element size, "modes": count, "subset": optional "body-and-arms"}
 stdout: JSON {"frequenciesHz": [...] (elastic modes above 1 Hz), "nodes": n}
 """
 import json
@@ -115,6 +115,8 @@ def main():
     with open(spec["design"]) as f:
         d = yaml.safe_load(f)
     size = spec["sizeMm"]
+    # "body-and-arms": only the bottom plate, the arms and the motors (no braces, top plate, standoffs, camera).
+    body_and_arms = spec.get("subset") == "body-and-arms"
     mats = d.get("materials") or {"woven-cf": {"e1Gpa": 65, "e2Gpa": 65, "g12Gpa": 4, "nu12": 0.07, "densityGPerCm3": 1.57}}
     first_mat = next(iter(mats))
     sec = lambda k: d.get(k) or {}  # noqa: E731
@@ -156,7 +158,7 @@ def main():
             f0 = rigid2d(theta, mirror, 0, 0)
             bx, by = f0(bore[0], bore[1])
             plates.append(Placed(f"arm {site}", part, ta, mat_of("arms"), weave_of("arms"), rigid2d(theta, mirror, mx - bx, my - by), z_low=arm_z))
-        if d.get("braces"):
+        if d.get("braces") and not body_and_arms:
             tbr = d["braces"].get("thicknessMm", 1.5)
             brace_z = arm_z - tbr if stacking == "under-body" else arm_z + ta
             names = ["brace"] if os.path.exists(os.path.join(spec["dxfDir"], "brace.dxf")) else ["brace-front", "brace-rear"]
@@ -180,8 +182,9 @@ def main():
                     raise SystemExit("brace holes do not meet the bottom plate's holes")
                 del cx, cy
                 plates.append(Placed(f"brace {'front' if front else 'rear'}", part, tbr, mat_of("braces"), weave_of("braces"), rigid2d(theta, False, *best), z_low=brace_z))
-    plates.append(Placed("top-plate", dxf("top-plate"), tt, mat_of("topPlate"), weave_of("topPlate"), ident, z_low=tb + gap))
-    cam = d.get("camera")
+    if not body_and_arms:
+        plates.append(Placed("top-plate", dxf("top-plate"), tt, mat_of("topPlate"), weave_of("topPlate"), ident, z_low=tb + gap))
+    cam = None if body_and_arms else d.get("camera")
     if cam:
         tc = cam.get("thicknessMm", 2)
         w = cam.get("widthMm", "micro")
@@ -248,7 +251,7 @@ def main():
     screw = so.get("boltSize", "M3")
     work = tempfile.mkdtemp(prefix="fw-rods-")
     rod_size = min(size, radius * 0.8)
-    for x, y in standoff_xy:
+    for x, y in [] if body_and_arms else standoff_xy:
         zb, zt = tb / 2, tb + gap + tt / 2
         low, high = deck.rod(work, (x, y, zb), (x, y, zt), radius, young, 0.33, rho * 1e-9, rod_size)
         for end, z_face, dk in ((low, tb, SOCKET_DK[screw]), (high, tb + gap, BUTTON_DK[screw])):
