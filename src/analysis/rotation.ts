@@ -1,21 +1,27 @@
 /**
  * What drives a frame: the motors' rotation and the props' thrust, from the prop diameter alone.
+ * One representation of the rotation band for every stage (assembled-frame modes, size variants).
  *
  * A prop's tip speed is what limits how fast it turns (noise, efficiency and compressibility grow
  * with it), so builds of every size run their props' tips at a similar top speed. At a given tip
- * speed v the rotation frequency is n = v / (π D): the motors' top rotation band falls as 1/D.
+ * speed v the rotation frequency is n = v / (π D): the motors' rotation band falls as 1/D.
  * Static thrust follows the propeller's thrust coefficient, T = C_T ρ n² D⁴ (the dimensionless
  * form used throughout propeller theory, e.g. McCormick, Aerodynamics, Aeronautics and Flight
  * Mechanics, ch. 6); at a given tip speed it grows as D².
  * SI inside; mm, Hz, N at the interface.
  */
 
+/** The motors' rotation frequencies, Hz, and how the top one was found. */
+export type RotationBand = Readonly<{ lowHz: number; highHz: number; source: string }>;
+
 /**
- * Blade tip speeds at the top of the throttle that bound the motors' top rotation band. m/s.
- * Common practice, no source: they reproduce the domain notes' 500–650 Hz for 5-inch props and
- * 350–450 Hz for 7-inch props.
+ * Blade tip speed taken as the top of the rotation band when the design states none, m/s: it puts
+ * the top rotation of a 5-inch prop near 600 Hz and of a 7-inch near 430 Hz, inside the ranges the
+ * trade quotes (domain.md: 500–650 Hz and 350–450 Hz). Common practice, no source.
  */
-export const TOP_TIP_SPEED_MPS = { low: 200, high: 255 } as const;
+export const TOP_TIP_SPEED_MPS = 240;
+/** Bottom of the band as a fraction of the top rotation speed (idle to hover; common practice, no source). */
+export const BAND_LOW_FRACTION = 0.3;
 
 /** Static thrust coefficient of a small two- or three-blade prop, T / (ρ n² D⁴). From memory (small-prop test data run 0.08–0.15). */
 export const STATIC_THRUST_COEFFICIENT = 0.1;
@@ -23,13 +29,10 @@ export const STATIC_THRUST_COEFFICIENT = 0.1;
 /** Sea-level standard air density (ISA). kg/m³. */
 export const SEA_LEVEL_AIR_DENSITY = 1.225;
 
-/** The motors' top rotation band for a prop: rotation frequencies at the band's two tip speeds. Hz. */
-export type RotationBand = Readonly<{ lowHz: number; highHz: number }>;
-
 /**
  * Rotation frequency of a prop of diameter D (mm) whose tips move at `tipSpeedMps`: v / (π D). Hz.
  * Throws RangeError for a non-positive diameter or speed.
- * @example rotationHz(127, 200) // 501.3: a 5-inch prop at 200 m/s tip speed
+ * @example rotationHz(127, 240) // 601.5: a 5-inch prop at 240 m/s tip speed
  */
 export function rotationHz(propDiameterMm: number, tipSpeedMps: number): number {
   if (!(propDiameterMm > 0) || !(tipSpeedMps > 0)) throw new RangeError(`prop diameter and tip speed must be positive (got ${propDiameterMm} mm, ${tipSpeedMps} m/s)`);
@@ -37,11 +40,14 @@ export function rotationHz(propDiameterMm: number, tipSpeedMps: number): number 
 }
 
 /**
- * The motors' top rotation band for a prop (mm): rotation at the band's low and high tip speeds. Hz.
- * @example rotationBand(177.8) // { lowHz: 358.1, highHz: 456.5 }: a 7-inch prop
+ * The motors' rotation band from the prop diameter and a top blade tip speed: top f = v / (π D),
+ * bottom BAND_LOW_FRACTION of it.
+ * @param propDiameterMm prop diameter, mm (> 0)
+ * @example rotationBandFromTipSpeed(177.8).highHz // 429.7: a 7-inch prop
  */
-export function rotationBand(propDiameterMm: number, tips: Readonly<{ low: number; high: number }> = TOP_TIP_SPEED_MPS): RotationBand {
-  return { lowHz: rotationHz(propDiameterMm, tips.low), highHz: rotationHz(propDiameterMm, tips.high) };
+export function rotationBandFromTipSpeed(propDiameterMm: number, tipSpeedMps = TOP_TIP_SPEED_MPS): RotationBand {
+  const high = rotationHz(propDiameterMm, tipSpeedMps);
+  return { lowHz: BAND_LOW_FRACTION * high, highHz: high, source: `blade tip speed ${tipSpeedMps} m/s on a ${propDiameterMm.toFixed(1)} mm prop (top), ${Math.round(BAND_LOW_FRACTION * 100)} % of it (bottom)` };
 }
 
 /**
@@ -55,7 +61,7 @@ export function propThrustN(propDiameterMm: number, rotationHz: number, thrustCo
 }
 
 /**
- * A motor's full thrust: its prop at the top of the rotation band (the high tip speed). N.
- * @example fullThrustN(127) // ≈ 13.0 (1.33 kgf), a 5-inch prop
+ * A motor's full thrust: its prop at the top of the rotation band. N.
+ * @example fullThrustN(127) // ≈ 11.5 (1.18 kgf), a 5-inch prop
  */
-export const fullThrustN = (propDiameterMm: number): number => propThrustN(propDiameterMm, rotationBand(propDiameterMm).highHz);
+export const fullThrustN = (propDiameterMm: number): number => propThrustN(propDiameterMm, rotationBandFromTipSpeed(propDiameterMm).highHz);

@@ -1,4 +1,4 @@
-import { rotationBand } from '../analysis/rotation.js';
+import { rotationBandFromTipSpeed } from '../analysis/rotation.js';
 import type { CheckReport } from '../checks/types.js';
 import type { Frame } from '../geometry/frame.js';
 import { wheelbaseOf } from '../geometry/layout.js';
@@ -42,7 +42,7 @@ export function rangeRow(label: string, d: Design, frame: Frame, report: CheckRe
   const widths: Record<string, number> = {};
   for (const p of armWidthParams(d)) widths[p.path.join('.')] = p.value;
   const s = report?.summary;
-  const band = rotationBand(d.props.diameterMm);
+  const band = rotationBandFromTipSpeed(d.props.diameterMm);
   return {
     label,
     propsIn: r(d.props.diameterMm / MM_PER_INCH, 3),
@@ -77,7 +77,7 @@ export const armSizeText = (row: RangeRow): string => `${Object.values(row.armWi
 export function bandSamples(fromIn: number, toIn: number, n = 41): Array<{ propsIn: number; lowHz: number; highHz: number }> {
   return Array.from({ length: n }, (_, i) => {
     const propsIn = fromIn + ((toIn - fromIn) * i) / (n - 1);
-    const b = rotationBand(propsIn * MM_PER_INCH);
+    const b = rotationBandFromTipSpeed(propsIn * MM_PER_INCH);
     return { propsIn, lowHz: b.lowHz, highHz: b.highHz };
   });
 }

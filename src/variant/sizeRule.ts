@@ -1,5 +1,5 @@
 import { cantileverFrequencyHz, cantileverTipDeflectionMm } from '../analysis/beam.js';
-import { fullThrustN, rotationBand, type RotationBand } from '../analysis/rotation.js';
+import { fullThrustN, rotationBandFromTipSpeed, type RotationBand } from '../analysis/rotation.js';
 import { assertNever } from '../geometry/types.js';
 import type { Design } from '../params/design.js';
 import { ceilTo } from '../params/derived.js';
@@ -48,7 +48,7 @@ export type SizeRule = Readonly<{
   sourceHz: number;
   sourceBand: RotationBand;
   band: RotationBand;
-  /** The source arm's f1 over the bottom of its rotation band; the variant keeps it. */
+  /** The source arm's f1 over the top of its rotation band; the variant keeps it. */
   bandRatio: number;
   requiredHz: number;
   fullThrustN: number;
@@ -74,9 +74,9 @@ export function softestArm(d: Design, tipMassG: number): { beam: ArmBeam; freque
 /** The rule for a variant of `source` with props of `propMm`. */
 export function sizeRule(source: Design, propMm: number): SizeRule {
   const src = softestArm(source, source.motorMassG);
-  const sourceBand = rotationBand(source.props.diameterMm);
-  const band = rotationBand(propMm);
-  const bandRatio = src.frequencyHz / sourceBand.lowHz;
+  const sourceBand = rotationBandFromTipSpeed(source.props.diameterMm);
+  const band = rotationBandFromTipSpeed(propMm);
+  const bandRatio = src.frequencyHz / sourceBand.highHz;
   const thrust = fullThrustN(propMm);
   const sourceDeflectionRatio = worstDeflection(source, THRUST_MARGIN * fullThrustN(source.props.diameterMm)).ratio;
   return {
@@ -86,7 +86,7 @@ export function sizeRule(source: Design, propMm: number): SizeRule {
     sourceBand,
     band,
     bandRatio,
-    requiredHz: bandRatio * band.lowHz,
+    requiredHz: bandRatio * band.highHz,
     fullThrustN: thrust,
     designThrustN: THRUST_MARGIN * thrust,
     sourceDeflectionRatio,

@@ -103,7 +103,8 @@ describe('fit rules, planted one at a time on Tessel 5', () => {
   });
 
   it('an antenna pointing into a prop disc is an error naming both', () => {
-    const b = tesselWith({ components: [...tesselComponents(), { kind: 'antenna', name: 'antenna', atMm: [-50, -20], zMm: 14, lengthMm: 60, directionDeg: -135, elevationDeg: 0, massG: 5 }] });
+    // Level with the prop plane (arm top 0 + props.heightAboveArmMm 23), pointing at the rear-right motor.
+    const b = tesselWith({ components: [...tesselComponents(), { kind: 'antenna', name: 'antenna', atMm: [-50, -20], zMm: 23, lengthMm: 60, directionDeg: -135, elevationDeg: 0, massG: 5 }] });
     expect(names(b, 'prop-clearance')).toContain('antenna & prop rear-right');
   });
 

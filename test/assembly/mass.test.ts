@@ -16,7 +16,8 @@ import {
   FRAME_AXES,
 } from '../../src/assembly/index.js';
 import { circle, partMassG, roundedRect, type Part } from '../../src/geometry/index.js';
-import { DEMO_FILES, demoDesign } from '../helpers/demo.js';
+import { DEMO_FILES, demoDesign, designWith } from '../helpers/demo.js';
+import { validateDesign } from '../../src/params/index.js';
 import { buildFrame } from '../../src/geometry/index.js';
 import { buildAssembly } from '../../src/assembly/index.js';
 
@@ -136,4 +137,23 @@ describe('mass and balance of the demo designs', () => {
       expect(mb.massG.hardware).toBeGreaterThan(0);
     });
   }
+});
+
+describe('washers (assembly.washers)', () => {
+  it('an ISO 7089 M3 washer under every nut: 12 on Tessel 5, each π/4 (7² − 3.2²) × 0.5 mm × 7.9 g/cm³ = 0.120246 g', () => {
+    const plain = demoDesign('tessel-5.yaml');
+    const withWashers = validateDesign(designWith('tessel-5.yaml', { assembly: { washers: true } }));
+    const a0 = buildAssembly(plain, buildFrame(plain));
+    const a1 = buildAssembly(withWashers, buildFrame(withWashers));
+    const washers = hardwareList(a1, withWashers).items.filter((i) => i.item === 'plain washer');
+    expect(washers.map((w) => [w.use, w.count, w.standard])).toEqual([['arm root clamp', 8, 'ISO 7089'], ['stack mount', 4, 'ISO 7089']]);
+    // Screw lengths do not change here (14.5 → 16 and 19.5 → 20 mm), so the hardware differs by the washers alone.
+    const one = (Math.PI / 4) * (7 ** 2 - 3.2 ** 2) * 0.5 * 7.9e-3;
+    expect(one).toBeCloseTo(0.120246, 6);
+    expect(massBalance(a1, withWashers).massG.hardware - massBalance(a0, plain).massG.hardware).toBeCloseTo(12 * one, 9);
+    // The nut sits on the washer: 0.5 mm further from the plates.
+    const j0 = a0.joints.find((j) => j.id === 'arm-root 1')!;
+    const j1 = a1.joints.find((j) => j.id === 'arm-root 1')!;
+    expect(j1.nutAtMm![2] - j0.nutAtMm![2]).toBeCloseTo(0.5, 12);
+  });
 });

@@ -1,10 +1,10 @@
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readdirSync, readFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import YAML from 'yaml';
-import { runCli, STACK_LINE } from '../helpers/cli.js';
+import { runCli, STACK_LINE, outputNames } from '../helpers/cli.js';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
 
 // End to end through the built CLI (npm test builds dist/ first), repo root as cwd.
@@ -58,7 +58,7 @@ describe('framewright variant (built CLI)', () => {
       expect(r.status).toBe(2);
       expect(r.stderr).toMatch(message);
       expect(r.stderr).not.toMatch(STACK_LINE);
-      expect(readdirSync(dir)).toEqual([]);
+      expect(outputNames(dir)).toEqual([]);
     });
   }
 
@@ -72,7 +72,7 @@ describe('framewright variant (built CLI)', () => {
     expect(r.stderr).toMatch(/Unmet: the arm size rule \(f1 ≥ \d+\.\d Hz and tip deflection ≤ \d\.\d\d % of the free length\): the stiffest allowed arm \(6 mm, widths 2 × the source's\) reaches f1 \d+\.\d Hz/);
     expect(r.stderr).toMatch(/Nearest valid alternative: .*props of \d+(\.5)?in with this design/);
     expect(r.stderr).not.toMatch(STACK_LINE);
-    expect(readdirSync(dir)).toEqual([]);
+    expect(outputNames(dir)).toEqual([]);
   });
 
   it('--force writes a variant that fails its checks, saying so in the first line of the output and of the file; exit 1', () => {
@@ -98,7 +98,7 @@ describe('framewright variant (built CLI)', () => {
     expect(report.rows).toHaveLength(4);
     expect(report.rows.map((x: { propsIn: number }) => x.propsIn)).toEqual([7, 5, 6, 7]);
     for (const row of report.rows) expect(['ok', 'warnings']).toContain(row.status);
-    expect(readdirSync(dir).sort()).toEqual(['farline-7-5in.yaml', 'farline-7-6in.yaml', 'farline-7-7in.yaml', 'range-chart.svg', 'range-sheet.svg']);
+    expect(outputNames(dir).sort()).toEqual(['farline-7-5in.yaml', 'farline-7-6in.yaml', 'farline-7-7in.yaml', 'range-chart.svg', 'range-sheet.svg']);
 
     const svg = readFileSync(join(dir, 'range-sheet.svg'), 'utf8');
     // one user unit = 1 mm (CSS Values 3 / SVG 2: width in mm equal to the viewBox width)
@@ -120,7 +120,7 @@ describe('framewright variant (built CLI)', () => {
     const dir = join(tmp(), 'range');
     const r = cli('designs/tessel-5.yaml', '--props', '3in,5in,7in', '--out', dir, '--json');
     expect(r.status).toBe(0);
-    const rows = JSON.parse(r.stdout).rows as Array<{ propsIn: number; wheelbaseMm: number; massG: number; armFrequencyHz: number; bandLowHz: number }>;
+    const rows = JSON.parse(r.stdout).rows as Array<{ propsIn: number; wheelbaseMm: number; massG: number; armFrequencyHz: number; bandHighHz: number }>;
     const svg = readFileSync(join(dir, 'range-chart.svg'), 'utf8');
     const panels = svg.split('<g id="panel-').slice(1);
     expect(panels).toHaveLength(3);
@@ -148,9 +148,15 @@ describe('framewright variant (built CLI)', () => {
         expect(Math.abs(y - (expected[k][field] as number))).toBeLessThan(0.002 * (expected[k][field] as number) + 0.05);
       });
     }
-    // the rotation band is drawn, and each row's arm f1 lies below its band's bottom (the demo arms do)
+    // the rotation band is drawn; its top at each row's prop is v / (π D) at 240 m/s (README), so the
+    // band's top edge passes through (in, 240 / (π · in · 0.0254)) on the chart's own axes
     expect(panels[2]).toMatch(/<polygon class="band"/);
-    for (const row of rows) expect(row.armFrequencyHz).toBeLessThan(row.bandLowHz);
+    const toX = axis(panels[2], 'grid-x');
+    const toY = axis(panels[2], 'grid-y');
+    const band = /<polygon class="band" points="([^"]+)"/.exec(panels[2])![1].split(' ').map((p) => p.split(',').map(Number));
+    const top = band.slice(0, band.length / 2).map(([x, y]) => [toX(x), toY(y)]);
+    for (const [inches, hz] of top) expect(hz).toBeCloseTo(240 / (Math.PI * inches * 0.0254), 0);
+    for (const row of rows) expect(row.armFrequencyHz).toBeLessThan(row.bandHighHz);
   });
 
   it('the range sheet and chart render (rsvg-convert)', () => {
@@ -169,7 +175,7 @@ describe('framewright variant (built CLI)', () => {
     const dir = tmp();
     const one = cli('designs/mote-3.yaml', '--props', '4in', '--out', dir);
     expect(one.status).toBe(0);
-    expect(readdirSync(dir)).toEqual(['mote-3-4in.yaml']);
+    expect(outputNames(dir)).toEqual(['mote-3-4in.yaml']);
     const range = cli('designs/mote-3.yaml', '--props', '3in,4in', '--out', join(dir, 'mote-3-4in.yaml'));
     expect(range.status).toBe(2);
     expect(range.stderr).toMatch(/--out: .* is a file; a size range needs a directory/);

@@ -14,10 +14,10 @@ const CASES: Array<[string, string]> = [
   ['mote-3', '6in'],
 ];
 
-/** Thrust margin 2, full thrust at 255 m/s tip speed, C_T 0.1, ρ 1.225 (the rule as the README states it), written out here. N. */
+/** Thrust margin 2, full thrust at 240 m/s tip speed, C_T 0.1, ρ 1.225 (the rule as the README states it), written out here. N. */
 const designThrustN = (propMm: number): number => {
   const D = propMm / 1000;
-  const n = 255 / (Math.PI * D);
+  const n = 240 / (Math.PI * D);
   return 2 * 0.1 * 1.225 * n * n * D ** 4;
 };
 

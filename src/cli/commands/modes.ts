@@ -1,22 +1,10 @@
 import type { Command } from 'commander';
-import { existsSync, readFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import {
-  armModes,
-  armTipDeflection,
-  DEFAULT_THRUST_N,
-  frameModes,
-  partModes,
-  type ArmResult,
-  type BodyResult,
-  type FrameModes,
-  type ModalResult,
-} from '../../analysis/index.js';
+import type { ArmResult, BodyResult, FrameModalResult, FrameModes, ModalResult } from '../../analysis/index.js';
+import { DEFAULT_THRUST_N } from '../../analysis/defaults.js';
 import { fmt } from '../../export/format.js';
-import { modeShapeSvg } from '../../export/svgModes.js';
-import { buildFrame, type Part } from '../../geometry/index.js';
-import { DxfReadError, importDxf, parseSidecarText, resolveImportSettings } from '../../import/index.js';
-import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
+import type { Part } from '../../geometry/index.js';
+import { readDesign, readDxfText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 
 type ModesCliOptions = {
@@ -57,7 +45,7 @@ function numberFlag(name: string, text: string | undefined, min: number, max: nu
 type Loaded = Readonly<{ label: string; result: FrameModes }>;
 
 /** Analyse one input: a design file (every part, arms, unibody body) or a DXF drawing (each part, free–free). */
-function analyse(path: string, opts: ModesCliOptions): Loaded {
+async function analyse(path: string, opts: ModesCliOptions): Promise<Loaded> {
   const common = {
     modes: numberFlag('--modes', opts.modes, 1, 50, true) ?? 6,
     meshSizeMm: numberFlag('--mesh-size', opts.meshSize, 0.3, 20),
@@ -69,8 +57,9 @@ function analyse(path: string, opts: ModesCliOptions): Loaded {
   };
   const options = Object.fromEntries(Object.entries(common).filter((e): e is [string, number] => e[1] !== undefined));
   try {
-    if (/\.dxf$/i.test(path)) return { label: basename(path), result: dxfModes(path, opts, options) };
-    const design = readDesign(path);
+    if (/\.dxf$/i.test(path)) return { label: basename(path), result: await dxfModes(path, opts, options) };
+    const design = await readDesign(path);
+    const [{ buildFrame }, { frameModes }] = await Promise.all([import('../../geometry/index.js'), import('../../analysis/index.js')]);
     let frame = buildFrame(design);
     if (opts.part) {
       const keep = frame.parts.filter((p) => p.name === opts.part);
@@ -78,44 +67,33 @@ function analyse(path: string, opts: ModesCliOptions): Loaded {
       // A unibody's body model is the bottom plate: it runs only when that is the part asked for.
       frame = { ...frame, parts: keep };
     }
-    return { label: frame.name, result: frameModes(frame, options) };
+    return { label: frame.name, result: frameModes(frame, { ...options, assembled: !opts.part }) };
   } catch (e) {
     if (e instanceof RangeError) throw new UsageError(`${path}: ${e.message}`);
+    const { FloatingPartError } = await import('../../analysis/index.js');
+    if (e instanceof FloatingPartError) throw new UsageError(`${path}: ${e.message}; check its joints (arm root, standoff and motor holes) in the design`);
     throw e;
   }
 }
 
-function dxfModes(path: string, opts: ModesCliOptions, options: Record<string, number>): FrameModes {
-  let text: string;
-  try {
-    const bytes = readFileSync(path);
-    try {
-      text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
-    } catch {
-      text = bytes.toString('latin1');
-    }
-  } catch (e) {
-    throw new UsageError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
-  }
-  let parts: Part[];
-  try {
-    const side = `${path}.yaml`;
-    const sidecar = existsSync(side) ? parseSidecarText(readFileSync(side, 'utf8'), side) : {};
-    const settings = resolveImportSettings(opts, sidecar);
-    if (settings.thicknessMm === undefined) throw new UsageError(`${path}: give the plate thickness with --thickness MM (or thicknessMm in ${basename(side)}); modes depend on it`);
-    parts = importDxf(text, { name: basename(path).replace(/\.dxf$/i, ''), ...settings }).parts;
-  } catch (e) {
-    if (e instanceof DxfReadError) throw new UsageError(`${path}: ${e.message}`);
-    throw e;
-  }
+async function dxfModes(path: string, opts: ModesCliOptions, options: Record<string, number>): Promise<FrameModes> {
+  const text = readDxfText(path);
+  const [{ importDxfFile }, { armModes, armTipDeflection, partModes }] = await Promise.all([import('../dxfInput.js'), import('../../analysis/index.js')]);
+  const { imported } = importDxfFile(path, text, opts, 'modes depend on it');
+  let parts: Part[] = imported.parts;
   if (opts.part) parts = parts.filter((p) => p.name === opts.part);
   if (!parts.length) throw new UsageError(`${path}: no closed part${opts.part ? ` named ${JSON.stringify(opts.part)}` : ''} to analyse`);
+  // A part whose contours cross (or that has any other drawing error) has no plate to mesh.
+  for (const p of parts) {
+    const broken = imported.findings.find((f) => f.severity === 'error' && f.rule.startsWith('dxf-') && f.part === p.name);
+    if (broken) throw new UsageError(`${path}: part ${p.name} cannot be analysed: ${broken.rule}: ${broken.message.split('\n')[0]} (\`framewright check ${path}\` lists every problem)`);
+  }
   const results = parts.map((p) => partModes(p, options));
   // A drawing that marks motor and root bolts (it does not, unless a sidecar says so) would also get arm results.
   const arms: ArmResult[] = parts
     .filter((p) => p.features.some((f) => f.purpose === 'arm-root-bolt') && p.features.some((f) => f.purpose === 'motor-bolt'))
     .map((p) => ({ modal: armModes(p, options), statics: armTipDeflection(p, options.thrustN ?? DEFAULT_THRUST_N, options.meshSizeMm) }));
-  return { frame: basename(path), motorMassG: options.motorMassG ?? 0, thrustN: options.thrustN ?? DEFAULT_THRUST_N, parts: results, arms, body: null, rootTwist: null };
+  return { frame: basename(path), motorMassG: options.motorMassG ?? 0, thrustN: options.thrustN ?? DEFAULT_THRUST_N, parts: results, arms, body: null, rootTwist: null, assembled: null };
 }
 
 const BOUNDARY_WORDS: Record<ModalResult['boundary'], string> = {
@@ -136,14 +114,63 @@ function modalJson(r: ModalResult) {
 function frameJson(input: string, r: FrameModes) {
   return {
     input,
-    frame: r.frame,
     motorMassG: r.motorMassG,
     thrustN: r.thrustN,
     parts: r.parts.map(modalJson),
     arms: r.arms.map((a) => ({ ...modalJson(a.modal), statics: a.statics })),
     body: r.body ? { ...modalJson(r.body.modal), twist: r.body.twist, tipDeflections: r.body.tipDeflections } : null,
     rootTwist: r.rootTwist,
+    // The assembled frame; a drawing or a single part has no frame model (modes empty).
+    frame: { name: r.frame, ...(r.assembled ? assembledJson(r.assembled) : { modes: [] }) },
   };
+}
+
+const round = (x: number, digits: number) => Number(x.toFixed(digits));
+
+/** The assembled frame's modes for JSON: what moves, where the energy is, what the gyro and camera feel. */
+function assembledJson(a: FrameModalResult) {
+  return {
+    nodes: a.nodes,
+    dof: a.dof,
+    massG: round(a.massG, 2),
+    motors: a.frame.motors.map((m) => m.site),
+    rotationBand: a.rotationBand,
+    modes: a.modes.map((m) => ({
+      index: m.index,
+      frequencyHz: round(m.frequencyHz, 2),
+      name: m.name,
+      kind: m.kind,
+      motorsZ: m.motorsZ.map((z) => round(z, 4)),
+      sharesByPart: Object.fromEntries(Object.entries(m.sharesByPart).map(([k, v]) => [k, round(v, 4)])),
+      flightController: m.flightController && { displacementRatio: round(m.flightController.displacementRatio, 4), rotationDegPerMm: round(m.flightController.rotationDegPerMm, 4) },
+      camera: m.camera && { displacementRatio: round(m.camera.displacementRatio, 4), rotationDegPerMm: round(m.camera.rotationDegPerMm, 4) },
+      inRotationBand: m.inRotationBand,
+    })),
+  };
+}
+
+/** The assembled frame's table: frequency, name, motor motion, gyro and camera, the part holding most energy, band flag. */
+function assembledText(a: FrameModalResult): string {
+  const sites = a.frame.motors.map((m) => m.site).join(', ');
+  const head = `assembled frame — free in space (${a.nodes} nodes, ${a.dof} DOF, ${fmt(a.massG, 1)} g)`;
+  const band = a.rotationBand ? `  motors' rotation band ${fmt(a.rotationBand.lowHz, 0)}–${fmt(a.rotationBand.highHz, 0)} Hz (${a.rotationBand.source}); * marks a mode inside it` : '';
+  const rows = a.modes.map((m) => {
+    const top = Object.entries(m.sharesByPart).sort((x, y) => y[1] - x[1] || x[0].localeCompare(y[0]))[0];
+    return [
+      `${m.index}${m.inRotationBand ? '*' : ''}`,
+      fmt(m.frequencyHz, 0),
+      m.name,
+      m.motorsZ.map((z) => fmt(z, 2)).join(' '),
+      m.flightController ? fmt(m.flightController.rotationDegPerMm, 3) : '',
+      m.camera ? fmt(m.camera.rotationDegPerMm, 3) : '',
+      top ? `${top[0]} ${fmt(100 * top[1], 0)} %` : '',
+    ];
+  });
+  const table = textTable(['#', 'Hz', 'mode', `motors z (${sites})`, 'FC tilt °/mm', 'camera °/mm', 'most strain energy'], rows);
+  return `${head}\n${table
+    .split('\n')
+    .map((l) => `  ${l}`)
+    .join('\n')}\n${band}\n`;
 }
 
 function modalText(r: ModalResult): string {
@@ -159,6 +186,7 @@ function modalText(r: ModalResult): string {
 
 function frameText(r: FrameModes): string {
   const out = [`framewright modes: ${r.frame} (motor ${fmt(r.motorMassG, 1)} g each, thrust ${fmt(r.thrustN, 1)} N per motor)`, ''];
+  if (r.assembled) out.push(assembledText(r.assembled));
   if (r.body) {
     out.push(modalText(r.body.modal));
     out.push(`  body twist under opposite thrusts (${r.body.twist.pattern}): ${fmt(r.body.twist.twistDeg, 3)}°`);
@@ -182,17 +210,36 @@ function comparisonText(items: readonly Loaded[]): string {
   const worstTip = (r: FrameModes) => (r.arms.length ? Math.max(...r.arms.map((a) => a.statics.tipDeflectionMm)) : r.body ? Math.max(...r.body.tipDeflections.map((t) => t.tipDeflectionMm)) : undefined);
   const alternate = (b: BodyResult | null) => b?.modal.modes.find((m) => /alternately/.test(m.description));
   const bottomFree = (r: FrameModes) => r.parts.find((p) => p.role === 'bottom')?.modes[0]?.frequencyHz;
-  const header = ['design', 'bottom plate 1st Hz', 'arm+motor 1st Hz', 'body+motors 1st Hz', 'alternating mode Hz', 'stack tilt °/mm', 'tip defl. mm', 'body twist °'];
+  const firstOf = (r: FrameModes, kinds: readonly string[]) => r.assembled?.modes.find((m) => kinds.includes(m.kind))?.frequencyHz;
+  const twist = (r: FrameModes) => firstOf(r, ['body twist']);
+  const bending = (r: FrameModes) => firstOf(r, ['pitch bending', 'roll bending']);
+  const base = items[0].result;
+  const change = (x: number | undefined, ref: number | undefined) => (x === undefined || ref === undefined || ref === 0 ? '' : `${x >= ref ? '+' : ''}${fmt((100 * (x - ref)) / ref, 1)} %`);
+  const header = ['design', 'frame twist Hz', 'vs first', 'frame bending Hz', 'vs first', 'bottom plate 1st Hz', 'arm+motor 1st Hz', 'body+motors 1st Hz', 'alternating mode Hz', 'stack tilt °/mm', 'tip defl. mm', 'body twist °'];
   const rows = items.map(({ label, result: r }) => {
     const alt = alternate(r.body);
-    return [label, cell(bottomFree(r), 0), cell(firstArm(r), 0), cell(r.body?.modal.modes[0]?.frequencyHz, 0), cell(alt?.frequencyHz, 0), cell(alt?.stack?.tiltDegPerMm, 3), cell(worstTip(r), 3), cell((r.body?.twist ?? r.rootTwist)?.twistDeg, 3)];
+    return [
+      label,
+      cell(twist(r), 0),
+      change(twist(r), twist(base)),
+      cell(bending(r), 0),
+      change(bending(r), bending(base)),
+      cell(bottomFree(r), 0),
+      cell(firstArm(r), 0),
+      cell(r.body?.modal.modes[0]?.frequencyHz, 0),
+      cell(alt?.frequencyHz, 0),
+      cell(alt?.stack?.tiltDegPerMm, 3),
+      cell(worstTip(r), 3),
+      cell((r.body?.twist ?? r.rootTwist)?.twistDeg, 3),
+    ];
   });
   return `framewright modes: comparison (thrust ${fmt(items[0].result.thrustN, 1)} N per motor; blank: not modelled for that design)\n${textTable(header, rows)}\n\n`;
 }
 
 const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '');
 
-function plotFiles(dir: string, prefix: string, r: FrameModes, parts: ReadonlyMap<string, Part>): OutputFile[] {
+async function plotFiles(dir: string, prefix: string, r: FrameModes, parts: ReadonlyMap<string, Part>): Promise<OutputFile[]> {
+  const { modeShapeSvg } = await import('../../export/svgModes.js');
   const all: ModalResult[] = [...r.parts, ...r.arms.map((a) => a.modal), ...(r.body ? [r.body.modal] : [])];
   return all.flatMap((m) => {
     const part = parts.get(m.part);
@@ -239,19 +286,18 @@ export function registerModes(program: Command): void {
     .option('--material <name>', 'DXF only: material name (woven-cf, or one defined in the sidecar)')
     .option('--units <unit>', 'DXF only: drawing units mm, cm, m, in, ft (overrides $INSUNITS)')
     .option('--layers <a,b>', 'DXF only: the layers that hold cut geometry')
-    .action((inputs: string[], opts: ModesCliOptions) => {
-      const items = inputs.map((path) => ({ path, ...analyse(path, opts) }));
+    .action(async (inputs: string[], opts: ModesCliOptions) => {
+      const items: Array<Loaded & { path: string }> = [];
+      for (const path of inputs) items.push({ path, ...(await analyse(path, opts)) });
       if (opts.plot) {
-        const files = items.flatMap((it) => {
+        const { buildFrame } = await import('../../geometry/index.js');
+        const files: OutputFile[] = [];
+        for (const it of items) {
           const parts = new Map<string, Part>();
-          if (!/\.dxf$/i.test(it.path)) for (const p of buildFrame(readDesign(it.path)).parts) parts.set(p.name, p);
-          return plotFiles(opts.plot!, items.length > 1 ? `${slug(it.label)}-` : '', it.result, parts);
-        });
-        try {
-          writeAllAtomically(files);
-        } catch (e) {
-          throw new UsageError(`cannot write the mode plots to ${opts.plot}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}; nothing was written`);
+          if (!/\.dxf$/i.test(it.path)) for (const p of buildFrame(await readDesign(it.path)).parts) parts.set(p.name, p);
+          files.push(...(await plotFiles(opts.plot, items.length > 1 ? `${slug(it.label)}-` : '', it.result, parts)));
         }
+        writeAllAtomically(files, opts.plot);
       }
       if (opts.json) {
         const body = {

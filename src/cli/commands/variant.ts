@@ -1,24 +1,9 @@
 import type { Command } from 'commander';
 import { existsSync, statSync } from 'node:fs';
 import { basename, extname, join } from 'node:path';
-import { checkFrame } from '../../checks/index.js';
-import { rangeChartSvg } from '../../export/svgRangeChart.js';
-import { rangeSheetSvg } from '../../export/svgRangeSheet.js';
 import { fmt } from '../../export/format.js';
 import { DesignError } from '../../params/errors.js';
-import {
-  armSizeText,
-  bandSamples,
-  makeVariant,
-  pathText,
-  sourceRow,
-  variantRow,
-  VariantRefusal,
-  VariantRequestError,
-  type RangeRow,
-  type VariantRequest,
-  type VariantResult,
-} from '../../variant/index.js';
+import type { RangeRow, VariantRefusal, VariantRequest, VariantResult } from '../../variant/index.js';
 import { readText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 
@@ -31,6 +16,18 @@ type VariantOptions = {
   json?: boolean;
   force?: boolean;
 };
+
+/** The stages this command uses, loaded when it runs (DEVELOPERS.md, "How to add a command"). */
+async function loadStages() {
+  const [variant, { rangeSheetSvg }, { rangeChartSvg }, { checkFrame }] = await Promise.all([
+    import('../../variant/index.js'),
+    import('../../export/svgRangeSheet.js'),
+    import('../../export/svgRangeChart.js'),
+    import('../../checks/index.js'),
+  ]);
+  return { ...variant, rangeSheetSvg, rangeChartSvg, checkFrame };
+}
+type Stages = Awaited<ReturnType<typeof loadStages>>;
 
 const CAUTIONS = [
   'Structural figures are estimates from idealised beam models, not certification. Test a new frame with the props off first.',
@@ -65,22 +62,22 @@ function progress(done: number, total: number, what: string): void {
 const invalidText = (text: string, r: VariantRefusal): string =>
   `# INVALID: this ${r.props} variant fails its checks (${r.attempt?.errors ?? '?'} errors); written only because --force was given. See \`framewright check\`.\n${text}`;
 
-function changeTable(v: VariantResult): string {
+function changeTable(V: Stages, v: VariantResult): string {
   const show = (x: unknown) => (typeof x === 'number' ? fmt(x, 3) : typeof x === 'string' ? x : JSON.stringify(x));
   return textTable(
     ['parameter', 'old', 'new', 'why'],
-    v.changes.map((c) => [pathText(c.path), show(c.old), show(c.new), c.why]),
+    v.changes.map((c) => [V.pathText(c.path), show(c.old), show(c.new), c.why]),
   );
 }
 
-function comparisonTable(rows: readonly RangeRow[]): string {
+function comparisonTable(V: Stages, rows: readonly RangeRow[]): string {
   return textTable(
     ['frame', 'props in', 'wheelbase mm', 'arm widths × t mm', 'motor g', 'mass g', 'arm f1 Hz', 'f1 asked Hz', 'rotation band Hz', 'checks'],
     rows.map((r) => [
       r.label,
       fmt(r.propsIn, 2),
       fmt(r.wheelbaseMm, 1),
-      armSizeText(r),
+      V.armSizeText(r),
       fmt(r.motorMassG, 1),
       fmt(r.massG, 1),
       fmt(r.armFrequencyHz, 1),
@@ -91,7 +88,7 @@ function comparisonTable(rows: readonly RangeRow[]): string {
   );
 }
 
-function variantJson(v: VariantResult, file: string) {
+function variantJson(V: Stages, v: VariantResult, file: string) {
   const a = v.arms;
   return {
     file,
@@ -99,7 +96,7 @@ function variantJson(v: VariantResult, file: string) {
     propDiameterMm: v.propDiameterMm,
     wheelbase: v.wheelbase,
     motorClass: { source: v.motor.sourceClass.name, variant: v.motor.variantClass.name, massG: v.motor.massG, how: v.motor.how },
-    changes: v.changes.map((c) => ({ parameter: pathText(c.path), old: c.old, new: c.new, why: c.why })),
+    changes: v.changes.map((c) => ({ parameter: V.pathText(c.path), old: c.old, new: c.new, why: c.why })),
     armRule: {
       rule: "arm f1 keeps the source's ratio to the motors' rotation band (band ∝ 1/D); tip deflection under 2 × full thrust over the free length within the source's ratio (at least 1 % allowed)",
       allowedDeflectionRatio: a.rule.allowedDeflectionRatio,
@@ -134,12 +131,12 @@ function wheelbaseLine(v: VariantResult): string {
 }
 
 /** Make one size; a refusal is returned (not thrown) so ranges can collect every size's outcome. Bad requests throw UsageError. */
-function attempt(text: string, req: VariantRequest, source: string): VariantResult | VariantRefusal {
+function attempt(V: Stages, text: string, req: VariantRequest, source: string): VariantResult | VariantRefusal {
   try {
-    return makeVariant(text, req, source);
+    return V.makeVariant(text, req, source);
   } catch (e) {
-    if (e instanceof VariantRefusal) return e;
-    if (e instanceof VariantRequestError) throw new UsageError(`cannot make the ${req.props} variant; nothing was written.\n${e.message}`);
+    if (e instanceof V.VariantRefusal) return e;
+    if (e instanceof V.VariantRequestError) throw new UsageError(`cannot make the ${req.props} variant; nothing was written.\n${e.message}`);
     throw e;
   }
 }
@@ -156,16 +153,17 @@ export function registerVariant(program: Command): void {
     .option('--out <path>', 'new design file (one size; default out/<design>-<props>.yaml) or directory (size range; default out/<design>-range)')
     .option('--force', 'write a variant that fails its checks anyway, marked INVALID in its first line (exit code 1 all the same)')
     .option('--json', 'print a JSON report instead of the tables')
-    .action((designPath: string, opts: VariantOptions) => {
-      const text = readText(designPath);
+    .action(async (designPath: string, opts: VariantOptions) => {
+      const text = readText(designPath, 'a design file (YAML or JSON)');
       const sizes = opts.props.split(',').map((s) => s.trim()).filter((s) => s.length > 0);
       if (sizes.length === 0) throw new UsageError('--props: give at least one prop size, e.g. 7in');
       if (new Set(sizes).size !== sizes.length) throw new UsageError(`--props: ${opts.props} lists a size twice`);
       const base: Omit<VariantRequest, 'props'> = { wheelbase: parseWheelbase(opts.wheelbase), wheelbaseStepMm: parseStep(opts.wheelbaseStep), motor: opts.motor };
       if (sizes.length > 1 && base.wheelbase !== 'auto') throw new UsageError('--wheelbase: a size range (several --props) takes only --wheelbase auto');
+      const V = await loadStages();
       const stem = basename(designPath, extname(designPath));
-      if (sizes.length === 1) singleVariant(text, designPath, stem, { ...base, props: sizes[0] }, opts);
-      else sizeRange(text, designPath, stem, sizes, base, opts);
+      if (sizes.length === 1) singleVariant(V, text, designPath, stem, { ...base, props: sizes[0] }, opts);
+      else sizeRange(V, text, designPath, stem, sizes, base, opts);
     });
 }
 
@@ -174,12 +172,12 @@ function refusalText(r: VariantRefusal, wrote: string | null): string {
   return `${head}\nUnmet: ${r.constraint}\nNearest valid alternative: ${r.alternative}\n`;
 }
 
-function singleVariant(text: string, designPath: string, stem: string, req: VariantRequest, opts: VariantOptions): void {
+function singleVariant(V: Stages, text: string, designPath: string, stem: string, req: VariantRequest, opts: VariantOptions): void {
   const name = `${stem}-${propsSlug(req.props)}.yaml`;
   // --out may name the file or a directory to put it in.
   const file = opts.out === undefined ? join('out', name) : existsSync(opts.out) && statSync(opts.out).isDirectory() ? join(opts.out, name) : opts.out;
-  const v = attempt(text, req, designPath);
-  if (v instanceof VariantRefusal) {
+  const v = attempt(V, text, req, designPath);
+  if (v instanceof V.VariantRefusal) {
     const write = opts.force && v.attempt;
     if (write) writeAllAtomically([{ path: file, data: invalidText(v.attempt!.text, v) }]);
     const out = refusalText(v, write ? file : null);
@@ -190,14 +188,14 @@ function singleVariant(text: string, designPath: string, stem: string, req: Vari
   }
   writeAllAtomically([{ path: file, data: v.text }]);
   if (opts.json) {
-    process.stdout.write(`${JSON.stringify(variantJson(v, file), null, 2)}\n`);
+    process.stdout.write(`${JSON.stringify(variantJson(V, v, file), null, 2)}\n`);
     return;
   }
-  const rows = [sourceRow(v, checkFrame(v.sourceFrame)), variantRow(v)];
+  const rows = [V.sourceRow(v, V.checkFrame(v.sourceFrame)), V.variantRow(v)];
   const out = [
     `${v.sourceDesign.name} -> ${v.design.name}: ${file}`,
     '',
-    changeTable(v),
+    changeTable(V, v),
     '',
     wheelbaseLine(v),
     v.body.line,
@@ -205,7 +203,7 @@ function singleVariant(text: string, designPath: string, stem: string, req: Vari
     ...v.arms.lines,
     `Hardware kept: stack mounts, standoffs, camera width, strap slots, root bolts${v.motor.changes.some((c) => c.path[1] === 'boltCircleMm') ? '' : ', motor pattern and bolts'}.`,
     '',
-    comparisonTable(rows),
+    comparisonTable(V, rows),
     '',
     `Checks on the variant: 0 errors, ${v.report.summary.warnings} warnings (every check passes; \`framewright check ${file}\` lists the warnings).`,
     ...CAUTIONS,
@@ -213,12 +211,12 @@ function singleVariant(text: string, designPath: string, stem: string, req: Vari
   process.stdout.write(`${out.join('\n')}\n`);
 }
 
-function sizeRange(text: string, designPath: string, stem: string, sizes: readonly string[], base: Omit<VariantRequest, 'props'>, opts: VariantOptions): void {
+function sizeRange(V: Stages, text: string, designPath: string, stem: string, sizes: readonly string[], base: Omit<VariantRequest, 'props'>, opts: VariantOptions): void {
   const outcomes: Array<VariantResult | VariantRefusal> = [];
   const problems: string[] = [];
   sizes.forEach((props, i) => {
     try {
-      outcomes.push(attempt(text, { ...base, props }, designPath));
+      outcomes.push(attempt(V, text, { ...base, props }, designPath));
     } catch (e) {
       if (e instanceof UsageError || e instanceof DesignError) problems.push(`${props}: ${e.message.replace(/^cannot make the .* variant; nothing was written\.\n/, '')}`);
       else throw e;
@@ -226,7 +224,7 @@ function sizeRange(text: string, designPath: string, stem: string, sizes: readon
     progress(i + 1, sizes.length, props);
   });
   if (problems.length) throw new UsageError(`cannot make ${problems.length === 1 ? 'one size' : `${problems.length} sizes`} of the range; nothing was written.\n${problems.join('\n')}`);
-  const refusals = outcomes.filter((o): o is VariantRefusal => o instanceof VariantRefusal);
+  const refusals = outcomes.filter((o): o is VariantRefusal => o instanceof V.VariantRefusal);
   const dir = opts.out ?? join('out', `${stem}-range`);
   if (existsSync(dir) && !statSync(dir).isDirectory()) throw new UsageError(`--out: ${dir} is a file; a size range needs a directory`);
   if (refusals.length && !(opts.force && refusals.every((r) => r.attempt))) {
@@ -234,8 +232,8 @@ function sizeRange(text: string, designPath: string, stem: string, sizes: readon
     process.exitCode = 1;
     return;
   }
-  const results = outcomes.filter((o): o is VariantResult => !(o instanceof VariantRefusal));
-  const files: OutputFile[] = outcomes.map((o, i) => ({ path: join(dir, `${stem}-${propsSlug(sizes[i])}.yaml`), data: o instanceof VariantRefusal ? invalidText(o.attempt!.text, o) : o.text }));
+  const results = outcomes.filter((o): o is VariantResult => !(o instanceof V.VariantRefusal));
+  const files: OutputFile[] = outcomes.map((o, i) => ({ path: join(dir, `${stem}-${propsSlug(sizes[i])}.yaml`), data: o instanceof V.VariantRefusal ? invalidText(o.attempt!.text, o) : o.text }));
   const head = refusals.length ? `INVALID sizes written (--force): ${refusals.map((r) => r.props).join(', ')} fail their checks.\n` : '';
   if (results.length === 0) {
     writeAllAtomically(files);
@@ -244,26 +242,26 @@ function sizeRange(text: string, designPath: string, stem: string, sizes: readon
     return;
   }
   const first = results[0];
-  const rows = [sourceRow(first, checkFrame(first.sourceFrame)), ...results.map(variantRow)];
+  const rows = [V.sourceRow(first, V.checkFrame(first.sourceFrame)), ...results.map(V.variantRow)];
   const sheet = [
-    { label: rows[0].label, notes: notesOf(rows[0]), frame: first.sourceFrame },
-    ...results.map((v, i) => ({ label: v.design.name, notes: notesOf(rows[i + 1]), frame: v.frame })),
+    { label: rows[0].label, notes: notesOf(V, rows[0]), frame: first.sourceFrame },
+    ...results.map((v, i) => ({ label: v.design.name, notes: notesOf(V, rows[i + 1]), frame: v.frame })),
   ];
   const sheetPath = join(dir, 'range-sheet.svg');
   const chartPath = join(dir, 'range-chart.svg');
   const title = `${first.sourceDesign.name}: size range`;
-  files.push({ path: sheetPath, data: rangeSheetSvg(sheet, { title, footer: CAUTIONS }) });
+  files.push({ path: sheetPath, data: V.rangeSheetSvg(sheet, { title, footer: CAUTIONS }) });
   const inches = rows.map((r) => r.propsIn);
   const chartPoints = rows.map((r, i) => ({ label: r.label, propsIn: r.propsIn, wheelbaseMm: r.wheelbaseMm, massG: r.massG, armFrequencyHz: r.armFrequencyHz, requiredHz: r.requiredHz, source: i === 0 }));
-  files.push({ path: chartPath, data: rangeChartSvg(chartPoints, bandSamples(Math.min(...inches), Math.max(...inches)), { title: `${title}: wheelbase, mass, arm f1 and the motors' rotation band`, footer: CAUTIONS }) });
+  files.push({ path: chartPath, data: V.rangeChartSvg(chartPoints, V.bandSamples(Math.min(...inches), Math.max(...inches)), { title: `${title}: wheelbase, mass, arm f1 and the motors' rotation band`, footer: CAUTIONS }) });
   writeAllAtomically(files);
   if (opts.json) {
-    process.stdout.write(`${JSON.stringify({ units: 'mm', source: designPath, sheet: sheetPath, chart: chartPath, invalid: refusals.map((r) => r.props), cautions: CAUTIONS, rows, variants: results.map((v) => variantJson(v, files[outcomes.indexOf(v)].path)) }, null, 2)}\n`);
+    process.stdout.write(`${JSON.stringify({ units: 'mm', source: designPath, sheet: sheetPath, chart: chartPath, invalid: refusals.map((r) => r.props), cautions: CAUTIONS, rows, variants: results.map((v) => variantJson(V, v, files[outcomes.indexOf(v)].path)) }, null, 2)}\n`);
   } else {
     const out = [
       `${head}${first.sourceDesign.name}: ${results.length} sizes in ${dir} (sheet: ${sheetPath}, chart: ${chartPath})`,
       '',
-      comparisonTable(rows),
+      comparisonTable(V, rows),
       '',
       "Arm f1: first bending frequency of the softest arm with its motor (Euler-Bernoulli cantilever, tip-mass frequency equation); 'f1 asked'",
       "is what the size rule requires: the source's f1 scaled with the motors' rotation band, which falls as 1/D.",
@@ -277,10 +275,10 @@ function sizeRange(text: string, designPath: string, stem: string, sizes: readon
   if (refusals.length) process.exitCode = 1;
 }
 
-function notesOf(r: RangeRow): string[] {
+function notesOf(V: Stages, r: RangeRow): string[] {
   return [
     `props ${fmt(r.propsIn, 2)} in, wheelbase ${fmt(r.wheelbaseMm, 1)} mm`,
-    `arms ${armSizeText(r)} mm, f1 ${fmt(r.armFrequencyHz, 0)} Hz`,
+    `arms ${V.armSizeText(r)} mm, f1 ${fmt(r.armFrequencyHz, 0)} Hz`,
     `${fmt(r.massG, 0)} g, checks: ${r.status}`,
   ];
 }
