@@ -5,6 +5,7 @@ export * from './armModel.js';
 export * from './motor.js';
 export * from './sizeRule.js';
 export * from './rootRoom.js';
+export * from './refusal.js';
 export * from './body.js';
 export * from './variant.js';
 export * from './sizeRange.js';

@@ -7,6 +7,8 @@ import type { Vec2 } from '../geometry/types.js';
 import { dot, perp, polar, sub, unit } from '../geometry/vec.js';
 import type { Design, SeparateArms } from '../params/design.js';
 import { clearanceHoleMm } from '../params/screws.js';
+import type { Change } from './changes.js';
+import { armSections, type ArmSection, type SizeRule } from './sizeRule.js';
 
 /**
  * Room at the arm roots of separate arms. Arms (and the brace plates under their roots) are
@@ -146,4 +148,45 @@ export function withRootRoom(d: Design): Design | null {
     else bad = mid;
   }
   return at(good);
+}
+
+/**
+ * The smallest root reach, in whole millimetres from `step` above the design's, at which `ok` holds
+ * for the design with its roots there; `ok` must hold from some reach on (moving the clamp out only
+ * stiffens the arm). The search stops where the motors come within `leaveMm` of the root block's
+ * end, or at 60 % of the way to them by default. Null when it never holds. mm.
+ */
+export function smallestReach(d: Design, step: number, ok: (moved: Design) => boolean, leaveMm?: number): number | null {
+  const a = d.arms;
+  if (a.construction !== 'separate') return null;
+  const block = (a.root.boltCount - 1) * a.root.boltSpacingMm + a.root.edgeMarginMm;
+  const nearest = Math.min(...motorSites(d).map((s) => s.motorAlongMm));
+  const limit = Math.floor(leaveMm === undefined ? 0.6 * nearest - block : nearest - block - leaveMm);
+  const at = (reach: number): Design => ({ ...d, arms: { ...a, root: { ...a.root, reachMm: reach } } });
+  let lo = Math.floor(a.root.reachMm) + step - 1;
+  let hi = limit;
+  if (hi <= lo || !ok(at(hi))) return null;
+  while (hi - lo > 1) {
+    const mid = Math.floor((lo + hi) / 2);
+    if (ok(at(mid))) hi = mid;
+    else lo = mid;
+  }
+  return hi;
+}
+
+/**
+ * The smallest root reach (whole mm, above the design's) at which some arm section meets the rule,
+ * with the sections there; null for unibody arms or when none up to 60 % of the way to the motors
+ * does. The rule gets easier as the clamp moves out (shorter free arm).
+ */
+export function clampFurtherOut(d: Design, rule: SizeRule, place: (d: Design) => Design | null): { change: Change; sections: ArmSection[] } | null {
+  const a = d.arms;
+  if (a.construction !== 'separate') return null;
+  const at = (reach: number): Design => ({ ...d, arms: { ...a, root: { ...a.root, reachMm: reach } } });
+  const reach = smallestReach(d, 1, (moved) => armSections(moved, rule, place).length > 0);
+  if (reach === null) return null;
+  return {
+    change: { path: ['arms', 'root', 'reachMm'], old: a.root.reachMm, new: reach, why: `arms clamped further out: with the roots at ${a.root.reachMm} mm no arm section meets the size rule; the bottom plate's arm pads and the braces grow with them` },
+    sections: armSections(at(reach), rule, place),
+  };
 }

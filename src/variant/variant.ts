@@ -11,8 +11,9 @@ import { editDesignText, realChanges, type Change } from './changes.js';
 import { VariantRefusal, VariantRequestError } from './errors.js';
 import { ceilToStep, minTipGapMm, minWheelbaseMm, scaledLayout } from './layoutScale.js';
 import { chooseMotor, type MotorChoice } from './motor.js';
-import { withRootRoom } from './rootRoom.js';
-import { armSections, armWidthParams, measureArms, MAX_WIDTH_FACTOR, ruleLines, sizeRule, STOCK_THICKNESSES_MM, withArmSize, type ArmSection, type RuleMeasure, type SizeRule } from './sizeRule.js';
+import { clampFurtherOut, withRootRoom } from './rootRoom.js';
+import { armRuleAlternatives, armRuleConstraint, checkAlternatives } from './refusal.js';
+import { armSections, armWidthParams, measureArms, ruleLines, sizeRule, type ArmSection, type RuleMeasure, type SizeRule } from './sizeRule.js';
 import { bodyKeptWheelbaseMm, fitBody, requiredBodyClearanceMm, type BodyFit } from './body.js';
 
 /** What the user asks for. Lengths in mm; `props` as written ("7in", "178mm"). */
@@ -314,7 +315,7 @@ function variantOrRefusal(sourceText: string, req: VariantRequest, sourceName: s
   if (sections.length === 0) {
     // Separate arms: the clamp moves out (the bottom plate's arm pads and the braces grow with it)
     // to the smallest whole-millimetre root reach at which the rule can be met.
-    const moved = clampFurtherOut(cur, rule);
+    const moved = clampFurtherOut(cur, rule, withRootRoom);
     if (moved) {
       draft = applyEdits(draft, [moved.change]);
       cur = draft.design;
@@ -322,7 +323,8 @@ function variantOrRefusal(sourceText: string, req: VariantRequest, sourceName: s
     }
   }
   if (sections.length === 0) {
-    throw new VariantRefusal(propsText, armRuleConstraint(cur, rule), withAlternatives ? armRuleAlternative(sourceText, req, sourceName, cur, rule) : 'none searched', null);
+    const near = () => nearestPassingProps(sourceText, req, sourceName);
+    throw new VariantRefusal(propsText, armRuleConstraint(cur, rule, withRootRoom), withAlternatives ? alternatives(armRuleAlternatives(cur, rule, withRootRoom), near, 'none found: change the arm style or the motor') : 'none searched', null);
   }
   // The motor's own bore: the new class's when the motor changed, else the source's.
   const wantedBore = motor.changes.length && motor.variantClass !== motor.sourceClass ? motor.variantClass.boreMm : source.motor.boreMm;
@@ -363,7 +365,8 @@ function variantOrRefusal(sourceText: string, req: VariantRequest, sourceName: s
     const n = failure.report ? errorsOf(failure.report).length : 0;
     const constraint = failure.report ? `every check (${n} error${n === 1 ? '' : 's'} on the lightest arm that meets the size rule: ${failure.problem})` : `a buildable arm (${failure.problem})`;
     const attempt = failure.draft && failure.report ? { text: failure.draft.text, errors: failure.report.summary.errors, warnings: failure.report.summary.warnings } : null;
-    throw new VariantRefusal(propsText, constraint, withAlternatives ? checkAlternative(sourceText, req, sourceName, source, failure.report) : 'none searched', attempt);
+    const near = () => nearestPassingProps(sourceText, req, sourceName);
+    throw new VariantRefusal(propsText, constraint, withAlternatives ? alternatives(checkAlternatives(source, failure.report, typeof req.wheelbase === 'number'), near, 'none found nearby') : 'none searched', attempt);
   }
 
   const design = accepted.draft.design;
@@ -396,87 +399,11 @@ function variantOrRefusal(sourceText: string, req: VariantRequest, sourceName: s
   };
 }
 
-/**
- * The smallest root reach (whole mm, above the design's) at which some arm section meets the rule,
- * with the sections there; null for unibody arms or when none up to the roots' limit does. The
- * rule gets easier as the clamp moves out (shorter free arm), so the reach is bisected.
- */
-function clampFurtherOut(d: Design, rule: SizeRule): { change: Change; sections: ArmSection[] } | null {
-  const a = d.arms;
-  if (a.construction !== 'separate') return null;
-  const at = (reach: number): ArmSection[] => armSections({ ...d, arms: { ...a, root: { ...a.root, reachMm: reach } } }, rule, withRootRoom);
-  const limit = Math.floor(0.6 * Math.min(...motorSites(d).map((s) => s.motorAlongMm)) - (a.root.boltCount - 1) * a.root.boltSpacingMm - a.root.edgeMarginMm);
-  let lo = Math.floor(a.root.reachMm);
-  let hi = limit;
-  if (hi <= lo || at(hi).length === 0) return null;
-  while (hi - lo > 1) {
-    const mid = Math.floor((lo + hi) / 2);
-    if (at(mid).length) hi = mid;
-    else lo = mid;
-  }
-  return {
-    change: { path: ['arms', 'root', 'reachMm'], old: a.root.reachMm, new: hi, why: `arms clamped further out: with the roots at ${a.root.reachMm} mm no arm section meets the size rule; the bottom plate's arm pads and the braces grow with them` },
-    sections: at(hi),
-  };
-}
-
-/** What the stiffest allowed arm reaches, for the refusal. */
-function armRuleConstraint(d: Design, rule: SizeRule): string {
-  const t = STOCK_THICKNESSES_MM[STOCK_THICKNESSES_MM.length - 1];
-  const widths = armWidthParams(d).map((p) => Math.min(p.maxMm, MAX_WIDTH_FACTOR * p.value));
-  const placed = withRootRoom(withArmSize(d, widths, t));
-  const reach = placed ? measureArms(placed, rule) : null;
-  const what = reach
-    ? `the stiffest allowed arm (${t} mm, widths ${MAX_WIDTH_FACTOR} × the source's) reaches f1 ${reach.frequencyHz.toFixed(1)} Hz and deflects ${reach.deflectionMm.toFixed(3)} mm (allowed ${reach.allowedDeflectionMm.toFixed(3)} mm)`
-    : `the widest allowed arm roots (${MAX_WIDTH_FACTOR} × the source's) do not fit side by side`;
-  return `the arm size rule (f1 ≥ ${rule.requiredHz.toFixed(1)} Hz and tip deflection ≤ ${(100 * rule.allowedDeflectionRatio).toFixed(2)} % of the free length): ${what}`;
-}
-
-/** Nearest alternatives when no section meets the rule: the plate that would, the clamp that would, and the nearest prop size that passes. */
-function armRuleAlternative(sourceText: string, req: VariantRequest, sourceName: string, d: Design, rule: SizeRule): string {
-  const out: string[] = [];
-  const widths = armWidthParams(d).map((p) => Math.min(p.maxMm, MAX_WIDTH_FACTOR * p.value));
-  const meets = (t: number, dd: Design = d) => {
-    const placed = withRootRoom(withArmSize(dd, widths, t));
-    return placed !== null && measureArms(placed, rule).met;
-  };
-  if (meets(8)) {
-    let lo: number = STOCK_THICKNESSES_MM[STOCK_THICKNESSES_MM.length - 1];
-    let hi = 8;
-    for (let i = 0; i < 30; i++) {
-      const mid = (lo + hi) / 2;
-      if (meets(mid)) hi = mid;
-      else lo = mid;
-    }
-    out.push(`arms of ${ceilToStep(hi, 0.1)} mm plate at ${MAX_WIDTH_FACTOR} × the source's widths (thicker than the stocked ${STOCK_THICKNESSES_MM[STOCK_THICKNESSES_MM.length - 1]} mm)`);
-  }
-  if (d.arms.construction === 'separate') {
-    const a = d.arms;
-    for (let reach = a.root.reachMm + 1; reach < a.root.reachMm + 200; reach += 1) {
-      const moved: Design = { ...d, arms: { ...a, root: { ...a.root, reachMm: reach } } };
-      if (Math.min(...motorSites(moved).map((s) => s.motorAlongMm)) - reach < 2 * a.root.edgeMarginMm) break;
-      if (meets(STOCK_THICKNESSES_MM[STOCK_THICKNESSES_MM.length - 1], moved)) {
-        out.push(`arms clamped further out: arms.root.reachMm ${reach} mm (the body's arm pads and braces grow with it)`);
-        break;
-      }
-    }
-  }
-  const near = nearestPassingProps(sourceText, req, sourceName);
-  if (near) out.push(`props of ${near} with this design`);
-  return out.length ? out.join('; or ') : 'none found: change the arm style or the motor';
-}
-
-/** Nearest alternatives when every candidate fails a check. */
-function checkAlternative(sourceText: string, req: VariantRequest, sourceName: string, source: Design, report: CheckReport | null): string {
-  const out: string[] = [];
-  if (report) {
-    const sourceErrors = new Set(errorsOf(checkFrame(buildFrame(source))).map((f) => `${f.rule} ${f.part}`));
-    if (errorsOf(report).some((f) => sourceErrors.has(`${f.rule} ${f.part}`))) out.push('fix the source design first (`framewright check` finds the same errors there)');
-  }
-  if (typeof req.wheelbase === 'number') out.push('--wheelbase auto');
-  const near = nearestPassingProps(sourceText, req, sourceName);
-  if (near) out.push(`props of ${near} with this design`);
-  return out.length ? out.join('; or ') : 'none found nearby';
+/** The alternatives found, with the nearest passing prop size last; `none` when there are none. */
+function alternatives(found: readonly string[], nearestProps: () => string | null, none: string): string {
+  const near = nearestProps();
+  const all = near ? [...found, `props of ${near} with this design`] : found;
+  return all.length ? all.join('; or ') : none;
 }
 
 /**
