@@ -3,7 +3,7 @@ import { buildFrame } from '../geometry/frame.js';
 import type { Design } from '../params/design.js';
 import { ceilToStep } from './layoutScale.js';
 import { smallestReach } from './rootRoom.js';
-import { armWidthParams, MAX_WIDTH_FACTOR, measureArms, STOCK_THICKNESSES_MM, withArmSize, type SizeRule } from './sizeRule.js';
+import { armWidthParams, MAX_WIDTH_FACTOR, measureArms, MIN_ARM_STOCK_MM, STOCK_THICKNESSES_MM, withArmSize, type SizeRule } from './sizeRule.js';
 
 /**
  * What a refused variant reports: the constraint it cannot meet, in numbers, and the nearest
@@ -23,9 +23,12 @@ const stiffest = (d: Design, t: number, place: Place): Design | null => place(wi
 export function armRuleConstraint(d: Design, rule: SizeRule, place: Place): string {
   const placed = stiffest(d, THICKEST_STOCK_MM, place);
   const reach = placed ? measureArms(placed, rule) : null;
+  const narrowest = place(withArmSize(d, armWidthParams(d).map((p) => Math.max(p.minMm, p.strut ? MIN_ARM_STOCK_MM : 0)), MIN_ARM_STOCK_MM));
   const what = reach
     ? `the stiffest allowed arm (${THICKEST_STOCK_MM} mm, widths ${MAX_WIDTH_FACTOR} × the source's) reaches f1 ${reach.frequencyHz.toFixed(1)} Hz and deflects ${reach.deflectionMm.toFixed(3)} mm (allowed ${reach.allowedDeflectionMm.toFixed(3)} mm)`
-    : `the widest allowed arm roots (${MAX_WIDTH_FACTOR} × the source's) do not fit side by side`;
+    : narrowest
+      ? `the widest allowed arm roots (${MAX_WIDTH_FACTOR} × the source's) do not fit beside each other and the standoffs, and the narrower ones that fit fall short`
+      : 'even the narrowest arm roots do not fit beside each other, the standoffs and the braces within 60 % of the way to the motors';
   return `the arm size rule (f1 ≥ ${rule.requiredHz.toFixed(1)} Hz and tip deflection ≤ ${(100 * rule.allowedDeflectionRatio).toFixed(2)} % of the free length): ${what}`;
 }
 
@@ -53,6 +56,12 @@ export function armRuleAlternatives(d: Design, rule: SizeRule, place: Place): st
     if (reach !== null) out.push(`arms clamped further out: arms.root.reachMm ${reach} mm (the body's arm pads and braces grow with it)`);
   }
   return out;
+}
+
+/** 'fix the source first' when the source design itself has check errors. */
+export function sourceErrorHint(source: Design): string[] {
+  const n = checkFrame(buildFrame(source)).summary.errors;
+  return n ? [`fix the source design first (\`framewright check\` finds ${n} error${n === 1 ? '' : 's'} there)`] : [];
 }
 
 /** Changes that would clear the check errors of the closest attempt. */

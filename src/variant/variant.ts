@@ -12,7 +12,7 @@ import { VariantRefusal, VariantRequestError } from './errors.js';
 import { ceilToStep, minTipGapMm, minWheelbaseMm, scaledLayout } from './layoutScale.js';
 import { chooseMotor, type MotorChoice } from './motor.js';
 import { clampFurtherOut, withRootRoom } from './rootRoom.js';
-import { armRuleAlternatives, armRuleConstraint, checkAlternatives } from './refusal.js';
+import { armRuleAlternatives, armRuleConstraint, checkAlternatives, sourceErrorHint } from './refusal.js';
 import { armSections, armWidthParams, measureArms, ruleLines, sizeRule, type ArmSection, type RuleMeasure, type SizeRule } from './sizeRule.js';
 import { bodyKeptWheelbaseMm, fitBody, requiredBodyClearanceMm, type BodyFit } from './body.js';
 
@@ -324,7 +324,7 @@ function variantOrRefusal(sourceText: string, req: VariantRequest, sourceName: s
   }
   if (sections.length === 0) {
     const near = () => nearestPassingProps(sourceText, req, sourceName);
-    throw new VariantRefusal(propsText, armRuleConstraint(cur, rule, withRootRoom), withAlternatives ? alternatives(armRuleAlternatives(cur, rule, withRootRoom), near, 'none found: change the arm style or the motor') : 'none searched', null);
+    throw new VariantRefusal(propsText, armRuleConstraint(cur, rule, withRootRoom), withAlternatives ? alternatives([...sourceErrorHint(source), ...armRuleAlternatives(cur, rule, withRootRoom)], near, 'none found: change the arm style or the motor') : 'none searched', null);
   }
   // The motor's own bore: the new class's when the motor changed, else the source's.
   const wantedBore = motor.changes.length && motor.variantClass !== motor.sourceClass ? motor.variantClass.boreMm : source.motor.boreMm;
