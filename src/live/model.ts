@@ -1,0 +1,198 @@
+import { performance } from 'node:perf_hooks';
+import { frameAnnotation } from '../checks/annotate.js';
+import { propDiscs, tipGaps } from '../checks/props.js';
+import { checkFrame } from '../checks/report.js';
+import { CHECK_CAUTIONS } from '../checks/text.js';
+import type { CheckReport, Severity } from '../checks/types.js';
+import { buildFrame, type Frame } from '../geometry/frame.js';
+import { wheelbaseOf } from '../geometry/layout.js';
+import { partArea, partBBox, partMassG } from '../geometry/metrics.js';
+import { validateDesign, type Design } from '../params/design.js';
+import { DesignError } from '../params/errors.js';
+import { parseYamlText } from '../params/yamlInput.js';
+import { frameMassG } from '../variant/variant.js';
+import { designForm, type FormSection, type SchemaNode } from './form.js';
+import { findingTargets, partView, partViewId, planView, type FindingTarget, type SvgView } from './views.js';
+
+/** What the live page shows, as plain JSON. Lengths mm, masses g. */
+
+export type Problem = Readonly<{ path: string; message: string; value: string }>;
+
+export type PartInfo = Readonly<{
+  name: string;
+  role: string;
+  quantity: number;
+  thicknessMm: number;
+  material: string;
+  massG: number;
+  areaMm2: number;
+  sizeMm: readonly [number, number];
+  holes: number;
+  errors: number;
+  warnings: number;
+}>;
+
+export type FindingRow = Readonly<{
+  id: number;
+  rule: string;
+  severity: Severity;
+  part: string;
+  message: string;
+  measured: number | null;
+  limit: number | null;
+  unit: string;
+  targets: readonly FindingTarget[];
+}>;
+
+export type TipGapRow = Readonly<{ between: string; gapMm: number; minMm: number }>;
+
+export type Figures = Readonly<{
+  /** Every plate copy of one frame. g. */
+  plateMassG: number;
+  tipGaps: readonly TipGapRow[];
+  wheelbaseMm: number;
+  propDiameterMm: number;
+}>;
+
+export type Views = Readonly<{ plan: SvgView; side: SvgView | null; parts: ReadonlyArray<Readonly<{ name: string; view: SvgView }>> }>;
+
+export type LiveModel = Readonly<{
+  /** Increases with every change of the model (edit here, or the file changed on disk). */
+  version: number;
+  file: string;
+  name: string;
+  revision: string;
+  /** 'invalid': the file as it stands cannot be built; `problems` says why and the pictures are the last good ones. */
+  state: 'ok' | 'invalid';
+  problems: readonly Problem[];
+  form: readonly FormSection[];
+  views: Views | null;
+  parts: readonly PartInfo[];
+  findings: readonly FindingRow[];
+  summary: Readonly<{ errors: number; warnings: number; notes: number }>;
+  figures: Figures | null;
+  cautions: readonly string[];
+  /** Time to rebuild and re-check, ms (shown on the page; not part of any file). */
+  buildMs: number;
+}>;
+
+/** A design text evaluated: the model parts that follow from it, and the frame when it could be built. */
+export type Evaluation = Readonly<{
+  raw: unknown;
+  problems: readonly Problem[];
+  design: Design | null;
+  frame: Frame | null;
+  report: CheckReport | null;
+}>;
+
+const shown = (v: unknown): string => (v === undefined ? '(missing)' : JSON.stringify(v) ?? String(v));
+
+/** Design errors as problems the page can put next to fields; anything else is a defect, reported as one. */
+export function problemsOf(e: unknown): Problem[] {
+  if (e instanceof DesignError) return e.issues.map((i) => ({ path: i.path, message: i.message, value: shown(i.value) }));
+  return [{ path: '', message: `internal error while building (please report it with the design file): ${(e as Error)?.message ?? String(e)}`, value: '' }];
+}
+
+/** Parse, validate, build and check design text. Never throws: what goes wrong becomes problems. */
+export function evaluate(text: string, sourceName: string): Evaluation {
+  let raw: unknown = {};
+  try {
+    raw = parseYamlText(text, sourceName);
+    const design = validateDesign(raw);
+    const frame = buildFrame(design);
+    return { raw, problems: [], design, frame, report: checkFrame(frame) };
+  } catch (e) {
+    return { raw, problems: problemsOf(e), design: null, frame: null, report: null };
+  }
+}
+
+const round = (x: number, d = 2): number => Math.round(x * 10 ** d) / 10 ** d;
+
+function partInfos(frame: Frame, report: CheckReport): PartInfo[] {
+  return frame.parts.map((p) => {
+    const b = partBBox(p);
+    const mine = report.findings.filter((f) => f.part === p.name);
+    return {
+      name: p.name,
+      role: p.role,
+      quantity: p.quantity,
+      thicknessMm: p.thicknessMm,
+      material: p.material.name,
+      massG: round(partMassG(p)),
+      areaMm2: round(partArea(p), 1),
+      sizeMm: [round(b[2] - b[0], 1), round(b[3] - b[1], 1)],
+      holes: p.features.filter((f) => f.kind === 'hole').length,
+      errors: mine.filter((f) => f.severity === 'error').length,
+      warnings: mine.filter((f) => f.severity === 'warning').length,
+    };
+  });
+}
+
+function figures(frame: Frame): Figures {
+  const discs = propDiscs(frame);
+  // Adjacent pairs: as many of the smallest gaps as there are props (the ring round the frame).
+  const gaps = tipGaps(discs).slice(0, discs.length);
+  return {
+    plateMassG: round(frameMassG(frame)),
+    tipGaps: gaps.map((g) => ({ between: `${g.a} / ${g.b}`, gapMm: round(g.gapMm), minMm: frame.design.props.minTipGapMm })),
+    wheelbaseMm: round(wheelbaseOf(frame.sites), 1),
+    propDiameterMm: round(frame.propDiameterMm, 1),
+  };
+}
+
+/** Everything the page draws for a built frame: pictures, parts, findings with their places, figures. */
+export function frameViews(frame: Frame, report: CheckReport): Pick<LiveModel, 'views' | 'parts' | 'findings' | 'summary' | 'figures'> {
+  const a = frameAnnotation(frame, report);
+  return {
+    views: { plan: planView(frame, a), side: null, parts: frame.parts.map((p) => ({ name: p.name, view: partView(p) })) },
+    parts: partInfos(frame, report),
+    findings: report.findings.map((f, id) => ({ id, rule: f.rule, severity: f.severity, part: f.part, message: f.message, measured: f.measured, limit: f.limit, unit: f.unit, targets: findingTargets(frame, f) })),
+    summary: { errors: report.summary.errors, warnings: report.summary.warnings, notes: report.findings.filter((f) => f.severity === 'info').length },
+    figures: figures(frame),
+  };
+}
+
+/**
+ * The page's model for design text. When the text cannot be built, the pictures, parts and findings
+ * of `previous` (the last good model) are kept and marked invalid, so the page keeps its context.
+ */
+export function liveModel(text: string, o: Readonly<{ version: number; file: string; schema: SchemaNode; previous: LiveModel | null }>): { model: LiveModel; evaluation: Evaluation } {
+  const t0 = performance.now();
+  const ev = evaluate(text, o.file);
+  const base = {
+    version: o.version,
+    file: o.file,
+    form: designForm(o.schema, ev.raw),
+    cautions: CHECK_CAUTIONS,
+  };
+  if (!ev.frame || !ev.report || !ev.design) {
+    const prev = o.previous;
+    const rec = (ev.raw ?? {}) as Record<string, unknown>;
+    const model: LiveModel = {
+      ...base,
+      name: typeof rec.name === 'string' ? rec.name : (prev?.name ?? ''),
+      revision: typeof rec.revision === 'string' ? rec.revision : (prev?.revision ?? ''),
+      state: 'invalid',
+      problems: ev.problems,
+      views: prev?.views ?? null,
+      parts: prev?.parts ?? [],
+      findings: prev?.findings ?? [],
+      summary: prev?.summary ?? { errors: 0, warnings: 0, notes: 0 },
+      figures: prev?.figures ?? null,
+      buildMs: round(performance.now() - t0, 1),
+    };
+    return { model, evaluation: ev };
+  }
+  const model: LiveModel = {
+    ...base,
+    name: ev.design.name,
+    revision: ev.design.revision,
+    state: 'ok',
+    problems: [],
+    ...frameViews(ev.frame, ev.report),
+    buildMs: round(performance.now() - t0, 1),
+  };
+  return { model, evaluation: ev };
+}
+
+
