@@ -3,20 +3,43 @@ import { dirname, join, resolve } from 'node:path';
 import { parseDesignText, type Design } from '../params/index.js';
 import { DesignError } from '../params/errors.js';
 
-/** Bad usage or input: printed without a stack trace, exit code 2. */
-export class UsageError extends Error {}
+/** Bad usage or input: printed without a stack trace, exit code 2. `path`: the option, file or parameter at fault, when known. */
+export class UsageError extends Error {
+  constructor(
+    message: string,
+    readonly path = '',
+  ) {
+    super(message);
+  }
+}
+
+/** The command-line name for standard input. */
+export const STDIN = '-';
+
+/** Standard input as text (the design given as `-`). */
+function readStdin(): string {
+  try {
+    return readFileSync(0, 'utf8');
+  } catch (e) {
+    throw new UsageError(`cannot read standard input: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`, STDIN);
+  }
+}
 
 /** A text file's contents; a missing or unreadable file is a UsageError naming it. */
 export function readText(path: string): string {
   try {
     return readFileSync(path, 'utf8');
   } catch (e) {
-    throw new UsageError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
+    throw new UsageError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`, path);
   }
 }
 
-/** Read and validate a design file. A DXF drawing is refused with a pointer to the commands that take one. */
+/**
+ * Read and validate a design file, or standard input for `-`. A DXF drawing is refused with a
+ * pointer to the commands that take one.
+ */
 export function readDesign(path: string): Design {
+  if (path === STDIN) return parseDesignText(readStdin(), 'standard input');
   if (/\.dxf$/i.test(path)) {
     throw new UsageError(`${path} is a DXF drawing; this command takes a design file (YAML or JSON). For a DXF use \`framewright check\` or \`framewright modes\`.`);
   }
@@ -100,6 +123,23 @@ export function writeAllAtomically(files: readonly OutputFile[]): void {
     throw new UsageError(`cannot write ${err.path ?? 'the output'}: ${err.code ?? err.message}; nothing was written`);
   }
   for (const t of temps) if (t.backup) rmSync(t.backup, { force: true });
+}
+
+/** The exit code an error stands for: 2 bad input or usage, 3 a defect. */
+export const exitCodeOf = (e: unknown): number => (e instanceof DesignError || e instanceof UsageError ? 2 : 3);
+
+/**
+ * An error as the JSON object `--json` prints on standard output: `{ "error": { "message", "path" } }`,
+ * plus every issue for a design with several problems. `path` names the parameter, option or file
+ * at fault ('' when none is known).
+ */
+export function errorJson(e: unknown): { error: { message: string; path: string; issues?: Array<{ path: string; message: string }> } } {
+  if (e instanceof DesignError) {
+    return { error: { message: e.message, path: e.issues[0]?.path ?? '', issues: e.issues.map((i) => ({ path: i.path, message: i.message })) } };
+  }
+  const message = (e as Error)?.message ?? String(e);
+  if (e instanceof UsageError) return { error: { message, path: e.path || (/^(--[a-z0-9-]+)\b/.exec(message)?.[1] ?? '') } };
+  return { error: { message: `internal error (please report it with the design file): ${message}`, path: '' } };
 }
 
 /** Turn an error into a message and exit code; a bug (anything unexpected) keeps its stack. */

@@ -1,6 +1,6 @@
 #!/usr/bin/env node
 import { Command } from 'commander';
-import { reportError } from './io.js';
+import { errorJson, reportError } from './io.js';
 import { registerCommands } from './commands/index.js';
 
 const program = new Command();
@@ -14,6 +14,10 @@ program
 
 registerCommands(program);
 
+/** `--json` among the arguments (before a `--`): failures are then also printed as JSON on stdout. */
+const args = process.argv.slice(2);
+const jsonWanted = args.slice(0, args.includes('--') ? args.indexOf('--') : undefined).includes('--json');
+
 try {
   await program.parseAsync(process.argv);
 } catch (e) {
@@ -21,7 +25,9 @@ try {
   if (typeof code === 'string' && code.startsWith('commander.')) {
     const helpOrVersion = code === 'commander.helpDisplayed' || code === 'commander.version' || code === 'commander.help';
     process.exitCode = helpOrVersion ? 0 : 2;
+    if (!helpOrVersion && jsonWanted) process.stdout.write(`${JSON.stringify({ error: { message: (e as Error).message.replace(/^error: /, ''), path: '' } }, null, 2)}\n`);
   } else {
     process.exitCode = reportError(e);
+    if (jsonWanted) process.stdout.write(`${JSON.stringify(errorJson(e), null, 2)}\n`);
   }
 }

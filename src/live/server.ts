@@ -144,7 +144,8 @@ export async function startLiveServer(o: LiveServerOptions): Promise<LiveServer>
       }
       try {
         const outcome = session.applyEdits(edits);
-        return sendJson(res, outcome.ok ? 200 : 422, outcome);
+        // A refused edit is an answer, not a failed request: 200 with ok false and the problems.
+        return sendJson(res, 200, outcome);
       } catch (e) {
         if (e instanceof EditRefused) return sendJson(res, 400, errorBody(e.message, e.path));
         if (e instanceof UsageError) return sendJson(res, 500, errorBody(`could not write the design file: ${(e as Error).message}`));

@@ -43,12 +43,15 @@ function readDxfText(path: string): string {
 /** The sidecar beside a DXF: `arm.dxf` → `arm.dxf.yaml`, if present. */
 export const sidecarPath = (dxfPath: string): string => `${dxfPath}.yaml`;
 
+/** A finished check of one input: the report, and the text `check` prints for it without --json. */
+export type CheckRun = Readonly<{ report: CheckReport; text: string }>;
+
 /**
  * `framewright check part.dxf`: import the drawing (flags over sidecar), run the part rules on
- * every part and print one report with the file findings beside the design findings.
- * Bad input (not DXF, truncated, bad flags or sidecar) → UsageError, exit 2.
+ * every part and make one report with the file findings beside the design findings; write the
+ * annotated drawings when asked. Bad input (not DXF, truncated, bad flags or sidecar) → UsageError, exit 2.
  */
-export function runDxfCheck(path: string, flags: DxfCheckFlags, limitFlags: Record<string, Record<string, unknown>>): void {
+export function runDxfCheck(path: string, flags: DxfCheckFlags, limitFlags: Record<string, Record<string, unknown>>): CheckRun {
   const text = readDxfText(path);
   const side = sidecarPath(path);
   let imported: ImportResult;
@@ -82,12 +85,8 @@ export function runDxfCheck(path: string, flags: DxfCheckFlags, limitFlags: Reco
     const dir = flags.annotate;
     writeAllAtomically(parts.map((p) => ({ path: join(dir, `${p.name}.check.svg`), data: partToSvg(p, { marginMm: 4, overlay: markersOverlay(partMarkers(report, p.name)), comment: `${p.name}: numbered markers follow the order of the check report` }) })));
   }
-  if (flags.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
-  else {
-    const u = imported.units;
-    const unitNote = u.from === 'header' ? `${u.unit} from $INSUNITS` : u.from === 'option' ? `${u.unit} as given` : `${u.unit} assumed`;
-    const heading = `framewright check: ${basename(path)} (DXF, ${unitNote}; cut layers ${imported.cutLayers.join(', ') || 'none'}; router bit ${o.toolDiameterMm.toFixed(3)} mm)`;
-    process.stdout.write(`${reliefNote}${formatCheckReport(report, heading)}`);
-  }
-  process.exitCode = report.summary.errors > 0 ? 1 : 0;
+  const u = imported.units;
+  const unitNote = u.from === 'header' ? `${u.unit} from $INSUNITS` : u.from === 'option' ? `${u.unit} as given` : `${u.unit} assumed`;
+  const heading = `framewright check: ${basename(path)} (DXF, ${unitNote}; cut layers ${imported.cutLayers.join(', ') || 'none'}; router bit ${o.toolDiameterMm.toFixed(3)} mm)`;
+  return { report, text: `${reliefNote}${formatCheckReport(report, heading)}` };
 }

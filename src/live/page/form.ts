@@ -38,8 +38,11 @@ export class FormView {
     private readonly send: EditSink,
   ) {}
 
-  /** Show the model's form; fields with edits not yet saved keep the text the user typed. */
-  render(sections: readonly FormSection[], pending: ReadonlyMap<string, string | null>): void {
+  /**
+   * Show the model's form; fields with edits not yet saved keep the text the user typed, and so
+   * does the focused field unless `force` (edits discarded) says the model's value wins.
+   */
+  render(sections: readonly FormSection[], pending: ReadonlyMap<string, string | null>, force = false): void {
     const all = sections.flatMap(function collect(s: FormSection): FormField[] {
       return [...s.fields, ...s.sections.flatMap(collect)];
     });
@@ -54,7 +57,7 @@ export class FormView {
       const holder = c.closest('.field');
       holder?.classList.toggle('pending', pending.has(f.path));
       holder?.classList.toggle('absent', !f.present);
-      if (document.activeElement === c && !pending.has(f.path) && c.value !== f.text && c instanceof HTMLInputElement && c.type !== 'checkbox') {
+      if (!force && document.activeElement === c && !pending.has(f.path) && c.value !== f.text && c instanceof HTMLInputElement && c.type !== 'checkbox') {
         // The user is typing here; the model's value lands when they leave the field.
         continue;
       }

@@ -94,7 +94,7 @@ function layout(): void {
   tip.attach(app);
 }
 
-function render(m: LiveModel): void {
+function render(m: LiveModel, force = false): void {
   model = m;
   byId('design-name').textContent = `${m.name || '(unnamed)'}${m.revision ? ` rev ${m.revision}` : ''}`;
   byId('file-name').textContent = m.file;
@@ -106,7 +106,7 @@ function render(m: LiveModel): void {
   } else {
     fileProblems.hidden = true;
   }
-  form.render(m.form, pending);
+  form.render(m.form, pending, force);
   if (pending.size === 0 && m.state === 'invalid') form.showProblems(m.problems);
   if (m.views) {
     plan.show(m.views.plan);
@@ -354,7 +354,7 @@ function discard(): void {
   if (pending.size) {
     pending.clear();
     form.clearProblems();
-    render(model);
+    render(model, true);
     setStatus('unsaved edits discarded');
   }
   if (selected !== null) {
@@ -376,7 +376,7 @@ function follow(): void {
       if (m.version <= model.version) return;
       pending.clear();
       form.clearProblems();
-      render(m);
+      render(m, true);
       setStatus(`reloaded: the file changed (version ${m.version})`);
     });
   });

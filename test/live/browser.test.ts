@@ -1,0 +1,142 @@
+import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { parseDocument, visit, isScalar, isMap, isSeq } from 'yaml';
+import { DESIGNS_DIR, REPO } from '../helpers/demo.js';
+import { CHROMIUM, CHROMIUM_FLAGS, chromiumAvailable, freshProfile, startLive, type RunningLive } from '../helpers/live.js';
+
+/**
+ * The live page in a real browser (Debian's Chromium driven by playwright-core): it loads the demo,
+ * follows edits, refuses bad values, zooms to findings and reloads when the file changes on disk.
+ * Screenshots land in out/live/.
+ */
+
+const SHOTS = join(REPO, 'out', 'live');
+
+/** Every comment of a YAML text as the `yaml` package's own parser sees it. */
+function comments(text: string): string[] {
+  const out: string[] = [];
+  const doc = parseDocument(text);
+  if (doc.commentBefore) out.push(doc.commentBefore);
+  visit(doc, (_k, node) => {
+    if ((isScalar(node) || isMap(node) || isSeq(node)) && (node.commentBefore || node.comment)) out.push(`${node.commentBefore ?? ''}|${node.comment ?? ''}`);
+  });
+  return out;
+}
+
+/** Plan view, front up: a motor at frame (x, y) is drawn at screen (−y, −x). For a square X layout of
+ * wheelbase W every motor is W/2 from the centre at 45°, so |screen x| = W/2 · sin 45° (hand geometry). */
+const propScreenX = (wheelbaseMm: number): number => (wheelbaseMm / 2) * Math.sin(Math.PI / 4);
+
+const run = chromiumAvailable();
+
+describe.runIf(run)('live page in Chromium', () => {
+  let dir: string;
+  let design: string;
+  let live: RunningLive;
+  let context: BrowserContext;
+  let page: Page;
+  let profile: { dir: string; remove: () => void };
+  const consoleErrors: string[] = [];
+  const original = readFileSync(join(DESIGNS_DIR, 'tessel-5.yaml'), 'utf8');
+
+  beforeAll(async () => {
+    mkdirSync(SHOTS, { recursive: true });
+    dir = mkdtempSync(join(tmpdir(), 'fw-live-'));
+    design = join(dir, 'tessel-5.yaml');
+    copyFileSync(join(DESIGNS_DIR, 'tessel-5.yaml'), design);
+    live = await startLive(design);
+    profile = freshProfile();
+    context = await chromium.launchPersistentContext(profile.dir, { executablePath: CHROMIUM, headless: true, args: CHROMIUM_FLAGS, viewport: { width: 1440, height: 900 } });
+    page = context.pages()[0] ?? (await context.newPage());
+    page.on('console', (m) => {
+      if (m.type() === 'error') consoleErrors.push(m.text());
+    });
+    page.on('pageerror', (e) => consoleErrors.push(String(e)));
+    await page.goto(live.url);
+  });
+
+  afterAll(async () => {
+    await context?.close();
+    profile?.remove();
+    await live?.stop();
+    rmSync(dir, { recursive: true, force: true });
+  });
+
+  const propX = async (site: string): Promise<number> => Number(await page.locator(`[data-view="plan"] circle.prop[data-site="${site}"]`).getAttribute('cx'));
+  const wheelbase = () => page.locator('[id="f-layout.wheelbaseMm"]');
+
+  it('loads the demo design: plates, props, parts, findings and the form', async () => {
+    await expect.poll(() => page.locator('[data-view="plan"] path.plate').count()).toBeGreaterThan(8);
+    expect(await page.locator('[data-view="plan"] circle.prop').count()).toBe(4);
+    // Tessel 5: bottom plate, arm, top plate, brace, camera side.
+    expect(await page.locator('#parts figure.part-card').count()).toBe(5);
+    const model = (await (await fetch(`${live.url}api/model`)).json()) as { findings: unknown[] };
+    expect(await page.locator('#findings li.finding').count()).toBe(model.findings.length);
+    expect(await wheelbase().inputValue()).toBe('224');
+    expect(Math.abs(await propX('front-left'))).toBeCloseTo(propScreenX(224), 3);
+    await page.screenshot({ path: join(SHOTS, '1-loaded.png') });
+  });
+
+  it('a wheelbase edit redraws the outline and rewrites the file with its comments intact', async () => {
+    const armBefore = await page.locator('[data-view="plan"] path.plate[data-part="arm"]').first().getAttribute('d');
+    await wheelbase().fill('240');
+    await wheelbase().press('Enter');
+    await expect.poll(() => page.locator('#status').textContent()).toContain('saved');
+    expect(Math.abs(await propX('front-left'))).toBeCloseTo(propScreenX(240), 3);
+    expect(await page.locator('[data-view="plan"] path.plate[data-part="arm"]').first().getAttribute('d')).not.toBe(armBefore);
+    const onDisk = readFileSync(design, 'utf8');
+    // Only the value changed: every other byte (comments, order, flow lists) is as it was.
+    expect(onDisk).toBe(original.replace('wheelbaseMm: 224', 'wheelbaseMm: 240'));
+    expect(comments(onDisk)).toEqual(comments(original));
+    await page.screenshot({ path: join(SHOTS, '2-wheelbase-240.png') });
+  });
+
+  it('an invalid value shows its error beside the field and leaves the file untouched', async () => {
+    const before = readFileSync(design, 'utf8');
+    await wheelbase().fill('5');
+    await wheelbase().press('Enter');
+    const error = page.locator('[data-path="layout.wheelbaseMm"] .error');
+    await expect.poll(() => error.isVisible()).toBe(true);
+    expect(await error.textContent()).toMatch(/60 to 1000/);
+    expect(readFileSync(design, 'utf8')).toBe(before);
+    await page.screenshot({ path: join(SHOTS, '3-invalid-wheelbase.png') });
+    await page.keyboard.press('Escape');
+    await expect.poll(() => error.isVisible()).toBe(false);
+    expect(await wheelbase().inputValue()).toBe('240');
+    expect(readFileSync(design, 'utf8')).toBe(before);
+  });
+
+  it('a click on a finding zooms the pictures to it', async () => {
+    const box = async (view: string): Promise<number[]> => ((await page.locator(`svg[data-view="${view}"]`).getAttribute('viewBox')) ?? '').split(' ').map(Number);
+    const first = page.locator('#findings li.finding').first();
+    const part = ((await first.locator('.where').textContent()) ?? '').split(' · ')[0];
+    const planBefore = await box('plan');
+    const partBefore = await box(`part:${part}`);
+    await first.locator('button').click();
+    const planAfter = await box('plan');
+    const partAfter = await box(`part:${part}`);
+    expect(planAfter[2]).toBeLessThan(planBefore[2] / 2);
+    expect(partAfter[2]).toBeLessThan(partBefore[2]);
+    expect(await page.locator('[data-view="plan"] .marker.selected').count()).toBeGreaterThan(0);
+    await page.screenshot({ path: join(SHOTS, '4-finding-zoom.png') });
+    await page.keyboard.press('Escape');
+  });
+
+  it('an edit of the file on disk reloads the page', async () => {
+    const text = readFileSync(design, 'utf8').replace('wheelbaseMm: 240', 'wheelbaseMm: 250');
+    // As editors save: a new file renamed over the old one.
+    writeFileSync(`${design}.tmp`, text);
+    renameSync(`${design}.tmp`, design);
+    await expect.poll(() => wheelbase().inputValue(), { timeout: 10_000 }).toBe('250');
+    expect(Math.abs(await propX('front-left'))).toBeCloseTo(propScreenX(250), 3);
+    expect(await page.locator('#status').textContent()).toContain('reloaded');
+    await page.screenshot({ path: join(SHOTS, '5-reloaded-from-disk.png') });
+  });
+
+  it('logged no console errors', () => {
+    expect(consoleErrors).toEqual([]);
+  });
+});
