@@ -1,6 +1,6 @@
 import { readFileSync, watch, type FSWatcher } from 'node:fs';
 import { basename, dirname, resolve } from 'node:path';
-import { errorJson, reportError, STDIN, UsageError } from './io.js';
+import { errorJson, reportError, STDIN_PATH, UsageError } from './io.js';
 
 /** Changes closer together than this are one save (editors write, rename and touch in bursts). ms. */
 const SETTLE_MS = 120;
@@ -19,20 +19,21 @@ const contents = (path: string): string | null => {
  * exit code at the end is the last run's. Folders are watched rather than files, because editors
  * save by renaming a new file over the old one; a change that leaves the text as it was is ignored.
  */
-export async function watchAndRun(paths: readonly string[], run: () => number, json: boolean): Promise<void> {
-  if (paths.includes(STDIN)) throw new UsageError('--watch needs files to watch; standard input (-) cannot be watched', '--watch');
+export async function watchAndRun(paths: readonly string[], run: () => Promise<number>, json: boolean): Promise<void> {
+  if (paths.includes(STDIN_PATH)) throw new UsageError('--watch needs files to watch; standard input (-) cannot be watched', '--watch');
   const files = [...new Set(paths.map((p) => resolve(p)))];
   const seen = new Map(files.map((f) => [f, contents(f)]));
-  const once = (): void => {
+  let running: Promise<void> = Promise.resolve();
+  const once = async (): Promise<void> => {
     try {
-      process.exitCode = run();
+      process.exitCode = await run();
     } catch (e) {
       process.exitCode = reportError(e);
       if (json) process.stdout.write(`${JSON.stringify(errorJson(e), null, 2)}\n`);
     }
     process.stderr.write(`framewright: watching ${paths.join(', ')} (Ctrl-C to stop)\n`);
   };
-  once();
+  await once();
   let timer: NodeJS.Timeout | null = null;
   const watchers: FSWatcher[] = [];
   for (const dir of new Set(files.map((f) => dirname(f)))) {
@@ -44,8 +45,11 @@ export async function watchAndRun(paths: readonly string[], run: () => number, j
         const changed = files.filter((f) => contents(f) !== seen.get(f));
         if (changed.length === 0) return;
         for (const f of changed) seen.set(f, contents(f));
-        process.stderr.write(`\nframewright: ${changed.map((f) => basename(f)).join(', ')} changed; running again\n`);
-        once();
+        // Runs one after another: a save during a run waits for it.
+        running = running.then(() => {
+          process.stderr.write(`\nframewright: ${changed.map((f) => basename(f)).join(', ')} changed; running again\n`);
+          return once();
+        });
       }, SETTLE_MS);
     });
     w.on('error', () => undefined);

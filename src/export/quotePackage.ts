@@ -1,7 +1,6 @@
 import type { Part } from '../geometry/part.js';
 import { drawingSet, layoutDrawing, quoteReport, type Quote } from '../quote/index.js';
 import { placedPartsToDxf } from './dxf.js';
-import { drawingToPdf } from './pdfDrawing.js';
 import { drawingToSvgs, sheetLayoutToSvg } from './svgDrawing.js';
 
 /** One file of a quote package: a path relative to the package folder, and its bytes. */
@@ -37,6 +36,8 @@ export async function quotePackage(parts: readonly Part[], quote: Quote, meta: Q
   const report = quoteReport(quote, head);
   const files: PackageFile[] = [{ name: 'quote.json', data: `${JSON.stringify(report, null, 2)}\n` }];
   const sheets = layoutDrawing(set);
+  // The PDF writer (and its font machinery) loads only here, where a PDF is made.
+  const { drawingToPdf } = await import('./pdfDrawing.js');
   files.push({ name: 'drawing.pdf', data: await drawingToPdf(set, sheets) });
   drawingToSvgs(sheets).forEach((svg, i) => files.push({ name: `drawing-${pad(i + 1)}.svg`, data: svg }));
   quote.nesting.sheets.forEach((s, i) => {

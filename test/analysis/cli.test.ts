@@ -1,3 +1,4 @@
+import { outputNames } from '../helpers/cli.js';
 import { describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readdirSync, readFileSync } from 'node:fs';
@@ -53,7 +54,7 @@ describe('framewright modes', () => {
     const dir = mkdtempSync(join(tmpdir(), 'fw-modes-'));
     const r = cli(['designs/tessel-5.yaml', '--part', 'arm', '--modes', '2', '--plot', dir]);
     expect(r.code).toBe(0);
-    const files = readdirSync(dir).sort();
+    const files = outputNames(dir);
     expect(files).toEqual(['arm-arm-root-clamped-mode1.svg', 'arm-arm-root-clamped-mode2.svg', 'arm-free-mode1.svg', 'arm-free-mode2.svg']);
     const svg = readFileSync(join(dir, files[0]), 'utf8');
     expect(svg).toMatch(/ Hz — Tessel 5 · arm · mode 1/);

@@ -1,6 +1,8 @@
+import { readdirSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import { join } from 'node:path';
 import { REPO } from './demo.js';
+import { SET_MARKER } from '../../src/cli/outputSet.js';
 
 /** Run the built CLI (dist/, made by `npm test`'s build step) from the repository root. */
 export function runCli(args: string[], input?: string): { code: number; stdout: string; stderr: string } {
@@ -15,3 +17,10 @@ export function runCli(args: string[], input?: string): { code: number; stdout: 
 
 /** A stack trace line, which users must never see for bad input. */
 export const STACK_LINE = /^\s+at .+\(.+:\d+:\d+\)$/m;
+
+/** The files a command wrote into an output folder (sorted), without the marker every output set carries. */
+export function outputNames(dir: string): string[] {
+  return readdirSync(dir)
+    .filter((f) => f !== SET_MARKER)
+    .sort();
+}

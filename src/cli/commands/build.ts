@@ -1,8 +1,6 @@
 import type { Command } from 'commander';
 import { join } from 'node:path';
-import { buildFrame, partArea, partBBox, partCutLength, partMassG, type Frame } from '../../geometry/index.js';
-import { frameOverviewSvg, partToDxf, partToSvg } from '../../export/index.js';
-import { buildGate, checkFrame, summaryLine } from '../../checks/index.js';
+import type { Frame } from '../../geometry/index.js';
 import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 import { watchAndRun } from '../watch.js';
@@ -27,7 +25,8 @@ export type PartSummary = {
 };
 
 /** Every output file of a build, and the summary rows, without touching the disk. */
-export function buildOutputs(frame: Frame, outDir: string, opts: BuildOptions, comment?: string): { files: OutputFile[]; summary: PartSummary[] } {
+export async function buildOutputs(frame: Frame, outDir: string, opts: BuildOptions, comment?: string): Promise<{ files: OutputFile[]; summary: PartSummary[] }> {
+  const [{ partArea, partBBox, partCutLength, partMassG }, { frameOverviewSvg, partToDxf, partToSvg }] = await Promise.all([import('../../geometry/index.js'), import('../../export/index.js')]);
   const files: OutputFile[] = [];
   const summary: PartSummary[] = [];
   for (const part of frame.parts) {
@@ -68,7 +67,7 @@ export function registerBuild(program: Command): void {
     .option('--watch', 'build again whenever the design file changes (Ctrl-C to stop)')
     .action(async (designPath: string, opts: BuildOptions & { watch?: boolean }) => {
       if (!opts.watch) {
-        process.exitCode = runBuild(designPath, opts);
+        process.exitCode = await runBuild(designPath, opts);
         return;
       }
       await watchAndRun([designPath], () => runBuild(designPath, opts), !!opts.json);
@@ -80,8 +79,9 @@ export function registerBuild(program: Command): void {
  * summary. Returns the exit code: 1 when the checks find errors (and, without --force, nothing is
  * written), else 0. Bad input throws DesignError or UsageError.
  */
-export function runBuild(designPath: string, opts: BuildOptions): number {
-  const design = readDesign(designPath);
+export async function runBuild(designPath: string, opts: BuildOptions): Promise<number> {
+  const design = await readDesign(designPath);
+  const [{ buildFrame }, { buildGate, checkFrame, summaryLine }] = await Promise.all([import('../../geometry/index.js'), import('../../checks/index.js')]);
   const frame = buildFrame(design);
   const outDir = opts.out ?? join('out', slug(design.name));
   if (outDir.trim() === '') throw new UsageError('--out must name a folder');
@@ -92,8 +92,8 @@ export function runBuild(designPath: string, opts: BuildOptions): number {
   if (gate.message) process.stderr.write(gate.message);
   if (gate.refuse) return 1;
   const comment = gate.comment;
-  const { files, summary } = buildOutputs(frame, outDir, opts, comment);
-  writeAllAtomically(files);
+  const { files, summary } = await buildOutputs(frame, outDir, opts, comment);
+  writeAllAtomically(files, outDir);
   if (opts.json) {
     process.stdout.write(`${JSON.stringify({ units: 'mm', design: design.name, revision: design.revision, outDir, checks: report.summary, parts: summary }, null, 2)}\n`);
     return errors > 0 ? 1 : 0;

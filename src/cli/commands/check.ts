@@ -1,26 +1,12 @@
 import type { Command } from 'commander';
 import { basename, join } from 'node:path';
-import {
-  CHECK_CAUTIONS,
-  checkFrame,
-  formatCheckReport,
-  frameAnnotation,
-  optionsForDesign,
-  parseLimits,
-  partMarkers,
-  relieveFrame,
-  type CheckOptions,
-  type CheckReport,
-} from '../../checks/index.js';
-import { frameFindingsOverlay, markersOverlay } from '../../export/svgFindings.js';
-import { partToSvg } from '../../export/svgPart.js';
-import { frameOverviewSvg } from '../../export/svgOverview.js';
-import { buildFrame, type Frame } from '../../geometry/index.js';
+import type { CheckOptions, CheckReport } from '../../checks/index.js';
+import type { Frame } from '../../geometry/index.js';
 import { DesignError } from '../../params/errors.js';
 import type { Design } from '../../params/design.js';
-import { errorJson, readDesign, reportError, STDIN, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
+import { errorJson, readDesign, reportError, STDIN_PATH, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { watchAndRun } from '../watch.js';
-import { runDxfCheck, type CheckRun, type DxfCheckFlags } from './checkDxf.js';
+import type { CheckRun, DxfCheckFlags } from './checkDxf.js';
 
 /** Flags of `check`; thickness, material, units and layers apply to DXF input only (checkDxf.ts). */
 export type CheckCliOptions = DxfCheckFlags;
@@ -29,8 +15,8 @@ export type CheckCliOptions = DxfCheckFlags;
 type CheckInput = Readonly<{ kind: 'design'; design: Design }>;
 
 /** Load the thing to check from a path (the only file access of this command besides --annotate). */
-function loadCheckInput(path: string): CheckInput {
-  return { kind: 'design', design: readDesign(path) };
+async function loadCheckInput(path: string): Promise<CheckInput> {
+  return { kind: 'design', design: await readDesign(path) };
 }
 
 /**
@@ -51,7 +37,8 @@ export function parseLimitFlags(pairs: readonly string[]): Record<string, Record
 }
 
 /** The design's limits with the command-line ones on top; throws DesignError naming `checks.RULE.KEY`. */
-export function mergedOptions(design: Design, opts: CheckCliOptions): CheckOptions {
+export async function mergedOptions(design: Design, opts: CheckCliOptions): Promise<CheckOptions> {
+  const { optionsForDesign, parseLimits } = await import('../../checks/index.js');
   const flags = parseLimitFlags(opts.limit ?? []);
   const base = design.checks as Record<string, Record<string, unknown>>;
   const merged: Record<string, unknown> = { ...base };
@@ -68,7 +55,12 @@ export function mergedOptions(design: Design, opts: CheckCliOptions): CheckOptio
 }
 
 /** Annotated SVG files: one per part with its findings marked, and the overview with props and camera view. */
-export function annotatedFiles(frame: Frame, report: CheckReport, dir: string, o: CheckOptions): OutputFile[] {
+export async function annotatedFiles(frame: Frame, report: CheckReport, dir: string, o: CheckOptions): Promise<OutputFile[]> {
+  const [{ CHECK_CAUTIONS, frameAnnotation, partMarkers }, { frameFindingsOverlay, markersOverlay }, { partToSvg, frameOverviewSvg }] = await Promise.all([
+    import('../../checks/index.js'),
+    import('../../export/svgFindings.js'),
+    import('../../export/index.js'),
+  ]);
   const files: OutputFile[] = frame.parts.map((p) => ({
     path: join(dir, `${p.name}.check.svg`),
     data: partToSvg(p, { marginMm: 4, overlay: markersOverlay(partMarkers(report, p.name)), comment: `${p.name}: numbered markers follow the order of the check report. ${CHECK_CAUTIONS.join(' ')}` }),
@@ -79,10 +71,11 @@ export function annotatedFiles(frame: Frame, report: CheckReport, dir: string, o
 }
 
 /** A design check: limits, optional corner relief, the report, annotated drawings when asked. */
-function runDesignCheck(path: string, opts: CheckCliOptions): CheckRun {
-  const input = loadCheckInput(path);
+async function runDesignCheck(path: string, opts: CheckCliOptions): Promise<CheckRun> {
+  const input = await loadCheckInput(path);
   // Limits are judged before the (slower) geometry is built, so bad input fails fast.
-  const o = mergedOptions(input.design, opts);
+  const o = await mergedOptions(input.design, opts);
+  const [{ buildFrame }, { checkFrame, formatCheckReport, relieveFrame }] = await Promise.all([import('../../geometry/index.js'), import('../../checks/index.js')]);
   let frame = buildFrame(input.design);
   let reliefNote = '';
   if (opts.relieveCorners) {
@@ -92,25 +85,21 @@ function runDesignCheck(path: string, opts: CheckCliOptions): CheckRun {
   }
   const report = checkFrame(frame, o);
   if (opts.annotate) {
-    const files = annotatedFiles(frame, report, opts.annotate, o);
-    try {
-      writeAllAtomically(files);
-    } catch (e) {
-      throw new UsageError(`cannot write the annotated drawings to ${opts.annotate}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}; nothing was written`, '--annotate');
-    }
+    const files = await annotatedFiles(frame, report, opts.annotate, o);
+    writeAllAtomically(files, opts.annotate);
   }
   const heading = `framewright check: ${frame.name} rev ${frame.revision} (router bit ${o.toolDiameterMm.toFixed(3)} mm)`;
   return { report, text: `${reliefNote}${formatCheckReport(report, heading)}` };
 }
 
-/** Check one input (design, `-` for standard input, or DXF). */
-export function runCheck(path: string, opts: CheckCliOptions): CheckRun {
-  if (/\.dxf$/i.test(path)) return runDxfCheck(path, opts, parseLimitFlags(opts.limit ?? []));
+/** Check one input: a design file, `-` for a design on standard input, or a DXF drawing. */
+export async function runCheck(path: string, opts: CheckCliOptions): Promise<CheckRun> {
+  if (/\.dxf$/i.test(path)) return (await import('./checkDxf.js')).runDxfCheck(path, opts, parseLimitFlags(opts.limit ?? []));
   return runDesignCheck(path, opts);
 }
 
 /** File-name stem of an input, for its own annotation folder when several are checked. */
-const stem = (path: string): string => (path === STDIN ? 'stdin' : basename(path).replace(/\.[^.]+$/, ''));
+const stem = (path: string): string => (path === STDIN_PATH ? 'stdin' : basename(path).replace(/\.[^.]+$/, ''));
 
 /**
  * Check every input and print the reports: one report (text, or the JSON contract) for one input;
@@ -118,19 +107,19 @@ const stem = (path: string): string => (path === STDIN ? 'stdin' : basename(path
  * `input` (a bad input as `{ "input", "error": { "message", "path" } }`). Returns the exit code:
  * 2 when an input is bad, else 1 when a report has errors, else 0.
  */
-export function checkInputs(paths: readonly string[], opts: CheckCliOptions): number {
+export async function checkInputs(paths: readonly string[], opts: CheckCliOptions): Promise<number> {
   if (paths.length === 1) {
-    const { report, text } = runCheck(paths[0], opts);
+    const { report, text } = await runCheck(paths[0], opts);
     process.stdout.write(opts.json ? `${JSON.stringify(report, null, 2)}\n` : text);
     return report.summary.errors > 0 ? 1 : 0;
   }
   const stems = paths.map(stem);
   let code = 0;
   const results: unknown[] = [];
-  paths.forEach((path, i) => {
+  for (const [i, path] of paths.entries()) {
     const own = { ...opts, ...(opts.annotate ? { annotate: join(opts.annotate, stems.indexOf(stems[i]) === i ? stems[i] : `${stems[i]}-${i + 1}`) } : {}) };
     try {
-      const { report, text } = runCheck(path, own);
+      const { report, text } = await runCheck(path, own);
       code = Math.max(code, report.summary.errors > 0 ? 1 : 0);
       if (opts.json) results.push({ input: path, ...report });
       else process.stdout.write(`${i > 0 ? '\n' : ''}${text}`);
@@ -138,7 +127,7 @@ export function checkInputs(paths: readonly string[], opts: CheckCliOptions): nu
       code = Math.max(code, reportError(e));
       if (opts.json) results.push({ input: path, ...errorJson(e) });
     }
-  });
+  }
   if (opts.json) process.stdout.write(`${JSON.stringify(results, null, 2)}\n`);
   return code;
 }
@@ -159,9 +148,9 @@ export function registerCheck(program: Command): void {
     .option('--layers <a,b>', 'DXF only: the layers that hold cut geometry (default: all but frozen, off and annotation layers)')
     .option('--watch', 'check again whenever an input file changes (Ctrl-C to stop)')
     .action(async (paths: string[], opts: CheckCliOptions & { watch?: boolean }) => {
-      if (paths.filter((p) => p === STDIN).length > 1) throw new UsageError('standard input (-) can be read only once', STDIN);
+      if (paths.filter((p) => p === STDIN_PATH).length > 1) throw new UsageError('standard input (-) can be read only once', STDIN_PATH);
       if (!opts.watch) {
-        process.exitCode = checkInputs(paths, opts);
+        process.exitCode = await checkInputs(paths, opts);
         return;
       }
       await watchAndRun(paths, () => checkInputs(paths, opts), !!opts.json);

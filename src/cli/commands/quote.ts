@@ -1,11 +1,6 @@
 import type { Command } from 'commander';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { checkFrame } from '../../checks/index.js';
-import { buildFrame } from '../../geometry/index.js';
-import { DEFAULT_GENERAL_TOLERANCE, quotePackage } from '../../export/quotePackage.js';
-import { parseShopText } from '../../params/shop.js';
-import { quoteParts } from '../../quote/index.js';
 import { readDesign, readText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 import { slug } from './build.js';
@@ -68,9 +63,17 @@ export function registerQuote(program: Command): void {
       const quantity = parseQty(opts.qty);
       const sheet = opts.sheet ? parseSheet(opts.sheet) : undefined;
       const date = opts.date ? parseDate(opts.date) : null;
-      const design = readDesign(designPath);
+      const design = await readDesign(designPath);
       const shopPath = opts.shop ?? DEFAULT_SHOP;
-      const shop = parseShopText(readText(shopPath), shopPath);
+      const shopText = readText(shopPath, 'a shop profile (YAML)');
+      const [{ parseShopText }, { buildFrame }, { checkFrame }, { quoteParts }, { DEFAULT_GENERAL_TOLERANCE, quotePackage }] = await Promise.all([
+        import('../../params/shop.js'),
+        import('../../geometry/index.js'),
+        import('../../checks/index.js'),
+        import('../../quote/index.js'),
+        import('../../export/quotePackage.js'),
+      ]);
+      const shop = parseShopText(shopText, shopPath);
       const frame = buildFrame(design);
       const outDir = opts.out ?? join('out', `${slug(design.name)}-quote`);
       if (outDir.trim() === '') throw new UsageError('--out must name a folder');
@@ -95,7 +98,7 @@ export function registerQuote(program: Command): void {
         ...(opts.r2000 ? { r2000: true } : {}),
       });
       const files: OutputFile[] = pkg.map((f) => ({ path: join(outDir, ...f.name.split('/')), data: f.data }));
-      writeAllAtomically(files);
+      writeAllAtomically(files, outDir);
       if (opts.json) {
         process.stdout.write(`${JSON.stringify({ ...report, outDir, files: files.map((f) => f.path) }, null, 2)}\n`);
         return;
