@@ -88,15 +88,36 @@ export function checkParts(parts: readonly Part[], options: CheckOptions): Check
 }
 
 /**
+ * Part results kept between checks of the same design as it is edited (the live page): a part whose
+ * geometry and options are unchanged is not checked again. Keyed by the part and options as JSON.
+ */
+export type PartCheckCache = Map<string, PartCheck>;
+
+/** Entries a cache keeps: a frame has a handful of distinct parts, a few edits' worth is plenty. */
+const CACHE_ENTRIES = 64;
+
+function checkPartCached(part: Part, o: CheckOptions, cache: PartCheckCache | undefined): PartCheck {
+  if (!cache) return checkPart(part, o);
+  const key = JSON.stringify([part, o]);
+  const hit = cache.get(key);
+  if (hit) return hit;
+  const result = checkPart(part, o);
+  if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value as string);
+  cache.set(key, result);
+  return result;
+}
+
+/**
  * Every rule for a built frame: the part rules for each distinct part plus the frame rules (prop
  * tip gaps, prop discs against the body, standoffs, camera plates and other plates in plan view,
  * props in the camera view). Options default from the design's `checks` section, its cutting tool
- * and props.minTipGapMm.
+ * and props.minTipGapMm. `cache` (optional) reuses the part results of earlier calls for parts that
+ * have not changed; the report is the same with or without it.
  * @example const report = checkFrame(buildFrame(design)); if (report.summary.errors) ...
  */
-export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}): CheckReport {
+export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}, cache?: PartCheckCache): CheckReport {
   const o = optionsForDesign(frame.design, options);
-  const results = frame.parts.map((p) => checkPart(p, o));
+  const results = frame.parts.map((p) => checkPartCached(p, o, cache));
   const discs = propDiscs(frame);
   const frameFindings = [...propClearanceRule(frame, o, discs), ...cameraViewRule(frame, o, discs)];
   return makeReport(results.map((r) => r.metrics), [...results.flatMap((r) => r.findings), ...frameFindings]);

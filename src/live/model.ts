@@ -1,7 +1,7 @@
 import { performance } from 'node:perf_hooks';
 import { frameAnnotation } from '../checks/annotate.js';
 import { propDiscs, tipGaps } from '../checks/props.js';
-import { checkFrame } from '../checks/report.js';
+import { checkFrame, type PartCheckCache } from '../checks/report.js';
 import { CHECK_CAUTIONS } from '../checks/text.js';
 import type { CheckReport, Severity } from '../checks/types.js';
 import { buildFrame, type Frame } from '../geometry/frame.js';
@@ -93,14 +93,17 @@ export function problemsOf(e: unknown): Problem[] {
   return [{ path: '', message: `internal error while building (please report it with the design file): ${(e as Error)?.message ?? String(e)}`, value: '' }];
 }
 
-/** Parse, validate, build and check design text. Never throws: what goes wrong becomes problems. */
-export function evaluate(text: string, sourceName: string): Evaluation {
+/**
+ * Parse, validate, build and check design text. Never throws: what goes wrong becomes problems.
+ * `cache` keeps the checks of parts an edit did not change.
+ */
+export function evaluate(text: string, sourceName: string, cache?: PartCheckCache): Evaluation {
   let raw: unknown = {};
   try {
     raw = parseYamlText(text, sourceName);
     const design = validateDesign(raw);
     const frame = buildFrame(design);
-    return { raw, problems: [], design, frame, report: checkFrame(frame) };
+    return { raw, problems: [], design, frame, report: checkFrame(frame, {}, cache) };
   } catch (e) {
     return { raw, problems: problemsOf(e), design: null, frame: null, report: null };
   }
@@ -156,9 +159,9 @@ export function frameViews(frame: Frame, report: CheckReport): Pick<LiveModel, '
  * The page's model for design text. When the text cannot be built, the pictures, parts and findings
  * of `previous` (the last good model) are kept and marked invalid, so the page keeps its context.
  */
-export function liveModel(text: string, o: Readonly<{ version: number; file: string; schema: SchemaNode; previous: LiveModel | null }>): { model: LiveModel; evaluation: Evaluation } {
+export function liveModel(text: string, o: Readonly<{ version: number; file: string; schema: SchemaNode; previous: LiveModel | null; cache?: PartCheckCache }>): { model: LiveModel; evaluation: Evaluation } {
   const t0 = performance.now();
-  const ev = evaluate(text, o.file);
+  const ev = evaluate(text, o.file, o.cache);
   const base = {
     version: o.version,
     file: o.file,

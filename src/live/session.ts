@@ -1,5 +1,6 @@
 import { readFileSync, watch, type FSWatcher } from 'node:fs';
 import { basename, dirname } from 'node:path';
+import type { PartCheckCache } from '../checks/report.js';
 import { writeAllAtomically } from '../cli/io.js';
 import { editDesignText, type Change } from '../variant/changes.js';
 import { FieldTextError, schemaAt, valueFromText, type SchemaNode } from './form.js';
@@ -45,6 +46,8 @@ export class LiveSession {
   private watcher: FSWatcher | null = null;
   private timer: NodeJS.Timeout | null = null;
   private readonly listeners = new Set<(m: LiveModel) => void>();
+  /** Checks of parts an edit left unchanged are reused. */
+  private readonly checks: PartCheckCache = new Map();
 
   /** `realPath`: the design file with symbolic links resolved; `label`: how the page names it. */
   constructor(
@@ -63,7 +66,7 @@ export class LiveSession {
     this.text = text;
     this.version += 1;
     const previous = this.model && this.model.state === 'ok' ? this.model : (this.model ?? null);
-    const { model, evaluation } = liveModel(text, { version: this.version, file: this.label, schema: this.schema, previous });
+    const { model, evaluation } = liveModel(text, { version: this.version, file: this.label, schema: this.schema, previous, cache: this.checks });
     this.model = model;
     this.evaluation = evaluation;
   }
@@ -111,7 +114,7 @@ export class LiveSession {
       return { ok: false, problems: [{ path: edits[0].path, message: (err as Error).message, value: '' }] };
     }
     if (text === this.text) return { ok: true, model: this.model };
-    const { model, evaluation } = liveModel(text, { version: this.version + 1, file: this.label, schema: this.schema, previous: this.model });
+    const { model, evaluation } = liveModel(text, { version: this.version + 1, file: this.label, schema: this.schema, previous: this.model, cache: this.checks });
     if (model.state !== 'ok') return { ok: false, problems: model.problems };
     writeAllAtomically([{ path: this.realPath, data: text }]);
     this.text = text;
