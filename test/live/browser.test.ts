@@ -3,9 +3,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { parseDocument, visit, isScalar, isMap, isSeq } from 'yaml';
 import { DESIGNS_DIR, REPO } from '../helpers/demo.js';
 import { CHROMIUM, CHROMIUM_FLAGS, chromiumAvailable, freshProfile, startLive, type RunningLive } from '../helpers/live.js';
+import { yamlComments as comments } from '../helpers/yaml.js';
 
 /**
  * The live page in a real browser (Debian's Chromium driven by playwright-core): it loads the demo,
@@ -15,16 +15,6 @@ import { CHROMIUM, CHROMIUM_FLAGS, chromiumAvailable, freshProfile, startLive, t
 
 const SHOTS = join(REPO, 'out', 'live');
 
-/** Every comment of a YAML text as the `yaml` package's own parser sees it. */
-function comments(text: string): string[] {
-  const out: string[] = [];
-  const doc = parseDocument(text);
-  if (doc.commentBefore) out.push(doc.commentBefore);
-  visit(doc, (_k, node) => {
-    if ((isScalar(node) || isMap(node) || isSeq(node)) && (node.commentBefore || node.comment)) out.push(`${node.commentBefore ?? ''}|${node.comment ?? ''}`);
-  });
-  return out;
-}
 
 /** Plan view, front up: a motor at frame (x, y) is drawn at screen (−y, −x). For a square X layout of
  * wheelbase W every motor is W/2 from the centre at 45°, so |screen x| = W/2 · sin 45° (hand geometry). */

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import YAML, { isMap, isScalar, isSeq, parseDocument, visit } from 'yaml';
+import YAML from 'yaml';
 import { editDesignText, setDesignValues } from '../../src/variant/changes.js';
 import { DEMO_FILES, demoText } from '../helpers/demo.js';
+import { yamlComments as comments } from '../helpers/yaml.js';
 
 /**
  * Keys added and removed in place (the live page's edits): the `yaml` package's own parser must read
@@ -9,15 +10,6 @@ import { DEMO_FILES, demoText } from '../helpers/demo.js';
  * every line not involved must stay as it was.
  */
 
-function comments(text: string): string[] {
-  const out: string[] = [];
-  const doc = parseDocument(text);
-  if (doc.commentBefore) out.push(doc.commentBefore);
-  visit(doc, (_k, node) => {
-    if ((isScalar(node) || isMap(node) || isSeq(node)) && (node.commentBefore || node.comment)) out.push(`${node.commentBefore ?? ''}|${node.comment ?? ''}`);
-  });
-  return out;
-}
 
 /** The expected object: the source parsed, then changed with plain JavaScript. */
 function changed(text: string, path: readonly (string | number)[], value: unknown): unknown {
