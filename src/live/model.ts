@@ -4,6 +4,10 @@ import { propDiscs, tipGaps } from '../checks/props.js';
 import { checkFrame, type PartCheckCache } from '../checks/report.js';
 import { CHECK_CAUTIONS } from '../checks/text.js';
 import type { CheckReport, Severity } from '../checks/types.js';
+import { buildAssembly } from '../assembly/build.js';
+import { massBalance } from '../assembly/balance.js';
+import { hardwareList } from '../assembly/hardware.js';
+import type { Assembly, HardwareItem } from '../assembly/types.js';
 import { buildFrame, type Frame } from '../geometry/frame.js';
 import { wheelbaseOf } from '../geometry/layout.js';
 import { partArea, partBBox, partMassG } from '../geometry/metrics.js';
@@ -12,7 +16,7 @@ import { DesignError } from '../params/errors.js';
 import { parseYamlText } from '../params/yamlInput.js';
 import { frameMassG } from '../variant/variant.js';
 import { designForm, type FormSection, type SchemaNode } from './form.js';
-import { findingTargets, partView, partViewId, planView, type FindingTarget, type SvgView } from './views.js';
+import { findingTargets, partView, planView, sideView, type FindingTarget, type SvgView } from './views.js';
 
 /** What the live page shows, as plain JSON. Lengths mm, masses g. */
 
@@ -52,6 +56,16 @@ export type Figures = Readonly<{
   tipGaps: readonly TipGapRow[];
   wheelbaseMm: number;
   propDiameterMm: number;
+  /** Mass by group and all up. g. */
+  massG: Readonly<{ frame: number; hardware: number; motors: number; components: number; battery: number; allUp: number }>;
+  /** Centre of gravity, all up, frame axes. mm. */
+  cgMm: readonly [number, number, number];
+  /** Plan distance from the motors' centroid (thrust centre) to the CG, and that over the mean motor distance. */
+  cgOffsetMm: number;
+  cgOffsetShare: number;
+  /** Heights of the stack-up. mm. */
+  propPlaneMm: number;
+  hardware: readonly HardwareItem[];
 }>;
 
 export type Views = Readonly<{ plan: SvgView; side: SvgView | null; parts: ReadonlyArray<Readonly<{ name: string; view: SvgView }>> }>;
@@ -82,6 +96,7 @@ export type Evaluation = Readonly<{
   problems: readonly Problem[];
   design: Design | null;
   frame: Frame | null;
+  assembly: Assembly | null;
   report: CheckReport | null;
 }>;
 
@@ -103,9 +118,10 @@ export function evaluate(text: string, sourceName: string, cache?: PartCheckCach
     raw = parseYamlText(text, sourceName);
     const design = validateDesign(raw);
     const frame = buildFrame(design);
-    return { raw, problems: [], design, frame, report: checkFrame(frame, {}, cache) };
+    const assembly = buildAssembly(design, frame);
+    return { raw, problems: [], design, frame, assembly, report: checkFrame(frame, {}, assembly, cache) };
   } catch (e) {
-    return { raw, problems: problemsOf(e), design: null, frame: null, report: null };
+    return { raw, problems: problemsOf(e), design: null, frame: null, assembly: null, report: null };
   }
 }
 
@@ -131,27 +147,35 @@ function partInfos(frame: Frame, report: CheckReport): PartInfo[] {
   });
 }
 
-function figures(frame: Frame): Figures {
+function figures(frame: Frame, a: Assembly): Figures {
   const discs = propDiscs(frame);
   // Adjacent pairs: as many of the smallest gaps as there are props (the ring round the frame).
   const gaps = tipGaps(discs).slice(0, discs.length);
+  const mb = massBalance(a, frame.design);
+  const m = mb.massG;
   return {
     plateMassG: round(frameMassG(frame)),
     tipGaps: gaps.map((g) => ({ between: `${g.a} / ${g.b}`, gapMm: round(g.gapMm), minMm: frame.design.props.minTipGapMm })),
     wheelbaseMm: round(wheelbaseOf(frame.sites), 1),
     propDiameterMm: round(frame.propDiameterMm, 1),
+    massG: { frame: round(m.frame, 1), hardware: round(m.hardware, 1), motors: round(m.motors, 1), components: round(m.components, 1), battery: round(m.battery, 1), allUp: round(m.allUp, 1) },
+    cgMm: [round(mb.cgMm[0], 1), round(mb.cgMm[1], 1), round(mb.cgMm[2], 1)],
+    cgOffsetMm: round(mb.cgOffsetMm, 1),
+    cgOffsetShare: round(mb.cgOffsetShare, 4),
+    propPlaneMm: round(a.stackUp.propPlaneMm, 1),
+    hardware: hardwareList(a, frame.design).items,
   };
 }
 
 /** Everything the page draws for a built frame: pictures, parts, findings with their places, figures. */
-export function frameViews(frame: Frame, report: CheckReport): Pick<LiveModel, 'views' | 'parts' | 'findings' | 'summary' | 'figures'> {
+export function frameViews(frame: Frame, assembly: Assembly, report: CheckReport): Pick<LiveModel, 'views' | 'parts' | 'findings' | 'summary' | 'figures'> {
   const a = frameAnnotation(frame, report);
   return {
-    views: { plan: planView(frame, a), side: null, parts: frame.parts.map((p) => ({ name: p.name, view: partView(p) })) },
+    views: { plan: planView(frame, a), side: sideView(assembly), parts: frame.parts.map((p) => ({ name: p.name, view: partView(p) })) },
     parts: partInfos(frame, report),
     findings: report.findings.map((f, id) => ({ id, rule: f.rule, severity: f.severity, part: f.part, message: f.message, measured: f.measured, limit: f.limit, unit: f.unit, targets: findingTargets(frame, f) })),
     summary: { errors: report.summary.errors, warnings: report.summary.warnings, notes: report.findings.filter((f) => f.severity === 'info').length },
-    figures: figures(frame),
+    figures: figures(frame, assembly),
   };
 }
 
@@ -168,7 +192,7 @@ export function liveModel(text: string, o: Readonly<{ version: number; file: str
     form: designForm(o.schema, ev.raw),
     cautions: CHECK_CAUTIONS,
   };
-  if (!ev.frame || !ev.report || !ev.design) {
+  if (!ev.frame || !ev.report || !ev.design || !ev.assembly) {
     const prev = o.previous;
     const rec = (ev.raw ?? {}) as Record<string, unknown>;
     const model: LiveModel = {
@@ -192,7 +216,7 @@ export function liveModel(text: string, o: Readonly<{ version: number; file: str
     revision: ev.design.revision,
     state: 'ok',
     problems: [],
-    ...frameViews(ev.frame, ev.report),
+    ...frameViews(ev.frame, ev.assembly, ev.report),
     buildMs: round(performance.now() - t0, 1),
   };
   return { model, evaluation: ev };

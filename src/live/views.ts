@@ -1,3 +1,5 @@
+import { assemblyView, projectPoint } from '../assembly/views.js';
+import type { Assembly } from '../assembly/types.js';
 import type { Finding } from '../checks/types.js';
 import type { FrameAnnotation } from '../checks/annotate.js';
 import { FRAME_PART } from '../checks/props.js';
@@ -111,8 +113,45 @@ export function partView(part: Part): SvgView {
   return { viewBox: viewBoxOf([x0, -y1, x1, -y0], margin), markup: out.join('') };
 }
 
-/** Where a finding shows: frame findings in plan view; part findings on the part and on each copy in plan. */
+/** Side view, front to the right: frame x to the right, z up the screen. */
+const sidePoint = (p: Vec2): Vec2 => [p[0], -p[1]];
+
+/**
+ * The assembled frame seen from the left (the assembly's side-view data): plates, standoffs and
+ * spacers, proud screw heads and nuts, motors, prop bands, components and the camera's tilt range,
+ * with the stack-up heights as a dimension chain at the left.
+ */
+export function sideView(a: Assembly): SvgView {
+  const v = assemblyView(a, 'side');
+  const partOf = new Map(a.plates.map((p) => [p.id, p.part.name]));
+  const out: string[] = [];
+  for (const it of v.items) {
+    const pts = it.polygon.map((p) => sidePoint(p)).map((p) => `${n3(p[0])},${n3(p[1])}`).join(' ');
+    const part = partOf.get(it.id);
+    out.push(`<polygon class="item kind-${it.kind}${it.dashed ? ' dashed' : ''}"${part ? ` data-part="${xmlEscape(part)}"` : ''} points="${pts}"><title>${xmlEscape(it.id)}</title></polygon>`);
+  }
+  const [x0, y0, x1, y1] = v.bbox;
+  const step = Math.max(4, (x1 - x0) / 40);
+  v.dimensions.forEach((d, i) => {
+    const x = x0 - step * (i + 1.5);
+    out.push(`<g class="dimension"><line x1="${n3(x)}" y1="${n3(-d.fromMm)}" x2="${n3(x)}" y2="${n3(-d.toMm)}"/><text x="${n3(x - 0.6)}" y="${n3(-(d.fromMm + d.toMm) / 2)}"><title>${xmlEscape(d.label)}</title>${(d.toMm - d.fromMm).toFixed(1)}</text></g>`);
+  });
+  const left = x0 - step * (v.dimensions.length + 2.5);
+  // Front arrow pointing right (frame +x) above the frame.
+  const ay = -y1 - step * 2;
+  out.push(`<g class="front-arrow side"><line x1="${n3(x1 - 18)}" y1="${n3(ay)}" x2="${n3(x1 - 3)}" y2="${n3(ay)}"/><path d="M${n3(x1)} ${n3(ay)} l-7 -3 v6 z"/><text x="${n3(x1 - 12)}" y="${n3(ay - 2)}">front</text></g>`);
+  return { viewBox: viewBoxOf([left, ay - step * 2, x1, -y0], 4), markup: out.join('') };
+}
+
+/**
+ * Where a finding shows: frame findings in plan view (and, for fit findings with a place in space,
+ * in side view); part findings on the part and on each copy in plan.
+ */
 export function findingTargets(frame: Frame, f: Finding): FindingTarget[] {
+  if (f.where) {
+    const w = f.where;
+    return [{ view: 'plan', at: planPoint([w[0], w[1]]) }, { view: 'side', at: sidePoint(projectPoint('side', w)) }];
+  }
   if (!f.atMm) return [];
   const at: Vec2 = [f.atMm[0], f.atMm[1]];
   if (f.part === FRAME_PART) return [{ view: 'plan', at: planPoint(at) }];

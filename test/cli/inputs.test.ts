@@ -6,6 +6,9 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { DESIGNS_DIR, REPO, demoText } from '../helpers/demo.js';
 import { runCli, STACK_LINE } from '../helpers/cli.js';
 
+/** The demo with another wheelbase (the key's text replaced in place). */
+const tesselWith = (mm: number): string => demoText('tessel-5.yaml').replace(/wheelbaseMm: [\d.]+/, `wheelbaseMm: ${mm}`);
+
 /** Standard input (`-`), several designs for `check`, JSON errors on stdout with --json, and --watch. */
 
 const tmp = mkdtempSync(join(tmpdir(), 'fw-inputs-'));
@@ -32,7 +35,7 @@ describe('a design from standard input (-)', () => {
   });
 
   it('bad input on standard input: exit 2, the parameter named, no stack trace', () => {
-    const r = runCli(['check', '-'], demoText('tessel-5.yaml').replace('wheelbaseMm: 224', 'wheelbaseMm: 20'));
+    const r = runCli(['check', '-'], tesselWith(20));
     expect(r.code).toBe(2);
     expect(r.stderr).toContain('layout.wheelbaseMm');
     expect(r.stderr).not.toMatch(STACK_LINE);
@@ -131,12 +134,12 @@ describe('--watch', () => {
     await w.waitFor(/watching/);
     expect(w.out()).toContain('framewright check: Tessel 5');
     // A save by rename (as editors do) with a new wheelbase: checked again.
-    writeFileSync(`${design}.new`, demoText('tessel-5.yaml').replace('wheelbaseMm: 224', 'wheelbaseMm: 250'));
+    writeFileSync(`${design}.new`, tesselWith(250));
     renameSync(`${design}.new`, design);
     await w.waitFor(/watching/, 2);
     expect(w.out()).toContain('changed; running again');
     // A bad save is reported, the watch continues.
-    writeFileSync(design, demoText('tessel-5.yaml').replace('wheelbaseMm: 224', 'wheelbaseMm: 5'));
+    writeFileSync(design, tesselWith(5));
     await w.waitFor(/watching/, 3);
     expect(w.out()).toContain('layout.wheelbaseMm');
     expect(w.p.exitCode).toBeNull();
@@ -152,7 +155,7 @@ describe('--watch', () => {
     const w = background(['build', design, '--out', out, '--watch']);
     await w.waitFor(/watching/);
     const before = readFileSync(join(out, 'overview.svg'), 'utf8');
-    writeFileSync(design, demoText('tessel-5.yaml').replace('wheelbaseMm: 224', 'wheelbaseMm: 240'));
+    writeFileSync(design, tesselWith(240));
     await w.waitFor(/watching/, 2);
     expect(readFileSync(join(out, 'overview.svg'), 'utf8')).not.toBe(before);
     w.p.kill('SIGTERM');

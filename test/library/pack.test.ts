@@ -5,6 +5,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { REPO } from '../helpers/demo.js';
 import { runCli } from '../helpers/cli.js';
+import { setDesignValues } from '../../src/variant/changes.js';
 
 /**
  * The package as users get it: `npm pack`, installed into an empty project by npm itself, imported
@@ -102,8 +103,9 @@ export const errors: number = report.summary.errors;
     expect(rows[0].hz).toBeGreaterThan(rows[1].hz);
     expect(rows[1].hz).toBeGreaterThan(rows[2].hz);
     for (const x of rows) expect(x.what).toMatch(/arm bending out of plane/);
-    // The demo's own wheelbase gives the plate mass `framewright build --json` reports.
-    const build = JSON.parse(runCli(['build', 'designs/tessel-5.yaml', '--json', '--out', join(tmp, 'build')]).stdout) as { parts: Array<{ massG: number; quantity: number }> };
+    // The same wheelbase given to the CLI (the design on standard input) gives the same plate mass.
+    const text = setDesignValues(readFileSync(join(REPO, 'designs', 'tessel-5.yaml'), 'utf8'), { 'layout.wheelbaseMm': rows[1].wb });
+    const build = JSON.parse(runCli(['build', '-', '--json', '--force', '--out', join(tmp, 'build')], text).stdout) as { parts: Array<{ massG: number; quantity: number }> };
     expect(rows[1].massG).toBeCloseTo(build.parts.reduce((a, p) => a + p.massG * p.quantity, 0), 0);
   });
 });

@@ -3,6 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import YAML from 'yaml';
 import { DESIGNS_DIR, REPO } from '../helpers/demo.js';
 import { CHROMIUM, CHROMIUM_FLAGS, chromiumAvailable, freshProfile, startLive, type RunningLive } from '../helpers/live.js';
 import { yamlComments as comments } from '../helpers/yaml.js';
@@ -14,6 +15,10 @@ import { yamlComments as comments } from '../helpers/yaml.js';
  */
 
 const SHOTS = join(REPO, 'out', 'live');
+
+/** The demo's wheelbase as its file gives it, and the file with another one (the key's text replaced in place). */
+const DEMO_WB = (YAML.parse(readFileSync(join(DESIGNS_DIR, 'tessel-5.yaml'), 'utf8')) as { layout: { wheelbaseMm: number } }).layout.wheelbaseMm;
+const withWheelbase = (text: string, mm: number): string => text.replace(/wheelbaseMm: [\d.]+/, `wheelbaseMm: ${mm}`);
 
 
 /** Plan view, front up: a motor at frame (x, y) is drawn at screen (−y, −x). For a square X layout of
@@ -65,8 +70,8 @@ describe.runIf(run)('live page in Chromium', () => {
     expect(await page.locator('#parts figure.part-card').count()).toBe(5);
     const model = (await (await fetch(`${live.url}api/model`)).json()) as { findings: unknown[] };
     expect(await page.locator('#findings li.finding').count()).toBe(model.findings.length);
-    expect(await wheelbase().inputValue()).toBe('224');
-    expect(Math.abs(await propX('front-left'))).toBeCloseTo(propScreenX(224), 3);
+    expect(await wheelbase().inputValue()).toBe(String(DEMO_WB));
+    expect(Math.abs(await propX('front-left'))).toBeCloseTo(propScreenX(DEMO_WB), 3);
     await page.screenshot({ path: join(SHOTS, '1-loaded.png') });
   });
 
@@ -79,7 +84,7 @@ describe.runIf(run)('live page in Chromium', () => {
     expect(await page.locator('[data-view="plan"] path.plate[data-part="arm"]').first().getAttribute('d')).not.toBe(armBefore);
     const onDisk = readFileSync(design, 'utf8');
     // Only the value changed: every other byte (comments, order, flow lists) is as it was.
-    expect(onDisk).toBe(original.replace('wheelbaseMm: 224', 'wheelbaseMm: 240'));
+    expect(onDisk).toBe(withWheelbase(original, 240));
     expect(comments(onDisk)).toEqual(comments(original));
     await page.screenshot({ path: join(SHOTS, '2-wheelbase-240.png') });
   });
@@ -116,7 +121,7 @@ describe.runIf(run)('live page in Chromium', () => {
   });
 
   it('an edit of the file on disk reloads the page', async () => {
-    const text = readFileSync(design, 'utf8').replace('wheelbaseMm: 240', 'wheelbaseMm: 250');
+    const text = withWheelbase(readFileSync(design, 'utf8'), 250);
     // As editors save: a new file renamed over the old one.
     writeFileSync(`${design}.tmp`, text);
     renameSync(`${design}.tmp`, design);

@@ -57,7 +57,7 @@ describe('the form generated from the design schema', () => {
     const raw = YAML.parse(demoText('tessel-5.yaml'));
     const f = new Map(fieldsOf(designForm(schema, raw)).map((x) => [x.path, x]));
     const wb = f.get('layout.wheelbaseMm')!;
-    expect([wb.input, wb.unit, wb.min, wb.max, wb.required, wb.text]).toEqual(['number', 'mm', 60, 1000, true, '224']);
+    expect([wb.input, wb.unit, wb.min, wb.max, wb.required, wb.text]).toEqual(['number', 'mm', 60, 1000, true, String(raw.layout.wheelbaseMm)]);
     expect(wb.description).toBe('diagonal motor-to-motor distance');
     const angle = f.get('layout.armAngleDeg')!;
     expect([angle.unit, angle.defaultText, angle.required]).toEqual(['deg', '45', false]);

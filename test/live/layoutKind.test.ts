@@ -3,7 +3,7 @@ import YAML from 'yaml';
 import { motorSites, wheelbaseOf } from '../../src/geometry/layout.js';
 import { parseDesignText } from '../../src/params/design.js';
 import { convertLayoutKind } from '../../src/live/layoutKind.js';
-import { editDesignText } from '../../src/variant/changes.js';
+import { editDesignText, setDesignValues } from '../../src/variant/changes.js';
 import { demoText } from '../helpers/demo.js';
 
 /** A kind change from the page, applied as the live session applies it. */
@@ -16,7 +16,7 @@ const motors = (text: string) => motorSites(parseDesignText(text)).map((s) => s.
 
 describe('changing layout.kind keeps the frame where it was', () => {
   it('x → asymmetric: every motor stays put (to the 0.1 mm the file is written in)', () => {
-    const src = demoText('tessel-5.yaml');
+    const src = setDesignValues(demoText('tessel-5.yaml'), { 'layout.wheelbaseMm': 224, 'layout.armAngleDeg': 45 });
     const out = switchKind(src, 'asymmetric');
     expect(YAML.parse(out).layout).toEqual({ kind: 'asymmetric', front: { reachMm: 112, angleDeg: 45 }, rear: { reachMm: 112, angleDeg: 45 } });
     const a = motors(src);

@@ -54,7 +54,7 @@ describe('the live model', () => {
   });
 
   it('tip gaps are the prop centres’ distance less the diameter (square X of wheelbase W: W sin 45° − D)', () => {
-    const m = model(demoText('tessel-5.yaml'));
+    const m = model(setDesignValues(demoText('tessel-5.yaml'), { 'layout.wheelbaseMm': 224, 'layout.armAngleDeg': 45 }));
     const D = 5.1 * 25.4;
     for (const g of m.figures!.tipGaps) expect(g.gapMm).toBeCloseTo(224 * Math.SQRT1_2 - D, 2);
     expect(m.figures!.wheelbaseMm).toBe(224);
@@ -62,7 +62,7 @@ describe('the live model', () => {
 
   it('a design that cannot be built keeps the last pictures and says why', () => {
     const good = model(demoText('tessel-5.yaml'));
-    const bad = liveModel(demoText('tessel-5.yaml').replace('wheelbaseMm: 224', 'wheelbaseMm: 20'), { version: 2, file: 'x.yaml', schema, previous: good }).model;
+    const bad = liveModel(setDesignValues(demoText('tessel-5.yaml'), { 'layout.wheelbaseMm': 20 }), { version: 2, file: 'x.yaml', schema, previous: good }).model;
     expect(bad.state).toBe('invalid');
     expect(bad.problems[0].path).toBe('layout.wheelbaseMm');
     expect(bad.views).toEqual(good.views);

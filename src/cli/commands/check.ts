@@ -75,7 +75,11 @@ async function runDesignCheck(path: string, opts: CheckCliOptions): Promise<Chec
   const input = await loadCheckInput(path);
   // Limits are judged before the (slower) geometry is built, so bad input fails fast.
   const o = await mergedOptions(input.design, opts);
-  const [{ buildFrame }, { checkFrame, formatCheckReport, relieveFrame }] = await Promise.all([import('../../geometry/index.js'), import('../../checks/index.js')]);
+  const [{ buildFrame }, { checkFrame, formatCheckReport, relieveFrame }, { buildAssembly, massBalance, massBalanceSummary, massBalanceText }] = await Promise.all([
+    import('../../geometry/index.js'),
+    import('../../checks/index.js'),
+    import('../../assembly/index.js'),
+  ]);
   let frame = buildFrame(input.design);
   let reliefNote = '';
   if (opts.relieveCorners) {
@@ -83,13 +87,15 @@ async function runDesignCheck(path: string, opts: CheckCliOptions): Promise<Chec
     frame = r.frame;
     reliefNote = `Corner relief: ${r.added} dogbone${r.added === 1 ? '' : 's'} added${r.skipped ? `, ${r.skipped} corner${r.skipped === 1 ? '' : 's'} too tight to relieve` : ''}; the report below is for the relieved parts.\n`;
   }
-  const report = checkFrame(frame, o);
+  const assembly = buildAssembly(frame.design, frame);
+  const report = checkFrame(frame, o, assembly);
+  const balance = massBalance(assembly, frame.design);
   if (opts.annotate) {
     const files = await annotatedFiles(frame, report, opts.annotate, o);
     writeAllAtomically(files, opts.annotate);
   }
   const heading = `framewright check: ${frame.name} rev ${frame.revision} (router bit ${o.toolDiameterMm.toFixed(3)} mm)`;
-  return { report, text: `${reliefNote}${formatCheckReport(report, heading)}` };
+  return { report, json: { ...report, massBalance: massBalanceSummary(assembly, balance) }, text: `${reliefNote}${formatCheckReport(report, heading)}${massBalanceText(balance)}\n` };
 }
 
 /** Check one input: a design file, `-` for a design on standard input, or a DXF drawing. */
@@ -109,8 +115,8 @@ const stem = (path: string): string => (path === STDIN_PATH ? 'stdin' : basename
  */
 export async function checkInputs(paths: readonly string[], opts: CheckCliOptions): Promise<number> {
   if (paths.length === 1) {
-    const { report, text } = await runCheck(paths[0], opts);
-    process.stdout.write(opts.json ? `${JSON.stringify(report, null, 2)}\n` : text);
+    const { report, json, text } = await runCheck(paths[0], opts);
+    process.stdout.write(opts.json ? `${JSON.stringify(json, null, 2)}\n` : text);
     return report.summary.errors > 0 ? 1 : 0;
   }
   const stems = paths.map(stem);
@@ -119,9 +125,9 @@ export async function checkInputs(paths: readonly string[], opts: CheckCliOption
   for (const [i, path] of paths.entries()) {
     const own = { ...opts, ...(opts.annotate ? { annotate: join(opts.annotate, stems.indexOf(stems[i]) === i ? stems[i] : `${stems[i]}-${i + 1}`) } : {}) };
     try {
-      const { report, text } = await runCheck(path, own);
+      const { report, json, text } = await runCheck(path, own);
       code = Math.max(code, report.summary.errors > 0 ? 1 : 0);
-      if (opts.json) results.push({ input: path, ...report });
+      if (opts.json) results.push({ input: path, ...(json as object) });
       else process.stdout.write(`${i > 0 ? '\n' : ''}${text}`);
     } catch (e) {
       code = Math.max(code, reportError(e));

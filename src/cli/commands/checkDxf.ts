@@ -19,8 +19,8 @@ export type DxfCheckFlags = Readonly<{
   layers?: string;
 }>;
 
-/** A finished check of one input: the report, and the text `check` prints for it without --json. */
-export type CheckRun = Readonly<{ report: CheckReport; text: string }>;
+/** A finished check of one input: the report, what `--json` prints for it (the report and any extra figures), and the text printed without --json. */
+export type CheckRun = Readonly<{ report: CheckReport; json: unknown; text: string }>;
 
 /**
  * `framewright check part.dxf` (loaded by `check` only for a DXF): import the drawing (flags over
@@ -54,5 +54,5 @@ export function runDxfCheck(path: string, flags: DxfCheckFlags, limitFlags: Reco
   const u = imported.units;
   const unitNote = u.from === 'header' ? `${u.unit} from $INSUNITS` : u.from === 'option' ? `${u.unit} as given` : `${u.unit} assumed`;
   const heading = `framewright check: ${basename(path)} (DXF, ${unitNote}; cut layers ${imported.cutLayers.join(', ') || 'none'}; router bit ${o.toolDiameterMm.toFixed(3)} mm)`;
-  return { report, text: `${reliefNote}${formatCheckReport(report, heading)}` };
+  return { report, json: report, text: `${reliefNote}${formatCheckReport(report, heading)}` };
 }

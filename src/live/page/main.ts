@@ -164,6 +164,7 @@ function drawMarkers(): void {
     });
   }
   plan.markFindings(byView.get('plan') ?? [], selected, select);
+  side.markFindings(byView.get('side') ?? [], selected, select);
   for (const [name, v] of partViewers) v.markFindings(byView.get(`part:${name}`) ?? [], selected, select);
 }
 
@@ -206,6 +207,8 @@ function select(id: number): void {
   highlightPart(f.part === 'frame' ? null : f.part);
   const planTarget = f.targets.find((t) => t.view === 'plan');
   if (planTarget) plan.zoomToFinding(planTarget.at);
+  const sideTarget = f.targets.find((t) => t.view === 'side');
+  if (sideTarget) side.zoomToFinding(sideTarget.at);
   const partTarget = f.targets.find((t) => t.view.startsWith('part:'));
   if (partTarget) {
     const v = partViewers.get(partTarget.view.slice('part:'.length));
@@ -231,20 +234,41 @@ function renderFigures(m: LiveModel): void {
     fill(figuresRoot, h('p', { class: 'note' }, 'No figures until the design builds.'));
     return;
   }
-  const rows: Array<[string, string]> = [
-    ['plates, one frame', `${num(fg.plateMassG, 1)} g`],
-    ['wheelbase', `${num(fg.wheelbaseMm, 1)} mm`],
-    ['props', `${num(fg.propDiameterMm, 1)} mm`],
-  ];
+  const table = (id: string, rows: Array<[string, string]>): HTMLTableElement =>
+    h('table', { class: 'figures', id }, h('tbody', {}, ...rows.map(([k, v]) => h('tr', {}, h('th', { scope: 'row' }, k), h('td', {}, v)))));
+  const g = fg.massG;
   fill(
     figuresRoot,
-    h('table', { class: 'figures' }, h('tbody', {}, ...rows.map(([k, v]) => h('tr', {}, h('th', { scope: 'row' }, k), h('td', {}, v))))),
+    h('h3', {}, 'Mass and balance'),
+    table('mass', [
+      ['all up', `${num(g.allUp, 1)} g`],
+      ['plates', `${num(g.frame, 1)} g`],
+      ['hardware', `${num(g.hardware, 1)} g`],
+      ['motors', `${num(g.motors, 1)} g`],
+      ['components', `${num(g.components, 1)} g`],
+      ['battery', `${num(g.battery, 1)} g`],
+      ['centre of gravity x, y, z', `${num(fg.cgMm[0], 1)}, ${num(fg.cgMm[1], 1)}, ${num(fg.cgMm[2], 1)} mm`],
+      ['CG from thrust centre (plan)', `${num(fg.cgOffsetMm, 1)} mm (${num(fg.cgOffsetShare * 100, 1)} % of motor distance)`],
+    ]),
+    h('h3', {}, 'Layout'),
+    table('layout-figures', [
+      ['wheelbase', `${num(fg.wheelbaseMm, 1)} mm`],
+      ['props', `${num(fg.propDiameterMm, 1)} mm`],
+      ['prop plane', `${num(fg.propPlaneMm, 1)} mm above the bottom plate's underside`],
+    ]),
     h('h3', {}, 'Tip gaps'),
     h(
       'table',
       { class: 'figures', id: 'tip-gaps' },
       h('thead', {}, h('tr', {}, h('th', {}, 'props'), h('th', {}, 'gap mm'), h('th', {}, 'min mm'))),
-      h('tbody', {}, ...fg.tipGaps.map((g) => h('tr', { class: g.gapMm < g.minMm ? 'bad' : '' }, h('td', {}, g.between), h('td', {}, num(g.gapMm, 1)), h('td', {}, num(g.minMm, 1))))),
+      h('tbody', {}, ...fg.tipGaps.map((t) => h('tr', { class: t.gapMm < t.minMm ? 'bad' : '' }, h('td', {}, t.between), h('td', {}, num(t.gapMm, 1)), h('td', {}, num(t.minMm, 1))))),
+    ),
+    h('h3', {}, 'Hardware, one frame'),
+    h(
+      'table',
+      { class: 'figures', id: 'hardware' },
+      h('thead', {}, h('tr', {}, h('th', {}, 'n'), h('th', {}, 'item'), h('th', {}, 'size'), h('th', {}, 'use'))),
+      h('tbody', {}, ...fg.hardware.map((it) => h('tr', { title: it.standard === 'none' ? '' : it.standard }, h('td', {}, String(it.count)), h('td', {}, it.item), h('td', {}, `${it.size}${it.lengthMm !== null ? ` × ${num(it.lengthMm, 0)}` : ''}`), h('td', {}, it.use)))),
     ),
   );
 }
