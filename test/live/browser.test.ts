@@ -79,8 +79,8 @@ describe.runIf(run)('live page in Chromium', () => {
     const armBefore = await page.locator('[data-view="plan"] path.plate[data-part="arm"]').first().getAttribute('d');
     await wheelbase().fill('240');
     await wheelbase().press('Enter');
-    await expect.poll(() => page.locator('#status').textContent()).toContain('saved');
-    expect(Math.abs(await propX('front-left'))).toBeCloseTo(propScreenX(240), 3);
+    await expect.poll(() => page.locator('#status').textContent()).toMatch(/^saved/);
+    await expect.poll(async () => Math.abs(await propX('front-left'))).toBeCloseTo(propScreenX(240), 3);
     expect(await page.locator('[data-view="plan"] path.plate[data-part="arm"]').first().getAttribute('d')).not.toBe(armBefore);
     const onDisk = readFileSync(design, 'utf8');
     // Only the value changed: every other byte (comments, order, flow lists) is as it was.

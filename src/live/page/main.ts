@@ -36,6 +36,7 @@ const figuresRoot = h('div', { id: 'figures' });
 const modesRoot = h('div', { id: 'modes' });
 const variantRoot = h('div', { id: 'variant-result' });
 const downloadsRoot = h('div', { id: 'downloads' });
+const keyFigures = h('figure', { id: 'key-figures', class: 'key-figures', 'aria-label': 'key figures' });
 const tipEl = h('div', { id: 'tooltip', role: 'tooltip', hidden: true });
 const tip = new PartTip(tipEl);
 
@@ -68,7 +69,7 @@ function layout(): void {
       'main',
       {},
       h('aside', { id: 'form-pane', 'aria-label': 'parameters' }, h('h2', {}, 'Parameters'), banner, formRoot),
-      h('section', { id: 'views-pane', 'aria-label': 'pictures' }, h('div', { class: 'frame-views' }, figPlan, figSide), h('h2', {}, 'Parts'), partsRoot),
+      h('section', { id: 'views-pane', 'aria-label': 'pictures' }, h('div', { class: 'frame-views' }, figPlan, h('div', { class: 'side-column' }, figSide, keyFigures)), h('h2', {}, 'Parts'), partsRoot),
       h(
         'aside',
         { id: 'info-pane', 'aria-label': 'findings and figures' },
@@ -228,7 +229,27 @@ function fitAll(): void {
   for (const v of partViewers.values()) v.fit();
 }
 
+/** The few numbers a designer watches while moving a parameter, beside the pictures. */
+function renderKeyFigures(m: LiveModel): void {
+  const fg = m.figures;
+  if (!fg) return fill(keyFigures);
+  const minGap = Math.min(...fg.tipGaps.map((t) => t.gapMm));
+  const item = (label: string, value: string, bad = false): HTMLElement => h('div', { class: `key${bad ? ' bad' : ''}` }, h('span', { class: 'k' }, label), h('span', { class: 'v' }, value));
+  fill(
+    keyFigures,
+    item('all up', `${num(fg.massG.allUp, 0)} g`),
+    item('plates', `${num(fg.massG.frame, 1)} g`),
+    item('CG off thrust centre', `${num(fg.cgOffsetMm, 1)} mm`),
+    item('CG height', `${num(fg.cgMm[2], 1)} mm`),
+    item('wheelbase', `${num(fg.wheelbaseMm, 1)} mm`),
+    item('smallest tip gap', `${num(minGap, 1)} mm`, minGap < (fg.tipGaps[0]?.minMm ?? 0)),
+    item('errors', String(m.summary.errors), m.summary.errors > 0),
+    item('warnings', String(m.summary.warnings)),
+  );
+}
+
 function renderFigures(m: LiveModel): void {
+  renderKeyFigures(m);
   const fg = m.figures;
   if (!fg) {
     fill(figuresRoot, h('p', { class: 'note' }, 'No figures until the design builds.'));
