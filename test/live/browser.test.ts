@@ -131,6 +131,45 @@ describe.runIf(run)('live page in Chromium', () => {
     await page.screenshot({ path: join(SHOTS, '5-reloaded-from-disk.png') });
   });
 
+  it('a change that needs two fields at once (truss arms to straight ones) is held until it builds', async () => {
+    const before = readFileSync(design, 'utf8');
+    await page.locator('[id="f-arms.style"]').selectOption('straight');
+    const widthError = page.locator('[data-path="arms.widthMm"] .error');
+    await expect.poll(() => widthError.isVisible()).toBe(true);
+    expect(await widthError.textContent()).toMatch(/required for straight arms/);
+    expect(readFileSync(design, 'utf8')).toBe(before);
+    await page.locator('[id="f-arms.widthMm"]').fill('12');
+    await page.locator('[id="f-arms.widthMm"]').press('Enter');
+    await expect.poll(() => readFileSync(design, 'utf8')).not.toBe(before);
+    const after = YAML.parse(readFileSync(design, 'utf8')) as { arms: { style: string; widthMm: number } };
+    expect([after.arms.style, after.arms.widthMm]).toEqual(['straight', 12]);
+    expect(comments(readFileSync(design, 'utf8'))).toEqual(comments(before));
+    await page.screenshot({ path: join(SHOTS, '6-straight-arms.png') });
+  });
+
+  it('a layout kind change keeps the motors where they were', async () => {
+    const before = await propX('front-left');
+    await page.locator('[id="f-layout.kind"]').selectOption('asymmetric');
+    await expect.poll(() => (YAML.parse(readFileSync(design, 'utf8')) as { layout: { kind: string } }).layout.kind).toBe('asymmetric');
+    await expect.poll(() => page.locator('[id="f-layout.front.reachMm"]').count()).toBe(1);
+    expect(await propX('front-left')).toBeCloseTo(before, 1);
+  });
+
+  it('works from the keyboard: Tab reaches a finding, Enter zooms to it', async () => {
+    await page.keyboard.press('Escape');
+    const button = page.locator('#findings li.finding button').nth(1);
+    await button.focus();
+    const before = ((await page.locator('svg[data-view="plan"]').getAttribute('viewBox')) ?? '').split(' ').map(Number);
+    await page.keyboard.press('Enter');
+    expect(await button.getAttribute('aria-pressed')).toBe('true');
+    const after = ((await page.locator('svg[data-view="plan"]').getAttribute('viewBox')) ?? '').split(' ').map(Number);
+    expect(after[2]).toBeLessThan(before[2]);
+    // `/` jumps to the field filter; typing narrows the form.
+    await page.locator('body').press('/');
+    await page.keyboard.type('wheel');
+    await expect.poll(() => page.locator('.field:not([hidden])').count()).toBeLessThan(5);
+  });
+
   it('logged no console errors', () => {
     expect(consoleErrors).toEqual([]);
   });

@@ -4,7 +4,11 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { allowedHosts, judgeRequest } from '../../src/live/security.js';
-import { DESIGNS_DIR } from '../helpers/demo.js';
+import { spawnSync } from 'node:child_process';
+import { armModes } from '../../src/analysis/modes.js';
+import { DESIGNS_DIR, demoFrame } from '../helpers/demo.js';
+import { runCli } from '../helpers/cli.js';
+import { commandAvailable, requireTool } from '../helpers/reference.js';
 import { startLive, type RunningLive } from '../helpers/live.js';
 
 /**
@@ -153,4 +157,61 @@ describe('the running live server', () => {
     expect(answer.model.parts.find((p) => p.name === 'bottom-plate')?.thicknessMm).toBe(3.5);
     expect(readFileSync(design, 'utf8')).toBe(original.replace(/(\nbody:[\s\S]*?thicknessMm: )3\b/, '$13.5'));
   });
+});
+
+describe('the on-request routes (variant preview, quote drawing, modes)', () => {
+  let dir: string;
+  let live: RunningLive;
+  beforeAll(async () => {
+    dir = mkdtempSync(join(tmpdir(), 'fw-live-routes-'));
+    copyFileSync(join(DESIGNS_DIR, 'tessel-5.yaml'), join(dir, 'tessel-5.yaml'));
+    live = await startLive(join(dir, 'tessel-5.yaml'));
+  });
+  afterAll(async () => {
+    await live?.stop();
+    rmSync(dir, { recursive: true, force: true });
+  });
+
+  it('a variant preview is what `framewright variant` makes, and writes nothing', async () => {
+    const r = await send(live.port, 'GET', '/api/variant?props=7in');
+    expect(r.status).toBe(200);
+    const v = JSON.parse(r.body) as { wheelbaseMm: number; changes: Array<{ path: string; new: string }>; plan: { markup: string } };
+    const cli = JSON.parse(runCli(['variant', join(DESIGNS_DIR, 'tessel-5.yaml'), '--props', '7in', '--json', '--out', join(dir, 'v.yaml')]).stdout) as { wheelbase: { chosenMm: number } };
+    expect(v.wheelbaseMm).toBeCloseTo(cli.wheelbase.chosenMm, 1);
+    expect(v.changes.find((c) => c.path === 'props.diameter')?.new).toBe('7in');
+    expect(v.plan.markup).toContain('class="plate');
+    expect(readdirSync(dir).sort()).toEqual(['tessel-5.yaml', 'v.yaml']);
+    const bad = await send(live.port, 'GET', '/api/variant?props=big');
+    expect(bad.status).toBe(422);
+    expect(JSON.parse(bad.body).error.message).toMatch(/not a length/);
+  });
+
+  it.skipIf(!requireTool(commandAvailable('pdftotext'), 'poppler-utils (pdftotext)'))('the quote drawing downloads as a PDF that pdftotext reads', async () => {
+    const pdf = await new Promise<Buffer>((resolve, reject) => {
+      request({ host: '127.0.0.1', port: live.port, path: '/download/drawing.pdf?qty=3', headers: { Host: `127.0.0.1:${live.port}` } }, (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => resolve(Buffer.concat(chunks)));
+      })
+        .on('error', reject)
+        .end();
+    });
+    writeFileSync(join(dir, 'drawing.pdf'), pdf);
+    const text = spawnSync('pdftotext', ['-layout', join(dir, 'drawing.pdf'), '-'], { encoding: 'utf8' }).stdout;
+    expect(text).toContain('Tessel 5');
+    expect(text).toMatch(/3 frames?/);
+    expect((await send(live.port, 'GET', '/download/drawing.pdf?qty=0')).status).toBe(400);
+  });
+
+  it('the modes come from the analysis, computed in the background', async () => {
+    const r = await send(live.port, 'GET', '/api/modes');
+    expect(r.status).toBe(200);
+    const m = JSON.parse(r.body) as { rows: Array<{ model: string; modes: Array<{ frequencyHz: number }> }> };
+    const arm = m.rows.find((x) => x.model === 'arm with motor');
+    expect(arm?.modes.length).toBe(3);
+    // The same figure the analysis gives in this process.
+    const frame = demoFrame('tessel-5.yaml');
+    const direct = armModes(frame.parts.find((p) => p.role === 'arm')!, { modes: 3, motorMassG: frame.design.motorMassG });
+    expect(arm!.modes[0].frequencyHz).toBeCloseTo(direct.modes[0].frequencyHz, 0);
+  }, 180_000);
 });
