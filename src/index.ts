@@ -30,8 +30,15 @@ export type { MotorSite, SiteId } from './geometry/layout.js';
 export { partArea, partBBox, partCutLength, partMassG, holeTable } from './geometry/metrics.js';
 export { frameMassG } from './variant/variant.js';
 
+// ── The assembled frame: placed plates, hardware, motors, props, components ──────────────────────
+export { buildAssembly } from './assembly/build.js';
+export { massBalance } from './assembly/balance.js';
+export { hardwareList } from './assembly/hardware.js';
+export { assemblyView, projectPoint, type AssemblyView, type ViewName } from './assembly/views.js';
+export type { Assembly, PlacedPlate, Standoff, BoltedJoint, Motor, Prop, Component, MassBalance, HardwareList, HardwareItem, StackUp } from './assembly/types.js';
+
 // ── Checks: design rules before cutting ───────────────────────────────────────────────────────
-export { checkFrame, checkParts } from './checks/report.js';
+export { checkFrame, checkParts, type PartCheckCache } from './checks/report.js';
 export { checkOptions, optionsForDesign, type CheckOptions } from './checks/options.js';
 export { formatCheckReport, summaryLine } from './checks/text.js';
 export type { CheckReport, Finding, PartMetrics, Severity } from './checks/types.js';
@@ -41,6 +48,7 @@ export { importDxf, DxfReadError, type ImportOptions, type ImportResult } from '
 
 // ── Stiffness and resonance ───────────────────────────────────────────────────────────────────
 export { frameModes, partModes, armModes, bodyModes, type FrameModes, type ModalResult, type ModeOptions, type ModeResult } from './analysis/modes.js';
+export { assembledFrameModes, type FrameModalResult, type FrameMode, type FrameModeKind, type FrameModesOptions } from './analysis/frameModes.js';
 
 // ── Size variants ─────────────────────────────────────────────────────────────────────────────
 export { makeVariant, type VariantRequest, type VariantResult } from './variant/variant.js';
@@ -55,4 +63,6 @@ export { parseShopText, validateShop, type ShopProfile } from './params/shop.js'
 export { partToDxf, placedPartsToDxf, type DxfOptions } from './export/dxf.js';
 export { partToSvg, type SvgPartOptions } from './export/svgPart.js';
 export { frameOverviewSvg, type OverviewOptions } from './export/svgOverview.js';
+export { assemblyViewSvg, type AssemblyViewSvgOptions } from './export/svgAssemblyView.js';
+export { hardwareCsv } from './export/hardwareCsv.js';
 export { quotePackage, type PackageFile, type QuotePackageMeta } from './export/quotePackage.js';

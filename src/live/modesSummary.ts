@@ -1,56 +1,49 @@
-import { frameModes } from '../analysis/modes.js';
+import { assembledFrameModes } from '../analysis/frameModes.js';
+import { buildAssembly } from '../assembly/build.js';
 import { buildFrame } from '../geometry/frame.js';
 import { parseDesignText } from '../params/design.js';
 
-/** One analysed model on the page: what it is, how it is held, and its lowest modes. */
-export type ModesRow = Readonly<{
-  model: string;
-  boundary: string;
-  modes: ReadonlyArray<Readonly<{ frequencyHz: number; description: string }>>;
+/** One mode of the assembled frame as the page lists it. */
+export type ModeRow = Readonly<{
+  frequencyHz: number;
+  /** Kind with its plain words, e.g. "body twist (diagonal motor pairs in opposition)". */
+  name: string;
+  /** What the flight controller feels: translation share and tilt per mm of the mode's largest motion. */
+  flightController: Readonly<{ displacementRatio: number; rotationDegPerMm: number }> | null;
+  camera: Readonly<{ displacementRatio: number; rotationDegPerMm: number }> | null;
+  inRotationBand: boolean;
 }>;
 
 export type ModesSummary = Readonly<{
   version: number;
-  motorMassG: number;
-  rows: readonly ModesRow[];
-  /** Static figures under motor thrust: arm-tip deflection, body twist. */
-  statics: ReadonlyArray<Readonly<{ what: string; value: string }>>;
+  /** Elastic modes of the assembled frame, free in space, lowest first. */
+  modes: readonly ModeRow[];
+  rotationBand: Readonly<{ lowHz: number; highHz: number; source: string }> | null;
+  massG: number;
+  dof: number;
   cautions: string;
 }>;
 
-const BOUNDARY_TEXT: Record<string, string> = {
-  free: 'free (as cut)',
-  'arm-root-clamped': 'held at its root bolts, with its motor',
-  'body-with-motors': 'carrying its four motors',
-};
+const r = (x: number, d: number): number => Math.round(x * 10 ** d) / 10 ** d;
 
-const r1 = (x: number): number => Math.round(x * 10) / 10;
+/** How many modes the page asks for: enough to see past the twist and bounce pair. */
+export const PAGE_MODES = 6;
 
 /**
- * The modes the page shows on request: the lowest three of every model `frameModes` analyses, and
- * its static figures. Seconds of work: the server runs it in a worker thread.
+ * The assembled frame's lowest modes for the page (the `src/analysis` frame model: plates as shells,
+ * joints, standoffs, motors and components). Seconds of work: the server runs it in a worker thread.
+ * Throws DesignError for a design that does not build.
  */
 export function modesSummary(text: string, version: number): ModesSummary {
-  const frame = buildFrame(parseDesignText(text, 'live design'));
-  const m = frameModes(frame, { modes: 3 });
-  const rows: ModesRow[] = [];
-  const row = (model: string, r: (typeof m.parts)[number]): ModesRow => ({
-    model,
-    boundary: BOUNDARY_TEXT[r.boundary] ?? r.boundary,
-    modes: r.modes.map((x) => ({ frequencyHz: r1(x.frequencyHz), description: x.description })),
-  });
-  if (m.body) rows.push(row('bottom plate with motors', m.body.modal));
-  for (const a of m.arms) rows.push(row(`${a.modal.part} with motor`, a.modal));
-  for (const p of m.parts) rows.push(row(p.part, p));
-  const statics: Array<{ what: string; value: string }> = [];
-  for (const a of m.arms) statics.push({ what: `${a.modal.part} tip deflection at ${m.thrustN} N`, value: `${a.statics.tipDeflectionMm.toFixed(3)} mm` });
-  if (m.body) statics.push({ what: `body twist (${m.body.twist.pattern})`, value: `${m.body.twist.twistDeg.toFixed(3)}°` });
-  if (m.rootTwist) statics.push({ what: `bottom-plate twist (${m.rootTwist.pattern})`, value: `${m.rootTwist.twistDeg.toFixed(3)}°` });
+  const design = parseDesignText(text, 'live design');
+  const result = assembledFrameModes(buildAssembly(design, buildFrame(design)), { modes: PAGE_MODES });
+  const motion = (m: { displacementRatio: number; rotationDegPerMm: number } | null) => (m ? { displacementRatio: r(m.displacementRatio, 3), rotationDegPerMm: r(m.rotationDegPerMm, 4) } : null);
   return {
     version,
-    motorMassG: m.motorMassG,
-    rows,
-    statics,
-    cautions: 'Estimates from plate models (each plate analysed on its own), not a certification; test with the props off first.',
+    modes: result.modes.map((m) => ({ frequencyHz: r(m.frequencyHz, 1), name: m.name, flightController: motion(m.flightController), camera: motion(m.camera), inRotationBand: m.inRotationBand })),
+    rotationBand: result.rotationBand,
+    massG: r(result.massG, 1),
+    dof: result.dof,
+    cautions: 'Estimates from a finite-element model of the assembled frame, free in space; not a certification. Test a new frame with the props off first.',
   };
 }

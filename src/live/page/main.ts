@@ -54,7 +54,7 @@ function layout(): void {
   );
   const figPlan = h('figure', { class: 'frame-view' }, h('figcaption', {}, 'Plan — front up'), plan.svg);
   const figSide = h('figure', { class: 'frame-view', id: 'side-figure' }, h('figcaption', {}, 'Side — front to the right'), side.svg);
-  const modeButton = h('button', { type: 'button', id: 'modes-button', onclick: loadModes }, 'Compute modes');
+  const modeButton = h('button', { type: 'button', id: 'modes-button', onclick: loadModes }, 'Compute frame modes');
   const variantInput = h('input', { id: 'variant-props', type: 'text', value: '7in', size: 6, 'aria-label': 'prop size for the variant', spellcheck: 'false' });
   const variantMotor = h('select', { id: 'variant-motor', 'aria-label': 'motor for the variant' }, h('option', { value: 'keep' }, 'keep motor'), h('option', { value: 'auto' }, 'motor for the props'));
   const variantButton = h('button', { type: 'button', id: 'variant-button', onclick: () => loadVariant(variantInput.value, variantMotor.value) }, 'Preview');
@@ -78,7 +78,7 @@ function layout(): void {
         h('h2', {}, 'Figures'),
         figuresRoot,
         h('h2', {}, 'Modes'),
-        h('p', { class: 'note' }, 'Natural frequencies on request (several seconds).'),
+        h('p', { class: 'note' }, 'The assembled frame\'s lowest natural modes, on request (a few seconds).'),
         modeButton,
         modesRoot,
         h('h2', {}, 'Variant for another prop size'),
@@ -312,16 +312,16 @@ async function loadModes(): Promise<void> {
   fill(modesRoot, h('p', { class: 'note' }, 'Computing…'));
   try {
     const r = await getJson<ModesSummary>('/api/modes');
+    const motion = (x: { displacementRatio: number; rotationDegPerMm: number } | null): string => (x ? `${num(x.displacementRatio * 100, 0)} %, ${num(x.rotationDegPerMm, 3)}°/mm` : '–');
     fill(
       modesRoot,
       h(
         'table',
-        { class: 'figures modes' },
-        h('thead', {}, h('tr', {}, h('th', {}, 'model'), h('th', {}, 'Hz, lowest modes'))),
-        h('tbody', {}, ...r.rows.map((row) => h('tr', {}, h('th', { scope: 'row', title: row.boundary }, row.model), h('td', {}, row.modes.map((x) => `${num(x.frequencyHz, 0)} (${x.description})`).join(', '))))),
+        { class: 'figures modes', id: 'modes-table' },
+        h('thead', {}, h('tr', {}, h('th', {}, 'Hz'), h('th', {}, 'shape'), h('th', { title: 'flight controller: share of the largest motion, tilt per mm' }, 'FC moves'))),
+        h('tbody', {}, ...r.modes.map((x) => h('tr', { class: x.inRotationBand ? 'bad' : '', title: `camera: ${motion(x.camera)}` }, h('td', {}, num(x.frequencyHz, 0)), h('td', {}, x.name), h('td', {}, motion(x.flightController))))),
       ),
-      h('ul', {}, ...r.statics.map((st) => h('li', {}, `${st.what}: ${st.value}`))),
-      h('p', { class: 'note' }, `${r.cautions}${r.version !== model.version || version !== model.version ? ' The design changed since: compute again.' : ''}`),
+      h('p', { class: 'note' }, `${r.rotationBand ? `Motor rotation ${num(r.rotationBand.lowHz, 0)}–${num(r.rotationBand.highHz, 0)} Hz (${r.rotationBand.source}); modes inside it in red. ` : ''}${r.dof} degrees of freedom, ${num(r.massG, 0)} g. ${r.cautions}${r.version !== model.version || version !== model.version ? ' The design changed since: compute again.' : ''}`),
     );
   } catch (e) {
     fill(modesRoot, h('p', { class: 'error' }, (e as Error).message));
