@@ -75,6 +75,32 @@ describe.runIf(run)('live page in Chromium', () => {
     await page.screenshot({ path: join(SHOTS, '1-loaded.png') });
   });
 
+  it('hovering a plate names it with its thickness and mass', async () => {
+    // A point of the plate's material (not a hole) that no higher item covers, in screen pixels.
+    const at = await page.evaluate(() => {
+      const path = document.querySelector('[data-view="plan"] path.plate[data-part="top-plate"]') as SVGPathElement;
+      const box = path.getBBox();
+      const ctm = path.getScreenCTM()!;
+      for (let i = 1; i < 40; i++) {
+        for (let j = 1; j < 40; j++) {
+          const p = new DOMPoint(box.x + (box.width * i) / 40, box.y + (box.height * j) / 40);
+          if (!path.isPointInFill(p)) continue;
+          const q = p.matrixTransform(ctm);
+          if (document.elementFromPoint(q.x, q.y) === path) return { x: q.x, y: q.y };
+        }
+      }
+      return null;
+    });
+    expect(at).not.toBeNull();
+    await page.mouse.move(at!.x, at!.y);
+    const tip = page.locator('#tooltip');
+    await expect.poll(() => tip.isVisible()).toBe(true);
+    const model = (await (await fetch(`${live.url}api/model`)).json()) as { parts: Array<{ name: string; thicknessMm: number; massG: number }> };
+    const top = model.parts.find((p) => p.name === 'top-plate')!;
+    expect(await tip.textContent()).toBe(`top-plate — ${top.thicknessMm.toFixed(1)} mm woven-cf, ${top.massG.toFixed(1)} g each, ×1`);
+    await page.mouse.move(2, 2);
+  });
+
   it('a wheelbase edit redraws the outline and rewrites the file with its comments intact', async () => {
     const armBefore = await page.locator('[data-view="plan"] path.plate[data-part="arm"]').first().getAttribute('d');
     await wheelbase().fill('240');

@@ -1,4 +1,5 @@
 import { spawn } from 'node:child_process';
+import { createServer, type AddressInfo } from 'node:net';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -12,6 +13,18 @@ import { tmpdir } from 'node:os';
  * the frame's parts as SVG and the findings list are there without any further request, and the
  * browser logged no console message (errors, CSP violations) on the way.
  */
+
+/** A port nothing listens on right now. */
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = createServer();
+    srv.once('error', reject);
+    srv.listen(0, '127.0.0.1', () => {
+      const { port } = srv.address() as AddressInfo;
+      srv.close(() => resolve(port));
+    });
+  });
+}
 
 function dumpDom(url: string): Promise<{ dom: string; log: string; code: number | null }> {
   const profile = freshProfile();
@@ -42,7 +55,10 @@ describe.runIf(run)('chromium --headless --dump-dom of the live page (Tessel 5)'
   beforeAll(async () => {
     dir = mkdtempSync(join(tmpdir(), 'fw-dump-'));
     copyFileSync(join(DESIGNS_DIR, 'tessel-5.yaml'), join(dir, 'tessel-5.yaml'));
-    live = await startLive(join(dir, 'tessel-5.yaml'));
+    // As the issue runs it: `framewright live designs/tessel-5.yaml --port P --no-open`.
+    const port = await freePort();
+    live = await startLive(join(dir, 'tessel-5.yaml'), ['--port', String(port)]);
+    expect(live.port).toBe(port);
     model = (await (await fetch(`${live.url}api/model`)).json()) as typeof model;
     result = await dumpDom(live.url);
   });
