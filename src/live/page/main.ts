@@ -73,26 +73,53 @@ function layout(): void {
       h(
         'aside',
         { id: 'info-pane', 'aria-label': 'findings and figures' },
-        h('h2', {}, 'Findings'),
-        findingsRoot,
-        h('h2', {}, 'Figures'),
-        figuresRoot,
-        h('h2', {}, 'Modes'),
-        h('p', { class: 'note' }, 'The assembled frame\'s lowest natural modes, on request (a few seconds).'),
-        modeButton,
-        modesRoot,
-        h('h2', {}, 'Variant for another prop size'),
-        h('div', { class: 'row' }, variantInput, variantMotor, variantButton),
-        variantRoot,
-        h('h2', {}, 'Downloads'),
-        downloadsRoot,
-        h('h2', {}, 'Cautions'),
-        h('ul', { id: 'cautions', class: 'cautions' }),
+        tabs([
+          ['findings', 'Findings', [findingsRoot]],
+          ['figures', 'Figures', [figuresRoot]],
+          ['modes', 'Modes', [h('p', { class: 'note' }, "The assembled frame's lowest natural modes, on request (a few seconds)."), modeButton, modesRoot]],
+          ['variant', 'Variant', [h('p', { class: 'note' }, 'The same frame for another prop size: what `framewright variant` would change.'), h('div', { class: 'row' }, variantInput, variantMotor, variantButton), variantRoot]],
+          ['downloads', 'Files', [downloadsRoot, h('h3', {}, 'Cautions'), h('ul', { id: 'cautions', class: 'cautions' })]],
+        ]),
       ),
     ),
     tipEl,
   );
   tip.attach(app);
+}
+
+/**
+ * Tabs for the right-hand pane (WAI-ARIA tab pattern): the arrow keys move between tabs, each
+ * panel is reachable by Tab. Returns the tab list followed by the panels.
+ */
+function tabs(items: ReadonlyArray<[id: string, label: string, content: Node[]]>): DocumentFragment {
+  const list = h('div', { role: 'tablist', class: 'tabs', 'aria-label': 'findings, figures and files' });
+  const panels: HTMLElement[] = [];
+  const buttons: HTMLButtonElement[] = [];
+  const show = (i: number, focus: boolean): void => {
+    buttons.forEach((b, k) => {
+      b.setAttribute('aria-selected', k === i ? 'true' : 'false');
+      b.tabIndex = k === i ? 0 : -1;
+      panels[k].hidden = k !== i;
+    });
+    if (focus) buttons[i].focus();
+  };
+  items.forEach(([id, label, content], i) => {
+    const b = h('button', { type: 'button', role: 'tab', id: `tab-${id}`, 'aria-controls': `panel-${id}`, onclick: () => show(i, false) }, label);
+    b.addEventListener('keydown', (e) => {
+      const step = e.key === 'ArrowRight' ? 1 : e.key === 'ArrowLeft' ? -1 : 0;
+      if (step) {
+        e.preventDefault();
+        show((i + step + items.length) % items.length, true);
+      }
+    });
+    buttons.push(b);
+    list.append(b);
+    panels.push(h('section', { role: 'tabpanel', id: `panel-${id}`, 'aria-labelledby': `tab-${id}` }, ...content));
+  });
+  show(0, false);
+  const frag = document.createDocumentFragment();
+  frag.append(list, ...panels);
+  return frag;
 }
 
 function render(m: LiveModel, force = false): void {
@@ -117,6 +144,8 @@ function render(m: LiveModel, force = false): void {
   }
   tip.setParts(m.parts);
   renderFindings(m);
+  const tab = document.getElementById('tab-findings');
+  if (tab) tab.textContent = `Findings (${m.findings.length})`;
   renderFigures(m);
   renderDownloads(m);
   fill(byId('cautions'), ...m.cautions.map((c) => h('li', {}, c)));
