@@ -66,3 +66,4 @@ export { frameOverviewSvg, type OverviewOptions } from './export/svgOverview.js'
 export { assemblyViewSvg, type AssemblyViewSvgOptions } from './export/svgAssemblyView.js';
 export { hardwareCsv } from './export/hardwareCsv.js';
 export { quotePackage, type PackageFile, type QuotePackageMeta } from './export/quotePackage.js';
+export { zipStore, type ZipEntry } from './export/zip.js';

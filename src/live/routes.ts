@@ -12,6 +12,7 @@ import { quoteParts } from '../quote/quote.js';
 import { pathText } from '../variant/changes.js';
 import { VariantRequestError } from '../variant/errors.js';
 import { makeVariant } from '../variant/variant.js';
+import { zipStore } from '../export/zip.js';
 import type { ModesSummary } from './modesSummary.js';
 import { errorBody, send, sendJson, type Handler } from './server.js';
 import type { LiveSession } from './session.js';
@@ -112,6 +113,17 @@ export function liveRoutes(session: LiveSession, shop: ShopProfile): { routes: R
         if (e instanceof DesignError) return sendJson(res, 422, errorBody(e.message, e.issues[0]?.path ?? ''));
         throw e;
       }
+    },
+    // Every file `framewright build` writes (cut files, overview, side and front views, hardware, assembly), zipped.
+    '/download/cut-files.zip': async (_url, res) => {
+      const built = builtOr409(session, res);
+      if (!built) return;
+      const [{ buildOutputs }, { assemblyOutputs }] = await Promise.all([import('../cli/commands/build.js'), import('../cli/commands/assemblyFiles.js')]);
+      const comment = buildGate(built.report, true).comment;
+      const { files } = await buildOutputs(built.frame, '', {}, comment);
+      const assembly = session.evaluation.assembly!;
+      files.push(...assemblyOutputs(built.frame, assembly, built.report, '').files);
+      attachment(res, 'application/zip', `${built.design.name}-cut-files.zip`, zipStore(files.map((f) => ({ name: f.path, data: f.data }))));
     },
     '/api/modes': async (_url, res) => {
       if (!builtOr409(session, res)) return;

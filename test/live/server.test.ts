@@ -9,9 +9,9 @@ import { assembledFrameModes } from '../../src/analysis/frameModes.js';
 import { buildAssembly } from '../../src/assembly/build.js';
 import { buildFrame } from '../../src/geometry/frame.js';
 import { parseDesignText } from '../../src/params/design.js';
-import { DESIGNS_DIR } from '../helpers/demo.js';
-import { runCli } from '../helpers/cli.js';
-import { commandAvailable, requireTool } from '../helpers/reference.js';
+import { DESIGNS_DIR, REPO } from '../helpers/demo.js';
+import { outputNames, runCli } from '../helpers/cli.js';
+import { commandAvailable, pythonModuleAvailable, requireTool, SYSTEM_PYTHON } from '../helpers/reference.js';
 import { startLive, type RunningLive } from '../helpers/live.js';
 
 /**
@@ -204,6 +204,25 @@ describe('the on-request routes (variant preview, quote drawing, modes)', () => 
     expect(text).toContain('Tessel 5');
     expect(text).toMatch(/3 frames?/);
     expect((await send(live.port, 'GET', '/download/drawing.pdf?qty=0')).status).toBe(400);
+  });
+
+  it.skipIf(!requireTool(pythonModuleAvailable('zipfile'), 'python3 (zipfile)'))('all cut files download as one ZIP holding exactly what `framewright build` writes', async () => {
+    const zip = await new Promise<Buffer>((resolve, reject) => {
+      request({ host: '127.0.0.1', port: live.port, path: '/download/cut-files.zip', headers: { Host: `127.0.0.1:${live.port}` } }, (res) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (c: Buffer) => chunks.push(c));
+        res.on('end', () => resolve(Buffer.concat(chunks)));
+      })
+        .on('error', reject)
+        .end();
+    });
+    writeFileSync(join(dir, 'cut.zip'), zip);
+    const read = JSON.parse(spawnSync(SYSTEM_PYTHON, [join(REPO, 'test', 'reference', 'zip', 'read_zip.py'), join(dir, 'cut.zip')], { encoding: 'utf8' }).stdout) as { bad: string | null; entries: Array<{ name: string; data_b64: string }> };
+    expect(read.bad).toBeNull();
+    const out = join(dir, 'built');
+    expect(runCli(['build', join(dir, 'tessel-5.yaml'), '--out', out]).code).toBe(0);
+    expect(read.entries.map((e) => e.name).sort()).toEqual(outputNames(out));
+    for (const e of read.entries) expect(Buffer.from(e.data_b64, 'base64').equals(readFileSync(join(out, e.name))), e.name).toBe(true);
   });
 
   it('the frame modes come from the analysis, computed in the background', async () => {

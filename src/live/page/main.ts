@@ -329,7 +329,7 @@ function renderDownloads(m: LiveModel): void {
   qty.addEventListener('input', () => drawing.setAttribute('href', `/download/drawing.pdf?qty=${encodeURIComponent(qty.value)}`));
   fill(
     downloadsRoot,
-    h('p', {}, h('a', { href: '/download/design' }, 'design file')),
+    h('p', {}, h('a', { href: '/download/design' }, 'design file'), ' · ', h('a', { href: '/download/cut-files.zip', id: 'download-all' }, 'all cut files and views (ZIP)')),
     h('p', {}, drawing, ' for ', qty, ' frames'),
     h('ul', { class: 'cut-files' }, ...m.parts.map((p) => h('li', {}, `${p.name}: `, h('a', { href: `/download/part/${encodeURIComponent(p.name)}.dxf` }, 'DXF'), ' ', h('a', { href: `/download/part/${encodeURIComponent(p.name)}.svg` }, 'SVG')))),
     m.summary.errors ? h('p', { class: 'note' }, 'The checks find errors: the cut files say so inside.') : null,
