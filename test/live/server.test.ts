@@ -36,6 +36,19 @@ function send(port: number, method: string, path: string, headers: Record<string
 }
 
 const editBody = (edits: unknown): string => JSON.stringify({ edits });
+
+/** A download's bytes. */
+function download(port: number, path: string): Promise<Buffer> {
+  return new Promise((resolve, reject) => {
+    request({ host: '127.0.0.1', port, path, headers: { Host: `127.0.0.1:${port}` } }, (res) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (c: Buffer) => chunks.push(c));
+      res.on('end', () => resolve(Buffer.concat(chunks)));
+    })
+      .on('error', reject)
+      .end();
+  });
+}
 const JSON_TYPE = { 'Content-Type': 'application/json' };
 
 describe('which requests the server answers (pure rules)', () => {
@@ -190,15 +203,7 @@ describe('the on-request routes (variant preview, quote drawing, modes)', () => 
   });
 
   it.skipIf(!requireTool(commandAvailable('pdftotext'), 'poppler-utils (pdftotext)'))('the quote drawing downloads as a PDF that pdftotext reads', async () => {
-    const pdf = await new Promise<Buffer>((resolve, reject) => {
-      request({ host: '127.0.0.1', port: live.port, path: '/download/drawing.pdf?qty=3', headers: { Host: `127.0.0.1:${live.port}` } }, (res) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () => resolve(Buffer.concat(chunks)));
-      })
-        .on('error', reject)
-        .end();
-    });
+    const pdf = await download(live.port, '/download/drawing.pdf?qty=3');
     writeFileSync(join(dir, 'drawing.pdf'), pdf);
     const text = spawnSync('pdftotext', ['-layout', join(dir, 'drawing.pdf'), '-'], { encoding: 'utf8' }).stdout;
     expect(text).toContain('Tessel 5');
@@ -207,15 +212,7 @@ describe('the on-request routes (variant preview, quote drawing, modes)', () => 
   });
 
   it.skipIf(!requireTool(pythonModuleAvailable('zipfile'), 'python3 (zipfile)'))('all cut files download as one ZIP holding exactly what `framewright build` writes', async () => {
-    const zip = await new Promise<Buffer>((resolve, reject) => {
-      request({ host: '127.0.0.1', port: live.port, path: '/download/cut-files.zip', headers: { Host: `127.0.0.1:${live.port}` } }, (res) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () => resolve(Buffer.concat(chunks)));
-      })
-        .on('error', reject)
-        .end();
-    });
+    const zip = await download(live.port, '/download/cut-files.zip');
     writeFileSync(join(dir, 'cut.zip'), zip);
     const read = JSON.parse(spawnSync(SYSTEM_PYTHON, [join(REPO, 'test', 'reference', 'zip', 'read_zip.py'), join(dir, 'cut.zip')], { encoding: 'utf8' }).stdout) as { bad: string | null; entries: Array<{ name: string; data_b64: string }> };
     expect(read.bad).toBeNull();
