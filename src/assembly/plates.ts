@@ -2,7 +2,7 @@ import type { Frame } from '../geometry/frame.js';
 import { loopBBox, transformLoop, transformPoint } from '../geometry/loop.js';
 import type { Part, Placement } from '../geometry/part.js';
 import type { Loop, Vec2 } from '../geometry/types.js';
-import { centreOfMass, loopMoments, placeBody, plateBody, sumMoments, type MassBody } from './massProps.js';
+import { centreOfMass, loopMoments, placeBody, plateBody, sumMoments, type AreaMoments, type MassBody } from './massProps.js';
 import type { Box3, PlacedPlate, Pose, Vec3 } from './types.js';
 
 /** The pose of a placement (see `Pose`). */
@@ -27,9 +27,21 @@ export function poseApply(pose: Pose, p: Vec2, w = 0): Vec3 {
   return [0, 1, 2].map((i) => o[i] + p[0] * pose.uAxis[i] + p[1] * pose.vAxis[i] + w * pose.normal[i]) as unknown as Vec3;
 }
 
+const momentCache = new WeakMap<Part, AreaMoments>();
+
+/** The part's exact area moments in its own coordinates (outline less every feature), computed once per part. */
+export function partMoments(part: Part): AreaMoments {
+  let m = momentCache.get(part);
+  if (!m) {
+    m = sumMoments([loopMoments(part.outline), ...part.features.map((f) => loopMoments(f.loop))]);
+    momentCache.set(part, m);
+  }
+  return m;
+}
+
 /** Mass body of one plate copy: the part's exact area moments extruded over its thickness, placed by the pose. */
 export function plateMassBody(part: Part, pose: Pose): MassBody {
-  const m = sumMoments([loopMoments(part.outline), ...part.features.map((f) => loopMoments(f.loop))]);
+  const m = partMoments(part);
   const local = plateBody(m, part.thicknessMm, part.material.densityGPerCm3 / 1000);
   return placeBody(local, pose.originMm, [pose.uAxis, pose.vAxis, pose.normal]);
 }

@@ -1,7 +1,7 @@
-import { EndType, FillRule, JoinType, areaPathsD, differenceD, inflatePathsD, intersectD, type PathsD } from 'clipper2-ts';
+import { FillRule, areaPathsD, intersectD, rectClip, type PathsD } from 'clipper2-ts';
 import type { Assembly, Component } from '../assembly/types.js';
-import { boxPrism, CONTACT_MM, componentPrisms, prismOverlap, type Prism, OVERLAP_AREA_MM2 } from './solids.js';
-import { cameraSweptPrism, signedPathsDistance, BATTERY_FIT_RULE, CAMERA_FIT_RULE, MOTOR_SCREW_RULE, STACK_FIT_RULE } from './fit.js';
+import { CONTACT_MM, componentPrisms, prismOverlap, type Prism, OVERLAP_AREA_MM2 } from './solids.js';
+import { cameraPosePrisms, cameraSagittaMm, signedPathsDistance, BATTERY_FIT_RULE, CAMERA_FIT_RULE, MOTOR_SCREW_RULE, STACK_FIT_RULE } from './fit.js';
 import { fitFinding, mm } from './finding.js';
 import type { CheckOptions } from './options.js';
 import type { Finding } from './types.js';
@@ -10,6 +10,18 @@ import { radToDeg } from '../params/units.js';
 
 /** Least distance between two polygon sets (0 when they overlap). mm. */
 function pathsGap(a: PathsD, b: PathsD): number {
+  const box = (ps: PathsD) => ps.flat().reduce((r, q) => [Math.min(r[0], q.x), Math.min(r[1], q.y), Math.max(r[2], q.x), Math.max(r[3], q.y)], [Infinity, Infinity, -Infinity, -Infinity]);
+  const [ax0, ay0, ax1, ay1] = box(a);
+  const [bx0, by0, bx1, by1] = box(b);
+  const boxGap = Math.hypot(Math.max(bx0 - ax1, ax0 - bx1, 0), Math.max(by0 - ay1, ay0 - by1, 0));
+  if (boxGap > 0) return boxGap <= PATHS_GAP_EXACT_WITHIN_MM ? exactGap(a, b) : boxGap;
+  return exactGap(a, b);
+}
+
+/** Beyond this the bounding-box gap is reported as the gap (it is a lower bound, and far above every limit). mm. */
+const PATHS_GAP_EXACT_WITHIN_MM = 20;
+
+function exactGap(a: PathsD, b: PathsD): number {
   if (areaPathsD(intersectD(a, b, FillRule.NonZero, 6)) > OVERLAP_AREA_MM2 * 0.01) return 0;
   let d = Infinity;
   for (const [p, q] of [[a, b], [b, a]] as const) for (const path of p) for (const v of path) d = Math.min(d, Math.abs(signedPathsDistance(q, [v.x, v.y])));
@@ -37,7 +49,11 @@ export function stackFitRule(a: Assembly, o: CheckOptions, prisms: readonly Pris
   const top = prisms.find((p) => p.id === 'top-plate');
   if (!bottom || !top) return [];
   const outer = (p: Prism): PathsD => [p.paths[0]];
-  const body = intersectD(outer(bottom), outer(top), FillRule.NonZero, 6);
+  // The part of a board outside a plate's outline: the board less its rectangle clip by the outline.
+  const outsideOf = (board: Prism, plate: Prism): number => {
+    const rect = { left: board.min[0], top: board.min[1], right: board.max[0], bottom: board.max[1] };
+    return areaPathsD(board.paths) - areaPathsD(rectClip(rect, outer(plate), 6));
+  };
   const piles = new Map<number, Component[]>();
   for (const c of a.components) {
     const m = stackMountOf(c);
@@ -47,13 +63,14 @@ export function stackFitRule(a: Assembly, o: CheckOptions, prisms: readonly Pris
     const own = (p: Prism) => p.owner !== undefined && p.owner.startsWith(`stack ${mount + 1} `);
     for (const c of pile) {
       const board = componentPrisms(c)[0];
-      const outside = areaPathsD(differenceD(board.paths, body, FillRule.NonZero, 6));
-      if (outside > OVERLAP_AREA_MM2) {
-        const reach = Math.max(...board.paths[0].map((v) => signedPathsDistance(body, [v.x, v.y])));
-        const plate = areaPathsD(differenceD(board.paths, outer(bottom), FillRule.NonZero, 6)) > OVERLAP_AREA_MM2 ? 'bottom-plate' : 'top-plate';
-        const where = farthestOutside(board.paths, body);
-        out.push(fitFinding(STACK_FIT_RULE, 'error', reach, 0, 'mm', [c.id, plate], [where[0], where[1], board.lo],
-          `${c.id} (${(board.max[0] - board.min[0]).toFixed(1)} × ${(board.max[1] - board.min[1]).toFixed(1)} mm) reaches ${mm(reach)} past the body footprint (${plate}); use a larger body (body.widthMm, body.lengthMm) or a smaller board`));
+      const outBottom = outsideOf(board, bottom);
+      const outTop = outsideOf(board, top);
+      if (Math.max(outBottom, outTop) > OVERLAP_AREA_MM2) {
+        const plate = outBottom >= outTop ? bottom : top;
+        const reach = Math.max(...board.paths[0].map((v) => signedPathsDistance(outer(plate), [v.x, v.y])));
+        const where = farthestOutside(board.paths, outer(plate));
+        out.push(fitFinding(STACK_FIT_RULE, 'error', reach, 0, 'mm', [c.id, plate.id], [where[0], where[1], board.lo],
+          `${c.id} (${(board.max[0] - board.min[0]).toFixed(1)} × ${(board.max[1] - board.min[1]).toFixed(1)} mm) reaches ${mm(reach)} past the body footprint (${plate.id}); use a larger body (body.widthMm, body.lengthMm) or a smaller board`));
       }
       for (const s of prisms) {
         if (own(s) || s.kind === 'plate' || s.kind === 'component' || s.kind === 'motor') continue;
@@ -116,37 +133,35 @@ export function cameraFitRule(a: Assembly, o: CheckOptions, prisms: readonly Pri
         `${camera.id} is ${mm(width, 1)} wide between side plates ${mm(spacing, 1)} apart: ${mm(spacing - width)} of play; shim it with washers or set camera.widthMm to the camera's width`));
     }
   }
-  const swept = grow(cameraSweptPrism(camera), lim.clearanceMm);
+  const margin = lim.clearanceMm + cameraSagittaMm(camera);
+  const poses = cameraPosePrisms(camera, margin);
+  const all = envelope(poses);
+  const perPose = camera.boxes.length;
   const sideIds = new Set(sides.map((p) => p.id));
   for (const s of prisms) {
-    if (sideIds.has(s.id) || s.id.startsWith('camera pivot ')) continue;
-    if (!prismOverlap(swept, s)) continue;
-    const tilt = firstContactTilt(camera, s, lim.clearanceMm);
-    const ov = prismOverlap(swept, s)!;
-    out.push(fitFinding(CAMERA_FIT_RULE, 'error', tilt === null ? null : radToDeg(tilt), null, 'deg', [camera.id, s.id], ov.where,
-      `${camera.id}, turned through its uptilt range (${radToDeg(camera.pivot!.minRad).toFixed(0)}–${radToDeg(camera.pivot!.maxRad).toFixed(0)}°), comes within ${mm(lim.clearanceMm, 1)} of ${s.id}${tilt === null ? '' : ` from ${radToDeg(tilt).toFixed(0)}° uptilt`}; move the camera (camera.forwardOffsetMm, camera.pivotHeightMm) or narrow the tilt range`));
+    if (sideIds.has(s.id) || s.id.startsWith('camera pivot ') || !boxesMeet(all, s)) continue;
+    for (let k = 0; k < poses.length; k++) {
+      const ov = prismOverlap(poses[k], s);
+      if (!ov) continue;
+      const p = camera.pivot!;
+      const n = Math.max(1, poses.length / perPose - 1);
+      const tilt = p.minRad + ((p.maxRad - p.minRad) * Math.floor(k / perPose)) / n;
+      out.push(fitFinding(CAMERA_FIT_RULE, 'error', radToDeg(tilt), null, 'deg', [camera.id, s.id], ov.where,
+        `${camera.id}, turned through its uptilt range (${radToDeg(p.minRad).toFixed(0)}–${radToDeg(p.maxRad).toFixed(0)}°), comes within ${mm(lim.clearanceMm, 1)} of ${s.id} from ${radToDeg(tilt).toFixed(1)}° uptilt; move the camera (camera.forwardOffsetMm, camera.pivotHeightMm) or narrow the tilt range`));
+      break;
+    }
   }
   return out;
 }
 
-/** The prism grown by a clearance (region offset, extent along the axis widened). */
-function grow(p: Prism, byMm: number): Prism {
-  if (byMm <= 0) return p;
-  const paths = inflatePathsD(p.paths, byMm, JoinType.Round, EndType.Polygon, 2, 4);
-  const min = p.min.map((v) => v - byMm) as unknown as Prism['min'];
-  const max = p.max.map((v) => v + byMm) as unknown as Prism['max'];
-  return { ...p, paths, lo: p.lo - byMm, hi: p.hi + byMm, min, max };
+/** The bounds of several prisms (for a first, cheap test). */
+function envelope(ps: readonly Prism[]): Pick<Prism, 'min' | 'max'> {
+  const min = [0, 1, 2].map((i) => Math.min(...ps.map((p) => p.min[i]))) as unknown as Prism['min'];
+  const max = [0, 1, 2].map((i) => Math.max(...ps.map((p) => p.max[i]))) as unknown as Prism['max'];
+  return { min, max };
 }
 
-function firstContactTilt(camera: Component, s: Prism, clearanceMm: number): number | null {
-  const poses = camera.sweep ?? [];
-  const p = camera.pivot!;
-  for (let k = 0; k < poses.length; k++) {
-    const hit = poses[k].some((b) => prismOverlap(grow(boxPrism(camera.id, b, camera.id), clearanceMm), s));
-    if (hit) return p.minRad + ((p.maxRad - p.minRad) * k) / Math.max(1, poses.length - 1);
-  }
-  return null;
-}
+const boxesMeet = (a: Pick<Prism, 'min' | 'max'>, b: Pick<Prism, 'min' | 'max'>): boolean => [0, 1, 2].every((i) => a.min[i] <= b.max[i] && b.min[i] <= a.max[i]);
 
 /**
  * The battery's straps (rule battery-fit). On the top plate a strap runs down one strap slot, under

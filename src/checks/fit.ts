@@ -1,4 +1,4 @@
-import { FillRule, intersectD, unionD, type PathsD } from 'clipper2-ts';
+import { FillRule, intersectD, rectClip, type PathsD } from 'clipper2-ts';
 import type { Assembly, Component, Prop } from '../assembly/types.js';
 import { distanceToLoop, windingNumber } from '../geometry/inside.js';
 import type { Loop, Vec2 } from '../geometry/types.js';
@@ -79,7 +79,7 @@ export function signedPathsDistance(paths: PathsD, p: Vec2): number {
 
 /** The plan footprint of a y-prism within heights [lo, hi]: rectangles over the x ranges its region covers there. */
 function yPrismPlanFootprint(s: Prism, lo: number, hi: number): PathsD {
-  const clipped = intersectD(s.paths, [[{ x: s.min[0] - 1, y: lo }, { x: s.max[0] + 1, y: lo }, { x: s.max[0] + 1, y: hi }, { x: s.min[0] - 1, y: hi }]], FillRule.NonZero, 6);
+  const clipped = rectClip({ left: s.min[0] - 1, top: lo, right: s.max[0] + 1, bottom: hi }, s.paths, 6);
   return clipped.map((path) => {
     const xs = path.map((q) => q.x);
     const x0 = Math.min(...xs);
@@ -102,9 +102,10 @@ export function propSweepFindings(a: Assembly, o: CheckOptions, rule: string, pr
   const lim = o.limits['prop-clearance'];
   const out: Finding[] = [];
   const camera = a.components.find((c) => c.kind === 'camera');
-  const obstacles = [...prisms, ...(camera ? [cameraSweptPrism(camera)] : [])];
+  const obstacles = prisms;
   const bottom = prisms.find((p) => p.id === 'bottom-plate');
   const top = prisms.find((p) => p.id === 'top-plate');
+  const sandwich = bottom && top ? intersectD([bottom.paths[0]], [top.paths[0]], FillRule.NonZero, 6) : [];
   for (const prop of a.props) {
     const [zLo, zHi] = band(prop);
     const c: Vec2 = [prop.centreMm[0], prop.centreMm[1]];
@@ -112,11 +113,13 @@ export function propSweepFindings(a: Assembly, o: CheckOptions, rule: string, pr
     const name = `prop ${prop.site}`;
     for (const s of obstacles) {
       if (s.owner === prop.site || (s.kind === 'head' && s.id.startsWith(`motor ${prop.site} `))) continue;
+      // Nothing within reach in plan: neither an error nor a plate under the disc.
+      if (planBoxGap(c, R, s) >= Math.max(lim.minPartClearanceMm, 0) + 1e-9) continue;
       const lo = s.axis === 'z' ? s.lo : s.min[2];
       const hi = s.axis === 'z' ? s.hi : s.max[2];
       const dz = Math.min(hi, zHi) - Math.max(lo, zLo);
       if (dz > CONTACT_MM) {
-        const gap = s.axis === 'z' ? signedRegionDistance(s.loops, c) - R : signedPathsDistance(yPrismPlanFootprint(s, zLo, zHi), c) - R;
+        const gap = s.axis === 'z' ? materialDistance(s, c) - R : signedPathsDistance(yPrismPlanFootprint(s, zLo, zHi), c) - R;
         if (gap < lim.minPartClearanceMm) {
           const where = towards(c, R, s);
           out.push(fitFinding(rule, 'error', gap, lim.minPartClearanceMm, 'mm', [name, s.id], [where[0], where[1], prop.centreMm[2]],
@@ -126,7 +129,7 @@ export function propSweepFindings(a: Assembly, o: CheckOptions, rule: string, pr
       }
       if (s.kind !== 'plate' || s.axis !== 'z') continue;
       const gapZ = lo >= zHi ? lo - zHi : zLo - hi;
-      const reach = -(signedRegionDistance(s.loops, c) - R);
+      const reach = -(materialDistance(s, c) - R);
       if (reach > 0 && gapZ < lim.maxVerticalGapMm && !(bottom && top && (s === bottom || s === top) && between(bottom, top, zLo, zHi))) {
         const where = towards(c, R, s);
         out.push(fitFinding(rule, 'warning', -reach, 0, 'mm', [name, s.id], [where[0], where[1], prop.centreMm[2]],
@@ -134,7 +137,6 @@ export function propSweepFindings(a: Assembly, o: CheckOptions, rule: string, pr
       }
     }
     if (bottom && top && between(bottom, top, zLo, zHi)) {
-      const sandwich = intersectD(bottom.paths, top.paths, FillRule.NonZero, 6);
       const gap = signedPathsDistance(sandwich, c) - R;
       if (gap < lim.minPartClearanceMm) {
         const where = towards(c, R, bottom);
@@ -142,9 +144,27 @@ export function propSweepFindings(a: Assembly, o: CheckOptions, rule: string, pr
           `${name} disc sweeps between the bottom plate and the top plate (${gap < 0 ? `${mm(-gap)} into` : `${mm(gap)} from`} the space between them, where the stack and wiring are); keep ${mm(lim.minPartClearanceMm)} outside it: lengthen the arms or use smaller props`));
       }
     }
+    if (camera) out.push(...cameraVsProp(camera, prop, c, R, lim.minPartClearanceMm, rule));
     for (const c2 of a.components.filter((k) => k.kind === 'antenna')) out.push(...antennaVsProp(c2, prop, lim.minPartClearanceMm, rule));
   }
   return out;
+}
+
+/** Plan gap between the disc's bounding square and the prism's bounds (a lower bound of the true gap). mm. */
+function planBoxGap(c: Vec2, R: number, s: Prism): number {
+  const dx = Math.max(s.min[0] - (c[0] + R), c[0] - R - s.max[0], 0);
+  const dy = Math.max(s.min[1] - (c[1] + R), c[1] - R - s.max[1], 0);
+  return Math.hypot(dx, dy);
+}
+
+/**
+ * Signed plan distance from a point to a z-prism's material: from outside the outline the outline
+ * is the nearest material (holes lie inside it), so only inside does every loop count.
+ */
+function materialDistance(s: Prism, c: Vec2): number {
+  const outline = s.loops[0];
+  if (windingNumber(outline, c) === 0) return distanceToLoop(outline, c);
+  return signedRegionDistance(s.loops, c);
 }
 
 const between = (bottom: Prism, top: Prism, zLo: number, zHi: number): boolean => bottom.hi <= zLo + CONTACT_MM && top.lo >= zHi - CONTACT_MM;
@@ -155,6 +175,27 @@ function towards(c: Vec2, R: number, s: Prism): Vec2 {
   const ty = (s.min[1] + s.max[1]) / 2 - c[1];
   const l = Math.hypot(tx, ty) || 1;
   return [c[0] + (R * tx) / l, c[1] + (R * ty) / l];
+}
+
+/** The camera swept through its tilt range against a prop's band: the least plan gap over the sampled poses, less the sweep's sagitta. */
+function cameraVsProp(camera: Component, prop: Prop, c: Vec2, R: number, minMm: number, rule: string): Finding[] {
+  const [zLo, zHi] = band(prop);
+  let worst: { gap: number; pose: Prism } | null = null;
+  const poses = cameraPosePrisms(camera);
+  const reach = { min: [Math.min(...poses.map((p) => p.min[0])), Math.min(...poses.map((p) => p.min[1])), 0], max: [Math.max(...poses.map((p) => p.max[0])), Math.max(...poses.map((p) => p.max[1])), 0] } as unknown as Prism;
+  if (planBoxGap(c, R, reach) > minMm + 1) return [];
+  for (const pose of poses) {
+    if (Math.min(pose.max[2], zHi) - Math.max(pose.min[2], zLo) <= CONTACT_MM || planBoxGap(c, R, pose) > minMm + 1) continue;
+    const footprint = yPrismPlanFootprint(pose, zLo, zHi);
+    if (!footprint.length) continue;
+    const gap = signedPathsDistance(footprint, c) - R - cameraSagittaMm(camera);
+    if (!worst || gap < worst.gap) worst = { gap, pose };
+  }
+  if (!worst || worst.gap >= minMm) return [];
+  const name = `prop ${prop.site}`;
+  const where = towards(c, R, worst.pose);
+  return [fitFinding(rule, 'error', worst.gap, minMm, 'mm', [name, camera.id], [where[0], where[1], prop.centreMm[2]],
+    `${name} disc ${worst.gap < 0 ? `overlaps ${camera.id} by ${mm(-worst.gap)}` : `passes ${mm(worst.gap)} from ${camera.id}`} somewhere in its tilt range; keep ${mm(minMm)}: move the camera back (camera.forwardOffsetMm) or lengthen the arms`)];
 }
 
 /** An antenna (a rod of its diameter) against a prop's band: plan distance of the rod's piece inside the band heights. */
@@ -189,19 +230,35 @@ function antennaVsProp(ant: Component, prop: Prop, minMm: number, rule: string):
     `prop ${prop.site} disc ${gap < 0 ? `crosses ${ant.id} by ${mm(-gap)}` : `passes ${mm(gap)} from ${ant.id}`}; keep ${mm(minMm)}: turn or shorten the antenna (${ant.sourcePath})`)];
 }
 
-/** The camera's body and lens swept through the whole tilt range, as one y-prism (union of the sampled poses). */
-export function cameraSweptPrism(camera: Component): Prism {
-  const poses = (camera.sweep ?? [camera.boxes]).flatMap((boxes) => boxes.map((b) => boxPrism(camera.id, b, camera.id)));
-  const union = unionD(poses.flatMap((p) => p.paths), [], FillRule.NonZero, 6);
-  const lo = Math.min(...poses.map((p) => p.lo));
-  const hi = Math.max(...poses.map((p) => p.hi));
-  let [x0, z0, x1, z1] = [Infinity, Infinity, -Infinity, -Infinity];
-  for (const p of poses) {
-    x0 = Math.min(x0, p.min[0]);
-    z0 = Math.min(z0, p.min[2]);
-    x1 = Math.max(x1, p.max[0]);
-    z1 = Math.max(z1, p.max[2]);
-  }
-  return { id: camera.id, kind: 'component', axis: 'y', loops: [], paths: union, lo, hi, min: [x0, lo, z0], max: [x1, hi, z1], owner: camera.id };
+const poseCache = new WeakMap<Component, Map<number, readonly Prism[]>>();
+
+/**
+ * The camera's body and lens at every sampled uptilt, as y-prisms (per pose its boxes in order),
+ * min to max tilt, each box grown by `growMm` on every side (a box grown square-cornered: at least
+ * `growMm` of clearance everywhere).
+ */
+export function cameraPosePrisms(camera: Component, growMm = 0): readonly Prism[] {
+  const byGrow = poseCache.get(camera) ?? new Map<number, readonly Prism[]>();
+  poseCache.set(camera, byGrow);
+  const hit = byGrow.get(growMm);
+  if (hit) return hit;
+  const poses = (camera.sweep ?? [camera.boxes]).flatMap((boxes) =>
+    boxes.map((b) => boxPrism(camera.id, { ...b, halfSizeMm: [b.halfSizeMm[0] + growMm, b.halfSizeMm[1] + growMm, b.halfSizeMm[2] + growMm] }, camera.id, 'y')),
+  );
+  byGrow.set(growMm, poses);
+  return poses;
 }
 
+/** How far the swept camera strays outside its sampled poses: r (1 − cos(step / 2)) at its farthest corner. mm. */
+export function cameraSagittaMm(camera: Component): number {
+  const p = camera.pivot;
+  const n = camera.sweep?.length ?? 1;
+  if (!p || n < 2) return 0;
+  const step = (p.maxRad - p.minRad) / (n - 1);
+  let r = 0;
+  for (const b of camera.boxes) {
+    // Triangle inequality: centre distance plus half the diagonal bounds every corner.
+    r = Math.max(r, Math.hypot(b.centreMm[0] - p.atMm[0], b.centreMm[2] - p.atMm[2]) + Math.hypot(b.halfSizeMm[0], b.halfSizeMm[2]));
+  }
+  return r * (1 - Math.cos(step / 2));
+}

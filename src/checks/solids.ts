@@ -1,7 +1,7 @@
-import { FillRule, areaPathsD, intersectD, type PathsD } from 'clipper2-ts';
+import { FillRule, areaPathsD, intersectD, rectClip, type PathsD } from 'clipper2-ts';
 import type { Assembly, BoltedJoint, Component, OrientedBox, PlacedPlate, Standoff, Vec3 } from '../assembly/types.js';
 import { jointStandsProud } from '../assembly/joints.js';
-import { flattenLoop, transformLoop } from '../geometry/loop.js';
+import { flattenLoop, loopBBox, transformLoop } from '../geometry/loop.js';
 import { circle, polygon } from '../geometry/primitives.js';
 import type { Loop, Vec2 } from '../geometry/types.js';
 
@@ -16,7 +16,7 @@ export type Prism = Readonly<{
   id: string;
   kind: 'plate' | 'standoff' | 'spacer' | 'head' | 'nut' | 'motor' | 'component';
   axis: 'z' | 'y';
-  /** Exact loops: outlines counter-clockwise, holes clockwise (plan for z, x–z for y). */
+  /** Exact loops: the outline first (counter-clockwise), then any holes (plan for z, x–z for y); plates keep only their outline here. */
   loops: readonly Loop[];
   paths: PathsD;
   /** Extent along the axis. mm. */
@@ -29,27 +29,34 @@ export type Prism = Readonly<{
   owner?: string;
 }>;
 
-/** Flattening of arcs for overlap areas; rule margins are kept well above it. mm. */
-export const FIT_CHORD_MM = 0.01;
+/** Flattening of plate arcs for overlap areas and plan gaps; rule margins (0.5 mm and up) are kept ten times above it. mm. */
+export const FIT_CHORD_MM = 0.05;
+/** Flattening of the small round solids (heads, nuts, standoffs, motors): 0.25 % of a 3 mm head's area. mm. */
+export const SMALL_CHORD_MM = 0.005;
 /** Faces closer than this along the axis touch (intended contact), they do not intersect. mm. */
 export const CONTACT_MM = 0.01;
 /** Overlap areas below this are contact along an edge, not interference. mm². */
 export const OVERLAP_AREA_MM2 = 0.05;
 
-const toPaths = (loops: readonly Loop[]): PathsD => loops.map((l) => flattenLoop(l, FIT_CHORD_MM).map(([x, y]) => ({ x, y })));
+const toPaths = (loops: readonly Loop[], chordMm = SMALL_CHORD_MM): PathsD => loops.map((l) => flattenLoop(l, chordMm).map(([x, y]) => ({ x, y })));
 
-function prism(id: string, kind: Prism['kind'], axis: 'z' | 'y', loops: readonly Loop[], lo: number, hi: number, owner?: string): Prism {
-  const paths = toPaths(loops);
-  let [a0, b0, a1, b1] = [Infinity, Infinity, -Infinity, -Infinity];
-  for (const p of paths) for (const q of p) {
-    a0 = Math.min(a0, q.x);
-    b0 = Math.min(b0, q.y);
-    a1 = Math.max(a1, q.x);
-    b1 = Math.max(b1, q.y);
-  }
+const partPaths = new WeakMap<PlacedPlate['part'], PathsD>();
+
+/**
+ * A prism whose bounds come from its exact outline (cheap) and whose flattened paths are made only
+ * when an overlap test needs them (most pairs are told apart by their bounds).
+ */
+function prism(id: string, kind: Prism['kind'], axis: 'z' | 'y', loops: readonly Loop[], lo: number, hi: number, owner?: string, given?: () => PathsD): Prism {
+  const [a0, b0, a1, b1] = loopBBox(loops[0]);
   const min: Vec3 = axis === 'z' ? [a0, b0, lo] : [a0, lo, b0];
   const max: Vec3 = axis === 'z' ? [a1, b1, hi] : [a1, hi, b1];
-  return { id, kind, axis, loops, paths, lo, hi, min, max, ...(owner ? { owner } : {}) };
+  let cache: PathsD | null = null;
+  const out = { id, kind, axis, loops, lo, hi, min, max, ...(owner ? { owner } : {}) };
+  Object.defineProperty(out, 'paths', {
+    enumerable: true,
+    get: (): PathsD => (cache ??= given ? given() : toPaths(loops)),
+  });
+  return out as Prism;
 }
 
 /** A regular hexagon of width across flats s about c, corners on the x axis (flats facing ±y). */
@@ -60,15 +67,26 @@ export function hexagon(c: Vec2, s: number): Loop {
 
 /** The plate copy as a prism (outline and holes; vertical plates in x–z). */
 export function platePrism(p: PlacedPlate): Prism {
+  // Flatten each part once (when first needed), then move the points of every copy.
+  const flatOf = (): PathsD => {
+    let f = partPaths.get(p.part);
+    if (!f) {
+      f = toPaths([p.part.outline, ...p.part.features.map((x) => x.loop)], FIT_CHORD_MM);
+      partPaths.set(p.part, f);
+    }
+    return f;
+  };
+  const pl = p.placement;
   if (p.planOutline) {
-    const pl = p.placement;
-    const holes = p.part.features.map((f) => f.loop).map((l) => transformed(l, pl));
-    return prism(p.id, 'plate', 'z', [p.planOutline, ...holes], p.zLowMm, p.zLowMm + p.thicknessMm);
+    const c = Math.cos(pl.rotateRad);
+    const s = Math.sin(pl.rotateRad);
+    const m = pl.mirrorY ? -1 : 1;
+    const moved = () => flatOf().map((path) => path.map((q) => ({ x: c * q.x - s * m * q.y + pl.translateMm[0], y: s * q.x + c * m * q.y + pl.translateMm[1] })));
+    return prism(p.id, 'plate', 'z', [p.planOutline], p.zLowMm, p.zLowMm + p.thicknessMm, undefined, moved);
   }
-  const dx = p.placement.translateMm[0];
-  const dz = p.placement.zMm;
-  const shift = (l: Loop): Loop => transformed(l, { rotateRad: 0, translateMm: [dx, dz], mirrorY: false });
-  return prism(p.id, 'plate', 'y', [shift(p.part.outline), ...p.part.features.map((f) => shift(f.loop))], p.bounds.minMm[1], p.bounds.maxMm[1]);
+  const moved = () => flatOf().map((path) => path.map((q) => ({ x: q.x + pl.translateMm[0], y: q.y + pl.zMm })));
+  const outline = transformed(p.part.outline, { rotateRad: 0, translateMm: [pl.translateMm[0], pl.zMm], mirrorY: false });
+  return prism(p.id, 'plate', 'y', [outline], p.bounds.minMm[1], p.bounds.maxMm[1], undefined, moved);
 }
 
 /** The loop moved by a placement's plan transform (mirror, rotate, translate). */
@@ -102,15 +120,24 @@ export function jointPrisms(j: BoltedJoint): Prism[] {
     const far = axisY ? j.nutAtMm[1] : j.nutAtMm[2];
     const [lo, hi] = dir > 0 ? [far, far + j.nut.heightMm] : [far - j.nut.heightMm, far];
     out.push(prism(`${j.id} nut`, 'nut', axisY ? 'y' : 'z', [hexagon(centre, j.nut.acrossFlatsMm)], lo, hi, j.id));
+    if (j.washer) {
+      const h = j.washer.thicknessMm;
+      const [wlo, whi] = dir > 0 ? [far - h, far] : [far, far + h];
+      out.push(prism(`${j.id} washer`, 'nut', axisY ? 'y' : 'z', [circle(centre, j.washer.outerMm / 2)], wlo, whi, j.id));
+    }
   }
   return out;
 }
 
-/** An axis-aligned component box, or a box turned about y (the camera), as a prism. */
-export function boxPrism(id: string, b: OrientedBox, owner: string): Prism {
+/**
+ * An axis-aligned component box (a z-prism), or a box whose width runs along y and which is turned
+ * about y (the camera: `axis` 'y'), as a prism.
+ */
+export function boxPrism(id: string, b: OrientedBox, owner: string, axis: 'z' | 'y' = 'z'): Prism {
   const [f, s, u] = b.axes;
   const h = b.halfSizeMm;
-  if (Math.abs(s[1]) > 1 - 1e-12 && Math.abs(f[1]) < 1e-12 && Math.abs(u[1]) < 1e-12 && Math.abs(f[2]) > 1e-12) {
+  if (axis === 'y') {
+    if (!(Math.abs(s[1]) > 1 - 1e-12 && Math.abs(f[1]) < 1e-12 && Math.abs(u[1]) < 1e-12)) throw new Error(`box ${id} is not turned about y`);
     // Turned about y: a rectangle in x–z.
     const c: Vec2 = [b.centreMm[0], b.centreMm[2]];
     const corners = [[-1, -1], [1, -1], [1, 1], [-1, 1]].map(([a, k]) => [c[0] + a * h[0] * f[0] + k * h[2] * u[0], c[1] + a * h[0] * f[2] + k * h[2] * u[2]] as Vec2);
@@ -141,7 +168,7 @@ export function motorPrism(m: Assembly['motors'][number]): Prism {
 /** The component's boxes as prisms (a multi-box component gets "id body", "id lens"). */
 export function componentPrisms(c: Component): Prism[] {
   const names = c.kind === 'camera' ? ['body', 'lens'] : [];
-  return c.boxes.map((b, k) => boxPrism(c.boxes.length > 1 ? `${c.id} ${names[k] ?? k + 1}` : c.id, b, c.id));
+  return c.boxes.map((b, k) => boxPrism(c.boxes.length > 1 ? `${c.id} ${names[k] ?? k + 1}` : c.id, b, c.id, c.kind === 'camera' ? 'y' : 'z'));
 }
 
 /** Every solid of the assembly except props, antennas and the camera (checked through its sweep). */
@@ -185,23 +212,37 @@ export function prismOverlap(a: Prism, b: Prism): Overlap | null {
   return crossedOverlap(z, y);
 }
 
-/** Strip width for crossed prisms. mm. */
+/** Strip width for crossed prisms (at most MAX_STRIPS strips). mm. */
 export const STRIP_MM = 0.1;
+const MAX_STRIPS = 200;
 
 function crossedOverlap(z: Prism, y: Prism): Overlap | null {
   const x0 = Math.max(z.min[0], y.min[0]);
   const x1 = Math.min(z.max[0], y.max[0]);
   if (x1 - x0 <= CONTACT_MM) return null;
+  // Each region cut to the other's slab (rectangle clips are cheap), then compared at the same x.
+  // The y-prism's region is small (side plates, spacers, camera): clip it first and stop when it
+  // only touches the z-prism's slab.
+  const yc = rectClip({ left: x0, top: z.lo, right: x1, bottom: z.hi }, y.paths, 6);
+  if (!yc.length || areaPathsD(yc) <= OVERLAP_AREA_MM2) return null;
+  const zc = rectClip({ left: x0, top: y.lo, right: x1, bottom: y.hi }, z.paths, 6);
+  if (!zc.length || areaPathsD(zc) <= OVERLAP_AREA_MM2) return null;
+  const span = (ps: PathsD): [number, number] => [Math.min(...ps.flatMap((p) => p.map((q) => q.x))), Math.max(...ps.flatMap((p) => p.map((q) => q.x)))];
+  const [za, zb] = span(zc);
+  const [ya, yb] = span(yc);
+  const a = Math.max(za, ya);
+  const b = Math.min(zb, yb);
+  if (b - a <= CONTACT_MM) return null;
   let vol = 0;
   let sx = 0;
   let sy = 0;
   let sz = 0;
-  const n = Math.max(1, Math.ceil((x1 - x0) / STRIP_MM));
-  const h = (x1 - x0) / n;
+  const n = Math.min(MAX_STRIPS, Math.max(1, Math.ceil((b - a) / STRIP_MM)));
+  const h = (b - a) / n;
   for (let k = 0; k < n; k++) {
-    const x = x0 + (k + 0.5) * h;
-    const ys = chordWithin(z.paths, x, y.lo, y.hi);
-    const zs = chordWithin(y.paths, x, z.lo, z.hi);
+    const x = a + (k + 0.5) * h;
+    const ys = chordWithin(zc, x, y.lo, y.hi);
+    const zs = chordWithin(yc, x, z.lo, z.hi);
     const v = ys.length * zs.length * h;
     if (v <= 0) continue;
     vol += v;

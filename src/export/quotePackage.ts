@@ -1,3 +1,4 @@
+import type { HardwareList } from '../assembly/types.js';
 import type { Part } from '../geometry/part.js';
 import { drawingSet, layoutDrawing, quoteReport, type Quote } from '../quote/index.js';
 import { placedPartsToDxf } from './dxf.js';
@@ -17,6 +18,8 @@ export type QuotePackageMeta = Readonly<{
   generalTolerance?: string;
   /** Sheet DXFs as R2000 (LWPOLYLINE) instead of R12. */
   r2000?: boolean;
+  /** The frame's hardware, listed on the summary sheet when given. */
+  hardware?: HardwareList;
 }>;
 
 export const DEFAULT_GENERAL_TOLERANCE = 'ISO 2768-m unless stated';
@@ -32,7 +35,7 @@ const pad = (n: number): string => String(n).padStart(2, '0');
  */
 export async function quotePackage(parts: readonly Part[], quote: Quote, meta: QuotePackageMeta): Promise<{ report: ReturnType<typeof quoteReport>; files: PackageFile[] }> {
   const head = { design: meta.design, revision: meta.revision, date: meta.date, checks: meta.checks };
-  const set = drawingSet(parts, quote, { ...head, generalTolerance: meta.generalTolerance ?? DEFAULT_GENERAL_TOLERANCE });
+  const set = drawingSet(parts, quote, { ...head, generalTolerance: meta.generalTolerance ?? DEFAULT_GENERAL_TOLERANCE, ...(meta.hardware ? { hardware: meta.hardware } : {}) });
   const report = quoteReport(quote, head);
   const files: PackageFile[] = [{ name: 'quote.json', data: `${JSON.stringify(report, null, 2)}\n` }];
   const sheets = layoutDrawing(set);

@@ -13,6 +13,7 @@ import { pathText } from '../variant/changes.js';
 import { VariantRequestError } from '../variant/errors.js';
 import { makeVariant } from '../variant/variant.js';
 import { zipStore } from '../export/zip.js';
+import { hardwareList } from '../assembly/hardware.js';
 import type { ModesSummary } from './modesSummary.js';
 import { errorBody, send, sendJson, type Handler } from './server.js';
 import type { LiveSession } from './session.js';
@@ -105,8 +106,9 @@ export function liveRoutes(session: LiveSession, shop: ShopProfile): { routes: R
       if (quantity === null) return sendJson(res, 400, errorBody('qty must be a whole number of frames from 1 to 1000', 'qty'));
       try {
         const quote = quoteParts(built.frame.parts, { quantity, shop, toolDiameterMm: shop.toolDiameterMm ?? built.design.cutting.toolDiameterMm });
-        const checks = checkFrame(built.frame, { toolDiameterMm: quote.toolDiameterMm }).summary;
-        const pkg = await quotePackage(built.frame.parts, quote, { design: built.design.name, revision: built.design.revision, date: null, checks });
+        const assembly = session.evaluation.assembly!;
+        const checks = checkFrame(built.frame, { toolDiameterMm: quote.toolDiameterMm }, assembly).summary;
+        const pkg = await quotePackage(built.frame.parts, quote, { design: built.design.name, revision: built.design.revision, date: null, checks, hardware: hardwareList(assembly, built.design) });
         const pdf = pkg.files.find((f) => f.name === 'drawing.pdf')!;
         attachment(res, 'application/pdf', `${built.design.name}-drawing.pdf`, pdf.data);
       } catch (e) {

@@ -75,7 +75,7 @@ async function runDesignCheck(path: string, opts: CheckCliOptions): Promise<Chec
   const input = await loadCheckInput(path);
   // Limits are judged before the (slower) geometry is built, so bad input fails fast.
   const o = await mergedOptions(input.design, opts);
-  const [{ buildFrame }, { checkFrame, formatCheckReport, relieveFrame }, { buildAssembly, massBalance, massBalanceSummary, massBalanceText }] = await Promise.all([
+  const [{ buildFrame }, { checkFrame, formatCheckReport, relieveFrame }, { buildAssembly, massBalance, massBalanceText }] = await Promise.all([
     import('../../geometry/index.js'),
     import('../../checks/index.js'),
     import('../../assembly/index.js'),
@@ -95,7 +95,7 @@ async function runDesignCheck(path: string, opts: CheckCliOptions): Promise<Chec
     writeAllAtomically(files, opts.annotate);
   }
   const heading = `framewright check: ${frame.name} rev ${frame.revision} (router bit ${o.toolDiameterMm.toFixed(3)} mm)`;
-  return { report, json: { ...report, massBalance: massBalanceSummary(assembly, balance) }, text: `${reliefNote}${formatCheckReport(report, heading)}${massBalanceText(balance)}\n` };
+  return { report, json: report, text: `${reliefNote}${formatCheckReport(report, heading)}${massBalanceText(balance)}\n` };
 }
 
 /** Check one input: a design file, `-` for a design on standard input, or a DXF drawing. */

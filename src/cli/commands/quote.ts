@@ -66,12 +66,13 @@ export function registerQuote(program: Command): void {
       const design = await readDesign(designPath);
       const shopPath = opts.shop ?? DEFAULT_SHOP;
       const shopText = readText(shopPath, 'a shop profile (YAML)');
-      const [{ parseShopText }, { buildFrame }, { checkFrame }, { quoteParts }, { DEFAULT_GENERAL_TOLERANCE, quotePackage }] = await Promise.all([
+      const [{ parseShopText }, { buildFrame }, { checkFrame }, { quoteParts }, { DEFAULT_GENERAL_TOLERANCE, quotePackage }, { buildAssembly, hardwareList }] = await Promise.all([
         import('../../params/shop.js'),
         import('../../geometry/index.js'),
         import('../../checks/index.js'),
         import('../../quote/index.js'),
         import('../../export/quotePackage.js'),
+        import('../../assembly/index.js'),
       ]);
       const shop = parseShopText(shopText, shopPath);
       const frame = buildFrame(design);
@@ -88,12 +89,14 @@ export function registerQuote(program: Command): void {
       });
       bar?.clear();
       // The drawing carries the design-rule summary for the tool this quote uses.
-      const checks = checkFrame(frame, { toolDiameterMm: quote.toolDiameterMm }).summary;
+      const assembly = buildAssembly(design, frame);
+      const checks = checkFrame(frame, { toolDiameterMm: quote.toolDiameterMm }, assembly).summary;
       const { report, files: pkg } = await quotePackage(frame.parts, quote, {
         design: design.name,
         revision: design.revision,
         date,
         checks,
+        hardware: hardwareList(assembly, design),
         generalTolerance: opts.tolerance ?? DEFAULT_GENERAL_TOLERANCE,
         ...(opts.r2000 ? { r2000: true } : {}),
       });
