@@ -1,7 +1,7 @@
-import { readFileSync, watch, type FSWatcher } from 'node:fs';
+import { watch, type FSWatcher } from 'node:fs';
 import { basename, dirname } from 'node:path';
 import type { PartCheckCache } from '../checks/report.js';
-import { writeAllAtomically } from '../cli/io.js';
+import { readText, writeAllAtomically } from '../cli/io.js';
 import { editDesignText, type Change } from '../variant/changes.js';
 import { FieldTextError, schemaAt, valueFromText, type SchemaNode } from './form.js';
 import { convertLayoutKind } from './layoutKind.js';
@@ -56,9 +56,9 @@ export class LiveSession {
     readonly schema: SchemaNode,
   ) {}
 
-  /** Read the file and build the first model. Throws the read error (the CLI reports it). */
+  /** Read the file (bounded, as every command reads a design) and build the first model. Throws UsageError. */
   load(): LiveModel {
-    this.setText(readFileSync(this.realPath, 'utf8'));
+    this.setText(readText(this.realPath, 'a design file (YAML or JSON)'));
     return this.model;
   }
 
@@ -142,9 +142,9 @@ export class LiveSession {
   reloadFromDisk(): boolean {
     let text: string;
     try {
-      text = readFileSync(this.realPath, 'utf8');
+      text = readText(this.realPath, 'a design file (YAML or JSON)');
     } catch {
-      return false; // Mid-save (renamed away) or deleted: keep the last model; a later event reloads.
+      return false; // Mid-save (renamed away), deleted, or not a design now: keep the last model; a later save reloads.
     }
     if (text === this.text) return false;
     this.setText(text);
