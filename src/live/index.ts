@@ -1,7 +1,7 @@
 import { existsSync, readFileSync, realpathSync, statSync } from 'node:fs';
 import { relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { UsageError } from '../cli/io.js';
+import { readText, UsageError } from '../cli/io.js';
 import { designJsonSchema } from '../params/jsonSchema.js';
 import { parseShopText } from '../params/shop.js';
 import type { SchemaNode } from './form.js';
@@ -50,7 +50,7 @@ export async function openLive(o: LiveOptions): Promise<LiveServer & { session: 
     throw new UsageError(`cannot read ${o.designPath}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
   }
   const shopPath = o.shopPath ?? DEFAULT_SHOP;
-  const shop = parseShopText(readFileSync(shopPath, 'utf8'), shopPath);
+  const shop = parseShopText(readText(shopPath, 'a shop profile (YAML)'), shopPath);
   const label = relative(process.cwd(), o.designPath) || o.designPath;
   const session = new LiveSession(real, label.startsWith('..') ? o.designPath : label, designJsonSchema() as SchemaNode);
   session.load();
