@@ -14,7 +14,6 @@ import { partArea, partBBox, partMassG } from '../geometry/metrics.js';
 import { validateDesign, type Design } from '../params/design.js';
 import { DesignError } from '../params/errors.js';
 import { parseYamlText } from '../params/yamlInput.js';
-import { frameMassG } from '../variant/variant.js';
 import { designForm, type FormSection, type SchemaNode } from './form.js';
 import { findingTargets, partView, planView, sideView, type FindingTarget, type SvgView } from './views.js';
 
@@ -154,7 +153,7 @@ function figures(frame: Frame, a: Assembly): Figures {
   const mb = massBalance(a, frame.design);
   const m = mb.massG;
   return {
-    plateMassG: round(frameMassG(frame)),
+    plateMassG: round(m.frame),
     tipGaps: gaps.map((g) => ({ between: `${g.a} / ${g.b}`, gapMm: round(g.gapMm), minMm: frame.design.props.minTipGapMm })),
     wheelbaseMm: round(wheelbaseOf(frame.sites), 1),
     propDiameterMm: round(frame.propDiameterMm, 1),

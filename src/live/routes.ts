@@ -3,16 +3,11 @@ import { Worker } from 'node:worker_threads';
 import { checkFrame } from '../checks/report.js';
 import { buildGate, summaryLine } from '../checks/text.js';
 import { partToDxf } from '../export/dxf.js';
-import { quotePackage } from '../export/quotePackage.js';
 import { partToSvg } from '../export/svgPart.js';
 import { frameAnnotation } from '../checks/annotate.js';
 import type { ShopProfile } from '../params/shop.js';
 import { DesignError } from '../params/errors.js';
-import { quoteParts } from '../quote/quote.js';
-import { pathText } from '../variant/changes.js';
 import { VariantRequestError } from '../variant/errors.js';
-import { makeVariant } from '../variant/variant.js';
-import { zipStore } from '../export/zip.js';
 import { hardwareList } from '../assembly/hardware.js';
 import type { ModesSummary } from './modesSummary.js';
 import { errorBody, send, sendJson, type Handler } from './server.js';
@@ -104,6 +99,8 @@ export function liveRoutes(session: LiveSession, shop: ShopProfile): { routes: R
       if (!built) return;
       const quantity = intParam(url, 'qty', 1, 1000, 1);
       if (quantity === null) return sendJson(res, 400, errorBody('qty must be a whole number of frames from 1 to 1000', 'qty'));
+      // Quoting, nesting and the PDF writer load on the first download, not at start-up.
+      const [{ quoteParts }, { quotePackage }] = await Promise.all([import('../quote/quote.js'), import('../export/quotePackage.js')]);
       try {
         const quote = quoteParts(built.frame.parts, { quantity, shop, toolDiameterMm: shop.toolDiameterMm ?? built.design.cutting.toolDiameterMm });
         const assembly = session.evaluation.assembly!;
@@ -120,7 +117,7 @@ export function liveRoutes(session: LiveSession, shop: ShopProfile): { routes: R
     '/download/cut-files.zip': async (_url, res) => {
       const built = builtOr409(session, res);
       if (!built) return;
-      const [{ buildOutputs }, { assemblyOutputs }] = await Promise.all([import('../cli/commands/build.js'), import('../cli/commands/assemblyFiles.js')]);
+      const [{ buildOutputs }, { assemblyOutputs }, { zipStore }] = await Promise.all([import('../cli/commands/build.js'), import('../cli/commands/assemblyFiles.js'), import('../export/zip.js')]);
       const comment = buildGate(built.report, true).comment;
       const { files } = await buildOutputs(built.frame, '', {}, comment);
       const assembly = session.evaluation.assembly!;
@@ -135,12 +132,13 @@ export function liveRoutes(session: LiveSession, shop: ShopProfile): { routes: R
         sendJson(res, 422, errorBody((e as Error).message));
       }
     },
-    '/api/variant': (url, res) => {
+    '/api/variant': async (url, res) => {
       const built = builtOr409(session, res);
       if (!built) return;
       const props = (url.searchParams.get('props') ?? '').trim();
       const motor = url.searchParams.get('motor') === 'auto' ? 'auto' : undefined;
       if (props === '' || props.length > 20) return sendJson(res, 400, errorBody('give a prop size with a unit, e.g. 7in', 'props'));
+      const [{ makeVariant }, { pathText }] = await Promise.all([import('../variant/variant.js'), import('../variant/changes.js')]);
       try {
         const v = makeVariant(session.text, { props, ...(motor ? { motor } : {}) }, session.label);
         const report = checkFrame(v.frame);
