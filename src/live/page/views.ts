@@ -118,7 +118,6 @@ export class Viewer {
 
   private onDrag(e: PointerEvent): void {
     if (e.button !== 0) return;
-    const start = this.toView(e);
     const startBox = [...this.box] as Box;
     let moved = false;
     const move = (ev: PointerEvent): void => {
@@ -136,7 +135,6 @@ export class Viewer {
       window.removeEventListener('pointermove', move);
       window.removeEventListener('pointerup', up);
     };
-    void start;
     window.addEventListener('pointermove', move);
     window.addEventListener('pointerup', up);
   }
