@@ -93,15 +93,36 @@ export function checkParts(parts: readonly Part[], options: CheckOptions): Check
 }
 
 /**
+ * Part results kept between checks of the same design as it is edited (the live page): a part whose
+ * geometry and options are unchanged is not checked again. Keyed by the part and options as JSON.
+ */
+export type PartCheckCache = Map<string, PartCheck>;
+
+/** Entries a cache keeps: a frame has a handful of distinct parts, a few edits' worth is plenty. */
+const CACHE_ENTRIES = 64;
+
+function checkPartCached(part: Part, o: CheckOptions, cache: PartCheckCache | undefined): PartCheck {
+  if (!cache) return checkPart(part, o);
+  const key = JSON.stringify([part, o]);
+  const hit = cache.get(key);
+  if (hit) return hit;
+  const result = checkPart(part, o);
+  if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value as string);
+  cache.set(key, result);
+  return result;
+}
+
+/**
  * Every rule for a built frame: the part rules for each distinct part plus the frame rules on the
  * assembled frame (prop tip gaps and prop discs against every solid, props in the camera view,
  * interference, stack, camera and battery fit, motor screws). The assembly is built when not given. Options default from the design's `checks` section, its cutting tool
- * and props.minTipGapMm.
+ * and props.minTipGapMm. `cache` (optional) reuses the part results of earlier calls for parts that
+ * have not changed; the report is the same with or without it.
  * @example const report = checkFrame(buildFrame(design)); if (report.summary.errors) ...
  */
-export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}, assembly: Assembly = buildAssembly(frame.design, frame)): CheckReport {
+export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}, assembly: Assembly = buildAssembly(frame.design, frame), cache?: PartCheckCache): CheckReport {
   const o = optionsForDesign(frame.design, options);
-  const results = frame.parts.map((p) => checkPart(p, o));
+  const results = frame.parts.map((p) => checkPartCached(p, o, cache));
   const discs = propDiscs(frame);
   const prisms = assemblyPrisms(assembly);
   const frameFindings = [...propClearanceRule(frame, o, discs, assembly, prisms), ...cameraViewRule(frame, o, discs), ...fitFindings(frame, assembly, o, prisms)];
