@@ -12,7 +12,7 @@ import {
   type CheckOptions,
   type CheckReport,
 } from '../../checks/index.js';
-import { frameFindingsOverlay, markersOverlay } from '../../export/svgFindings.js';
+import { frameFindingsAnnotation, markersAnnotation } from '../../export/svgFindings.js';
 import { partToSvg } from '../../export/svgPart.js';
 import { frameOverviewSvg } from '../../export/svgOverview.js';
 import { buildFrame, type Frame } from '../../geometry/index.js';
@@ -70,10 +70,10 @@ export function mergedOptions(design: Design, opts: CheckCliOptions): CheckOptio
 export function annotatedFiles(frame: Frame, report: CheckReport, dir: string, o: CheckOptions): OutputFile[] {
   const files: OutputFile[] = frame.parts.map((p) => ({
     path: join(dir, `${p.name}.check.svg`),
-    data: partToSvg(p, { marginMm: 4, overlay: markersOverlay(partMarkers(report, p.name)), comment: `${p.name}: numbered markers follow the order of the check report. ${CHECK_CAUTIONS.join(' ')}` }),
+    data: partToSvg(p, { annotation: { ...markersAnnotation(partMarkers(report, p.name)), notes: CHECK_CAUTIONS } }),
   }));
   const a = frameAnnotation(frame, report, o);
-  files.push({ path: join(dir, 'overview.check.svg'), data: frameOverviewSvg(frame, { overlay: frameFindingsOverlay(a), extraBBox: a.bbox }) });
+  files.push({ path: join(dir, 'overview.check.svg'), data: frameOverviewSvg(frame, { annotation: frameFindingsAnnotation(a) }) });
   return files;
 }
 

@@ -1,7 +1,7 @@
 import { existsSync, readFileSync, statSync } from 'node:fs';
 import { basename, join } from 'node:path';
 import { checkOptions, checkParts, formatCheckReport, makeReport, partMarkers, relieveCornersDetailed, type CheckReport } from '../../checks/index.js';
-import { markersOverlay } from '../../export/svgFindings.js';
+import { markersAnnotation } from '../../export/svgFindings.js';
 import { partToSvg } from '../../export/svgPart.js';
 import type { Part } from '../../geometry/index.js';
 import { DxfReadError, importDxf, parseSidecarText, resolveImportSettings, type ImportResult } from '../../import/index.js';
@@ -80,7 +80,7 @@ export function runDxfCheck(path: string, flags: DxfCheckFlags, limitFlags: Reco
   const report: CheckReport = makeReport(design.parts, [...imported.findings, ...design.findings]);
   if (flags.annotate) {
     const dir = flags.annotate;
-    writeAllAtomically(parts.map((p) => ({ path: join(dir, `${p.name}.check.svg`), data: partToSvg(p, { marginMm: 4, overlay: markersOverlay(partMarkers(report, p.name)), comment: `${p.name}: numbered markers follow the order of the check report` }) })));
+    writeAllAtomically(parts.map((p) => ({ path: join(dir, `${p.name}.check.svg`), data: partToSvg(p, { annotation: markersAnnotation(partMarkers(report, p.name)) }) })));
   }
   if (flags.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
   else {

@@ -14,6 +14,7 @@ import {
 } from '../../analysis/index.js';
 import { fmt } from '../../export/format.js';
 import { modeShapeSvg } from '../../export/svgModes.js';
+import { frontWord } from '../../export/svgPart.js';
 import { buildFrame, type Part } from '../../geometry/index.js';
 import { DxfReadError, importDxf, parseSidecarText, resolveImportSettings } from '../../import/index.js';
 import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
@@ -212,6 +213,7 @@ function plotFiles(dir: string, prefix: string, r: FrameModes, parts: ReadonlyMa
           triangles: m.mesh.triangles,
           w,
           loops,
+          ...(part ? { front: frontWord(part) } : {}),
           ...(m.stackAtMm ? { markerMm: m.stackAtMm } : {}),
           ...(inPlane ? { legend: ['', 'still', 'moving'] as const, legendCaption: 'in-plane displacement, relative to the largest' } : {}),
         }),
