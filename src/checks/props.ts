@@ -99,7 +99,7 @@ export function propClearanceRule(frame: Frame, o: CheckOptions, discs: readonly
   for (const g of tipGaps(discs)) {
     if (g.gapMm >= o.minTipGapMm) continue;
     out.push(finding(PROP_RULE, 'error', FRAME_PART, g.gapMm, o.minTipGapMm, 'mm', g.atMm,
-      `prop tips ${g.a} and ${g.b} are ${mm(g.gapMm)} apart, below ${mm(o.minTipGapMm)}; lengthen the arms or use smaller props`));
+      `${g.a} and ${g.b} prop tips: gap ${mm(g.gapMm)} is below ${mm(o.minTipGapMm)}; move the two motors ${mm(o.minTipGapMm - g.gapMm)} further apart (a longer wheelbase) or use smaller props`));
   }
   for (const disc of discs) {
     for (const ob of planObstacles(frame, o)) {
@@ -107,13 +107,13 @@ export function propClearanceRule(frame: Frame, o: CheckOptions, discs: readonly
       const spans = ob.zMinMm <= disc.zMm && disc.zMm <= ob.zMaxMm;
       if (spans && clearance < lim.minPartClearanceMm) {
         out.push(finding(PROP_RULE, 'error', FRAME_PART, clearance, lim.minPartClearanceMm, 'mm', nearestTip(disc, ob.loop),
-          `${disc.id} prop disc ${clearance < 0 ? `overlaps the ${ob.name} by ${mm(-clearance)}` : `passes ${mm(clearance)} from the ${ob.name}`} at prop height ${mm(disc.zMm, 1)}; keep ${mm(lim.minPartClearanceMm)}`));
+          `${disc.id} prop disc and the ${ob.name} at prop height ${mm(disc.zMm, 1)}: clearance ${mm(clearance)} is below ${mm(lim.minPartClearanceMm)}${clearance < 0 ? ' (they overlap)' : ''}; move the ${ob.name} ${mm(lim.minPartClearanceMm - clearance)} away from the prop or lengthen the arms`));
         continue;
       }
       const gapZ = disc.zMm > ob.zMaxMm ? disc.zMm - ob.zMaxMm : ob.zMinMm - disc.zMm;
       if (!spans && clearance < 0 && gapZ < lim.maxVerticalGapMm) {
         out.push(finding(PROP_RULE, 'warning', FRAME_PART, clearance, 0, 'mm', nearestTip(disc, ob.loop),
-          `${disc.id} prop disc reaches ${mm(-clearance)} over the ${ob.name} in plan view, ${mm(gapZ, 1)} ${disc.zMm > ob.zMaxMm ? 'above' : 'below'} it; prop flex or a bent arm may strike it`));
+          `${disc.id} prop disc over the ${ob.name}, ${mm(gapZ, 1)} ${disc.zMm > ob.zMaxMm ? 'above' : 'below'} it (closer than ${mm(lim.maxVerticalGapMm, 1)}): plan clearance ${mm(clearance)} is below ${mm(0)}; trim the ${ob.name} by ${mm(-clearance)} there or lengthen the arms, as prop flex or a bent arm may strike it`));
       }
     }
   }
@@ -159,26 +159,24 @@ export function cameraViewRule(frame: Frame, o: CheckOptions, discs: readonly Pr
   const pose = cameraPose(frame, o);
   const c = frame.design.camera;
   if (!pose || !c || !o.limits['camera-view'].enabled) return [];
-  const out: Finding[] = [];
-  let visible = 0;
-  for (const disc of discs) {
-    const m = discViewMargin(pose, disc);
-    if (m > 0) continue;
-    visible++;
-    out.push(finding(CAMERA_RULE, 'warning', FRAME_PART, -m, 0, 'mm', disc.centerMm,
-      `${disc.id} prop is in the camera view: ${mm(-m)} of its disc lies inside the view in the prop plane (camera at ${pt([pose.eyeMm[0], pose.eyeMm[2]])} x/z, uptilt ${c.uptiltDeg}°)`));
-  }
-  if (visible === 0) return out;
+  const seen = discs.map((disc) => ({ disc, m: discViewMargin(pose, disc) })).filter((x) => x.m <= 0);
+  if (seen.length === 0) return [];
   const worst = (p: CameraPose): number => Math.min(...discs.map((d) => discViewMargin(p, d)));
   const off = smallestHiding((v) => worst(cameraPose(frame, o, v)!), FORWARD_OFFSET_RANGE_MM[0], FORWARD_OFFSET_RANGE_MM[1], 0.5);
   const up = smallestHiding((v) => worst(cameraPose(frame, o, undefined, v)!), c.uptiltMinDeg, c.uptiltMaxDeg, 0.25);
   const down = smallestHiding((v) => worst(cameraPose(frame, o, undefined, -v)!), -c.uptiltMaxDeg, -c.uptiltMinDeg, 0.25);
   const tilts = [up, down === null ? null : -down].filter((x): x is number => x !== null);
   const tilt = tilts.length ? tilts.reduce((a, b) => (Math.abs(a - c.uptiltDeg) <= Math.abs(b - c.uptiltDeg) ? a : b)) : null;
-  const parts = [
-    off === null ? `no camera.forwardOffsetMm up to ${FORWARD_OFFSET_RANGE_MM[1]} mm hides them` : `camera.forwardOffsetMm ≥ ${(Math.ceil(off * 100) / 100).toFixed(2)} mm (set ${c.forwardOffsetMm})`,
-    tilt === null ? `no uptilt in the slot's ${c.uptiltMinDeg}–${c.uptiltMaxDeg}° hides them` : `uptilt ${tilt.toFixed(2)}° (set ${c.uptiltDeg}°)`,
+  // One fix for every visible prop: the nearest camera setting that hides them all.
+  const fixes = [
+    ...(off !== null ? [`move the camera forward to camera.forwardOffsetMm ${(Math.ceil(off * 100) / 100).toFixed(2)} mm (now ${c.forwardOffsetMm} mm)`] : []),
+    ...(tilt !== null ? [`set the uptilt to ${tilt.toFixed(2)}° (now ${c.uptiltDeg}°)`] : []),
   ];
-  out.push(finding(CAMERA_RULE, 'info', FRAME_PART, off, null, 'mm', null, `no prop in view with ${parts.join(', or with ')}`));
-  return out;
+  const fix = fixes.length
+    ? fixes.join(' or ')
+    : `accept props in view or use a narrower lens, since no forward offset up to ${FORWARD_OFFSET_RANGE_MM[1]} mm and no uptilt in the slot's ${c.uptiltMinDeg}–${c.uptiltMaxDeg}° hides them`;
+  const where = `camera at x ${mm(pose.eyeMm[0])}, z ${mm(pose.eyeMm[2])}, uptilt ${c.uptiltDeg}°`;
+  return seen.map(({ disc, m }) =>
+    finding(CAMERA_RULE, 'warning', FRAME_PART, -m, 0, 'mm', disc.centerMm,
+      `${disc.id} prop in the camera view (${where}): ${mm(-m)} of its disc lies inside the view in the prop plane, above the limit ${mm(0)}; ${fix}`));
 }
