@@ -5,6 +5,9 @@ import { frameFindingsAnnotation, markersAnnotation } from '../../src/export/svg
 import { modeShapeSvg } from '../../src/export/svgModes.js';
 import { partModes } from '../../src/analysis/index.js';
 import { DEMO_FILES, demoFrame } from '../helpers/demo.js';
+import { drawingSet, layoutDrawing, quoteParts } from '../../src/quote/index.js';
+import { drawingToSvgs } from '../../src/export/svgDrawing.js';
+import { exampleShop } from '../quote/fixtures.js';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
 import { chromiumTextBoxes, drawnExtent, overlappingTexts } from '../helpers/render.js';
 import { textWidthMm } from '../../src/params/textWidth.js';
@@ -34,6 +37,13 @@ function pictures(): Array<{ name: string; svg: string }> {
     name: 'mote-3 top-plate mode 1',
     svg: modeShapeSvg({ title: 'Mote 3 · top-plate · mode 1', frequencyHz: mode.frequencyHz, description: mode.description, xy: m.mesh.xy, triangles: m.mesh.triangles, w: Float64Array.from({ length: n }, (_, i) => mode.shape[6 * i + 2]), loops: [top.outline, ...top.features.map((f) => f.loop)] }),
   });
+  // The quote drawing's sheets (A4, the same layout as the PDF).
+  for (const file of DEMO_FILES) {
+    const frame = demoFrame(file);
+    const quote = quoteParts(frame.parts, { quantity: 1, shop: exampleShop(), toolDiameterMm: frame.design.cutting.toolDiameterMm });
+    const set = drawingSet(frame.parts, quote, { design: frame.name, revision: frame.revision, date: '2026-12-01', checks: { errors: 0, warnings: 1 } });
+    drawingToSvgs(layoutDrawing(set)).forEach((svg, i) => out.push({ name: `${file} drawing sheet ${i + 1}`, svg }));
+  }
   return out;
 }
 
@@ -95,6 +105,7 @@ describe('pictures in real renderers', () => {
     for (const p of all) {
       expect(p.svg, p.name).not.toMatch(/Helvetica|Arial|Verdana|Segoe/);
       expect(p.svg, p.name).toMatch(/font-family="sans-serif"/);
+      if (/drawing sheet/.test(p.name)) continue; // drawing sheets carry a stated scale, a weave and a front arrow
       expect(p.svg, p.name).toContain('class="front-arrow"');
       expect(p.svg, p.name).toContain('class="scale-bar"');
       expect(p.svg, p.name).toContain('class="legend"');

@@ -8,6 +8,7 @@ import { drawingToPdf } from '../../export/pdfDrawing.js';
 import { drawingToSvgs, sheetLayoutToSvg } from '../../export/svgDrawing.js';
 import { parseShopText } from '../../params/shop.js';
 import { drawingSet, layoutDrawing, quoteParts, quoteReport } from '../../quote/index.js';
+import { drawingFonts } from '../fonts.js';
 import { readDesign, readText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 import { slug } from './build.js';
@@ -94,7 +95,7 @@ export function registerQuote(program: Command): void {
       const report = quoteReport(quote, meta);
       files.push({ path: join(outDir, 'quote.json'), data: `${JSON.stringify(report, null, 2)}\n` });
       const sheets = layoutDrawing(set);
-      files.push({ path: join(outDir, 'drawing.pdf'), data: await drawingToPdf(set, sheets) });
+      files.push({ path: join(outDir, 'drawing.pdf'), data: await drawingToPdf(set, sheets, { fonts: drawingFonts() }) });
       drawingToSvgs(sheets).forEach((svg, i) => files.push({ path: join(outDir, `drawing-${pad(i + 1)}.svg`), data: svg }));
       quote.nesting.sheets.forEach((s, i) => {
         const name = `sheet-${pad(i + 1)}-${s.thicknessMm}mm`;
