@@ -1,8 +1,8 @@
 import { EndType, JoinType, inflatePathsD, type PathsD } from 'clipper2-ts';
 import { asCircle, flattenLoop, reverseLoop } from '../geometry/loop.js';
-import { endOf, tangentAt } from '../geometry/segment.js';
+import { sharpInsideCorners } from '../geometry/relief.js';
+import { endOf } from '../geometry/segment.js';
 import type { Loop, Vec2 } from '../geometry/types.js';
-import { cross, dot } from '../geometry/vec.js';
 import { radToDeg } from '../params/units.js';
 import type { Chord } from './chords.js';
 import { bitText, clearWidthMm, finding, largestBitMm, mid, mm } from './finding.js';
@@ -13,9 +13,6 @@ import type { PartIndex } from './partIndex.js';
 import type { Finding } from './types.js';
 
 export const BIT_RULE = 'bit-reach';
-
-/** A joint turning right by more than this is a sharp inside corner (material on the left). rad. */
-const SHARP_TURN_RAD = 1e-4;
 
 /**
  * Material the cutter leaves in an inside corner below this depth is not reported: a finely
@@ -42,26 +39,6 @@ const VANISH_MARGIN_MM = 10 * VANISH_CHORD_MM;
 
 /** Tolerance when comparing a gap or radius with the tool. mm. */
 const TOOL_TOL_MM = 1e-6;
-
-export type InsideCorner = Readonly<{ contour: number; seg: number; at: Vec2; turnRad: number }>;
-
-/**
- * Sharp inside corners of a loop: joints where the boundary turns right (into the material, which
- * lies on the left). seg is the segment ending at the corner.
- */
-export function sharpInsideCorners(loop: Loop, contour: number): InsideCorner[] {
-  const out: InsideCorner[] = [];
-  for (let k = 0; k < loop.length; k++) {
-    const a = loop[k];
-    const b = loop[(k + 1) % loop.length];
-    if (loop.length === 1) break;
-    const tin = tangentAt(a, 1);
-    const tout = tangentAt(b, 0);
-    const turn = Math.atan2(cross(tin, tout), dot(tin, tout));
-    if (turn < -SHARP_TURN_RAD) out.push({ contour, seg: k, at: endOf(a), turnRad: turn });
-  }
-  return out;
-}
 
 /** Does the void of this inner contour disappear when eroded by the tool radius? */
 export function vanishesForTool(loop: Loop, toolRadiusMm: number): boolean {
@@ -155,7 +132,7 @@ export function bitReachRule(ix: PartIndex, o: CheckOptions, chords: readonly Ch
     for (const k of sharpInsideCorners(c.loop, c.index)) {
       if (cornerLeftoverMm(R, 0, k.turnRad) < CORNER_LEFTOVER_MM) continue;
       out.push(finding(BIT_RULE, 'warning', name, 0, R, 'mm', k.at,
-        `sharp inside corner of the ${c.label} (turns ${Math.abs(radToDeg(k.turnRad)).toFixed(0)}°): radius ${mm(0)} is below the ${mm(R, 3)} tool radius; round it to ${mm(R, 3)}, or cut a corner relief (corner relief option) if a square part must seat there`));
+        `sharp inside corner of the ${c.label} (turns ${Math.abs(radToDeg(k.turnRad)).toFixed(0)}°): radius ${mm(0)} is below the ${mm(R, 3)} tool radius; round it to ${mm(R, 3)}, or cut a corner relief (cutting.cornerRelief, or check --relieve-corners) if a square part must seat there`));
     }
     c.loop.forEach((s) => {
       if (s.kind !== 'arc' || s.sweepRad >= 0 || Math.abs(s.sweepRad) >= 2 * Math.PI - 1e-9) return;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { checkFrame, checkOptions, checkPart, MERGE_DISTANCE_MM, relieveFrame, type Finding } from '../../src/checks/index.js';
-import { buildFrame } from '../../src/geometry/index.js';
+import { checkFrame, checkOptions, checkPart, MERGE_DISTANCE_MM, type Finding } from '../../src/checks/index.js';
+import { buildFrame, relieveFrame } from '../../src/geometry/index.js';
 import { polygon, roundedRect, slot } from '../../src/geometry/primitives.js';
 import { validateDesign } from '../../src/params/index.js';
 import { DEMO_FILES, demoFrame, designWith } from '../helpers/demo.js';

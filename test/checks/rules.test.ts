@@ -12,8 +12,6 @@ import {
   checkPart,
   checkParts,
   heywoodKtn,
-  relieveCorners,
-  relieveCornersDetailed,
 } from '../../src/checks/index.js';
 import { partArea } from '../../src/geometry/metrics.js';
 import { DEMO_FILES, demoFrame } from '../helpers/demo.js';
@@ -120,40 +118,7 @@ describe('bit-reach rule (planted parts)', () => {
   });
 });
 
-describe('corner relief (dogbones)', () => {
-  const hasShapely = requireTool(pythonModuleAvailable('shapely'), 'python3-shapely');
-  const p = testPart(rect(0, 0, 40, 30), [{ shape: rect(10, 10, 25, 16), kind: 'slot' }]);
-  it('adds one relief per sharp corner, each reaching the corner; the re-check has no corner warnings', () => {
-    const r = relieveCornersDetailed(p, 3.175);
-    expect(r.added).toBe(4);
-    const loop = r.part.features[0].loop;
-    expect(loopProblem(loop)).toBeNull();
-    const arcs = loop.filter((s) => s.kind === 'arc');
-    expect(arcs.length).toBe(4);
-    for (const [x, y] of [[10, 10], [10, 16], [25, 10], [25, 16]]) {
-      // The relief disc passes through the drawn corner, so the cutter reaches it.
-      expect(arcs.some((a) => a.kind === 'arc' && Math.abs(dist(a.center, [x, y]) - a.radius) < 1e-9)).toBe(true);
-    }
-    expect(checkParts([r.part], o).findings.filter((f) => f.rule === 'bit-reach')).toEqual([]);
-  });
-  it.runIf(hasShapely)('relieved area equals Shapely’s union of the slot and the four relief discs', () => {
-    const q = relieveCorners(p, 3.175);
-    const r = 3.175 / 2;
-    const s = r / Math.SQRT2;
-    const centres = [[10 + s, 10 + s], [10 + s, 16 - s], [25 - s, 10 + s], [25 - s, 16 - s]] as const;
-    const slotArea = -(partArea(q) - partArea(testPart(rect(0, 0, 40, 30), [])));
-    const ref = runPythonJson<{ unionArea: number }>(join(import.meta.dirname, '..', 'reference', 'shapely_polygons.py'), {
-      polygons: [],
-      union: [fine(rect(10, 10, 25, 16)), ...centres.map((c) => flattenLoop(circle(c, r), 1e-6))],
-    });
-    expect(Math.abs(slotArea - ref.unionArea)).toBeLessThan(1e-3);
-  });
-  it('leaves round holes and outlines alone', () => {
-    const round = testPart(rect(0, 0, 40, 30), [roundHole([20, 15], 5)]);
-    expect(relieveCorners(round, 3.175)).toBe(round);
-    expect(() => relieveCorners(round, 0)).toThrow(RangeError);
-  });
-});
+// Corner reliefs: test/geometry/relief.test.ts.
 
 describe('weave-direction rule', () => {
   const strut = (angleDeg: number, weaveDeg = 0) => {

@@ -47,7 +47,7 @@ describe('framewright build (the built CLI)', () => {
   const badCases: Array<[string, Record<string, unknown> | ((raw: Record<string, unknown>) => void), RegExp]> = [
     ['a missing field', (raw) => delete (raw.layout as Record<string, unknown>).wheelbaseMm, /layout\.wheelbaseMm: \(missing\) is required/],
     ['a negative width', { arms: { widthMm: -3 } }, /arms\.widthMm: -3 is below the allowed range 4 to 60 mm/],
-    ['a stack pattern that does not fit the body', { stacks: [{ place: 'front', patternsMm: [50], boltSize: 'M3' }] }, /stacks\.0\.patternsMm: "bottom-plate" puts a stack-bolt hole .* outside the bottom-plate outline/],
+    ['a stack pattern that does not fit the body', { stacks: [{ place: 'front', patternsMm: [50], boltSize: 'M3' }] }, /stacks\.0\.patternsMm: "bottom-plate" puts a stack bolt hole Ø3\.40 .* outside the bottom-plate outline/],
     ['an unknown key', { arms: { wdith: 3 } }, /arms: \["wdith"\] unknown key/],
   ];
   for (const [what, patch, message] of badCases) {

@@ -8,18 +8,17 @@ import {
   optionsForDesign,
   parseLimits,
   partMarkers,
-  relieveFrame,
   type CheckOptions,
   type CheckReport,
 } from '../../checks/index.js';
 import { frameFindingsAnnotation, markersAnnotation } from '../../export/svgFindings.js';
 import { partToSvg } from '../../export/svgPart.js';
 import { frameOverviewSvg } from '../../export/svgOverview.js';
-import { buildFrame, type Frame } from '../../geometry/index.js';
+import { buildFrame, relieveFrame, type Frame } from '../../geometry/index.js';
 import { DesignError } from '../../params/errors.js';
 import type { Design } from '../../params/design.js';
 import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
-import { runDxfCheck, type DxfCheckFlags } from './checkDxf.js';
+import { reliefLine, reliefStyle, runDxfCheck, type DxfCheckFlags } from './checkDxf.js';
 
 /** Flags of `check`; thickness, material, units and layers apply to DXF input only (checkDxf.ts). */
 export type CheckCliOptions = DxfCheckFlags;
@@ -84,7 +83,7 @@ export function registerCheck(program: Command): void {
     .argument('<design>', 'design file (YAML or JSON), or a DXF cut file drawn elsewhere (.dxf)')
     .option('--json', 'print the report as JSON (the report contract in the README)')
     .option('--annotate <dir>', 'write an SVG per part with each finding marked, and an overview with prop discs and the camera view')
-    .option('--relieve-corners', 'add dogbone reliefs to sharp inside corners of slots and cut-outs, then check the edited parts')
+    .option('--relieve-corners [style]', 'add reliefs sized to the tool at sharp inside corners of slots and cut-outs (dogbone, the default, or tbone), then check the edited parts')
     .option('--tool <mm>', 'router bit diameter in mm (default: cutting.toolDiameterMm of the design)')
     .option('--limit <rule.key=value>', 'override a limit of the checks section, e.g. --limit web-width.minMm=2 (repeat for more)', (v: string, acc: string[]) => [...acc, v], [] as string[])
     .option('--thickness <mm>', 'DXF only: plate thickness in mm (else the sidecar FILE.dxf.yaml, else 2 mm with a warning)')
@@ -99,9 +98,10 @@ export function registerCheck(program: Command): void {
       let frame = buildFrame(input.design);
       let reliefNote = '';
       if (opts.relieveCorners) {
-        const r = relieveFrame(frame, o.toolDiameterMm);
+        const style = reliefStyle(opts.relieveCorners);
+        const r = relieveFrame(frame, o.toolDiameterMm, style);
         frame = r.frame;
-        reliefNote = `Corner relief: ${r.added} dogbone${r.added === 1 ? '' : 's'} added${r.skipped ? `, ${r.skipped} corner${r.skipped === 1 ? '' : 's'} too tight to relieve` : ''}; the report below is for the relieved parts.\n`;
+        reliefNote = reliefLine(style, r.added, r.skipped);
       }
       const report = checkFrame(frame, o);
       if (opts.annotate) {

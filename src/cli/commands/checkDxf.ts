@@ -1,17 +1,18 @@
 import { existsSync, readFileSync, statSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import { checkOptions, checkParts, formatCheckReport, makeReport, partMarkers, relieveCornersDetailed, type CheckReport } from '../../checks/index.js';
+import { checkOptions, checkParts, formatCheckReport, makeReport, partMarkers, type CheckReport } from '../../checks/index.js';
 import { markersAnnotation } from '../../export/svgFindings.js';
 import { partToSvg } from '../../export/svgPart.js';
-import type { Part } from '../../geometry/index.js';
+import { relieveCorners, type Part } from '../../geometry/index.js';
 import { DxfReadError, importDxf, parseSidecarText, resolveImportSettings, type ImportResult } from '../../import/index.js';
+import { plural } from '../../params/words.js';
 import { UsageError, writeAllAtomically } from '../io.js';
 
 /** Flags of `check` that apply to a DXF file. */
 export type DxfCheckFlags = Readonly<{
   json?: boolean;
   annotate?: string;
-  relieveCorners?: boolean;
+  relieveCorners?: boolean | string;
   tool?: string;
   limit?: string[];
   thickness?: string;
@@ -43,6 +44,19 @@ function readDxfText(path: string): string {
 /** The sidecar beside a DXF: `arm.dxf` → `arm.dxf.yaml`, if present. */
 export const sidecarPath = (dxfPath: string): string => `${dxfPath}.yaml`;
 
+/** The relief style of `--relieve-corners [style]`; bad input is a UsageError (exit 2). */
+export function reliefStyle(flag: boolean | string): 'dogbone' | 'tbone' {
+  if (flag === true || flag === 'dogbone') return 'dogbone';
+  if (flag === 'tbone') return 'tbone';
+  throw new UsageError(`--relieve-corners: ${JSON.stringify(flag)} must be dogbone or tbone`);
+}
+
+/** The line printed above a report of relieved parts. */
+export function reliefLine(style: 'dogbone' | 'tbone', added: number, skipped: number): string {
+  const word = style === 'dogbone' ? 'dogbone' : 'T-bone';
+  return `Corner relief: ${plural(added, word)} added${skipped ? `, ${plural(skipped, 'corner')} too tight to relieve` : ''}; the report below is for the relieved parts.\n`;
+}
+
 /**
  * `framewright check part.dxf`: import the drawing (flags over sidecar), run the part rules on
  * every part and print one report with the file findings beside the design findings.
@@ -66,15 +80,16 @@ export function runDxfCheck(path: string, flags: DxfCheckFlags, limitFlags: Reco
   let parts: Part[] = imported.parts;
   let reliefNote = '';
   if (flags.relieveCorners) {
+    const style = reliefStyle(flags.relieveCorners);
     let added = 0;
     let skipped = 0;
     parts = parts.map((p) => {
-      const r = relieveCornersDetailed(p, o.toolDiameterMm);
+      const r = relieveCorners(p, o.toolDiameterMm, style);
       added += r.added;
       skipped += r.skipped;
       return r.part;
     });
-    reliefNote = `Corner relief: ${added} dogbone${added === 1 ? '' : 's'} added${skipped ? `, ${skipped} corner${skipped === 1 ? '' : 's'} too tight to relieve` : ''}; the report below is for the relieved parts.\n`;
+    reliefNote = reliefLine(style, added, skipped);
   }
   const design = checkParts(parts, o);
   const report: CheckReport = makeReport(design.parts, [...imported.findings, ...design.findings]);
