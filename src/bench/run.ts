@@ -6,9 +6,10 @@ import { cases as importCases } from './import.js';
 import { cases as checksCases } from './checks.js';
 import { cases as variantCases } from './variant.js';
 import { cases as quoteCases } from './quote.js';
+import { cases as assemblyCases } from './assembly.js';
 
 /** Every area's benchmark cases; add one import per area. */
-const ALL: BenchCase[] = [...geometryCases, ...importCases, ...checksCases, ...variantCases, ...quoteCases, ...analysisCases];
+const ALL: BenchCase[] = [...geometryCases, ...importCases, ...checksCases, ...assemblyCases, ...variantCases, ...quoteCases, ...analysisCases];
 
 function median(xs: number[]): number {
   const s = [...xs].sort((a, b) => a - b);

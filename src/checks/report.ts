@@ -8,6 +8,11 @@ import { boltHoles, holeEdgeRule, holeStressRule } from './holes.js';
 import { optionsForDesign, type CheckOptions } from './options.js';
 import { indexPart } from './partIndex.js';
 import { cameraViewRule, propClearanceRule, propDiscs } from './props.js';
+import { buildAssembly } from '../assembly/build.js';
+import type { Assembly } from '../assembly/types.js';
+import { batteryFitRule, cameraFitRule, motorScrewRule, stackFitRule } from './componentFit.js';
+import { interferenceRule } from './fit.js';
+import { assemblyPrisms } from './solids.js';
 import type { CheckReport, Finding, PartMetrics, Severity } from './types.js';
 import { webLimitMm, webRule } from './webs.js';
 import { weaveRule } from './weave.js';
@@ -147,16 +152,31 @@ export function checkParts(parts: readonly Part[], options: CheckOptions): Check
 }
 
 /**
- * Every rule for a built frame: the part rules for each distinct part plus the frame rules (prop
- * tip gaps, prop discs against the body, standoffs, camera plates and other plates in plan view,
- * props in the camera view). Options default from the design's `checks` section, its cutting tool
+ * Every rule for a built frame: the part rules for each distinct part plus the frame rules on the
+ * assembled frame (prop tip gaps and prop discs against every solid, props in the camera view,
+ * interference, stack, camera and battery fit, motor screws). The assembly is built when not given. Options default from the design's `checks` section, its cutting tool
  * and props.minTipGapMm.
  * @example const report = checkFrame(buildFrame(design)); if (report.summary.errors) ...
  */
-export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}): CheckReport {
+export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}, assembly: Assembly = buildAssembly(frame.design, frame)): CheckReport {
   const o = optionsForDesign(frame.design, options);
   const results = frame.parts.map((p) => checkPart(p, o));
   const discs = propDiscs(frame);
-  const frameFindings = [...propClearanceRule(frame, o, discs), ...cameraViewRule(frame, o, discs)];
+  const frameFindings = [...propClearanceRule(frame, o, discs, assembly), ...cameraViewRule(frame, o, discs), ...fitFindings(frame, assembly, o)];
   return makeReport(results.map((r) => r.metrics), [...results.flatMap((r) => r.findings), ...frameFindings]);
+}
+
+/**
+ * The fit rules on the assembled frame (interference, stack, camera, battery, motor screws), sharing
+ * one set of prisms.
+ */
+export function fitFindings(frame: Frame, a: Assembly, o: CheckOptions): Finding[] {
+  const prisms = assemblyPrisms(a);
+  return [
+    ...interferenceRule(a, o, prisms),
+    ...stackFitRule(a, o, prisms),
+    ...cameraFitRule(a, o, prisms),
+    ...batteryFitRule(a, o, frame.design.topPlate.strapSlots.slotWidthMm),
+    ...motorScrewRule(a, o),
+  ];
 }

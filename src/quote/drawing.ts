@@ -1,4 +1,5 @@
 import { featureLabel, loopBBox, partBBox, type Arc, type BBox, type Feature, type Loop, type Part, type Segment, type Vec2 } from '../geometry/index.js';
+import type { HardwareItem } from '../assembly/types.js';
 import { holeRows } from './cutData.js';
 import type { Quote } from './quote.js';
 
@@ -114,8 +115,8 @@ export type DrawingOptions = Readonly<{
   date: string | null;
   generalTolerance?: string;
   checks: Readonly<{ errors: number; warnings: number }> | null;
-  /** Hardware list rows (item, standard, size, length mm, count per frame, use), when known. */
-  hardware?: readonly TableRow[];
+  /** The frame's screws, nuts and spacers (the assembly's hardware list), shown on the summary sheet. */
+  hardware?: readonly HardwareItem[];
 }>;
 
 const mm = (x: number, d = 1): string => {
@@ -200,7 +201,7 @@ export function drawingSet(parts: readonly Part[], quote: Quote, options: Drawin
     checks: options.checks,
     safetyNotes: SAFETY_NOTES,
     edgeNotes: EDGE_NOTES,
-    hardware: options.hardware?.length ? { title: 'Hardware per frame', header: ['item', 'standard', 'size', 'length mm', 'count', 'use'], rows: options.hardware } : null,
+    hardware: options.hardware?.length ? hardwareTable(options.hardware, quote.frames) : null,
     sheets: all,
   };
 }
@@ -211,6 +212,15 @@ export function chooseScale(widthMm: number, heightMm: number): { factor: number
     if (widthMm * s.factor <= DRAWING_VIEW_MM.width && heightMm * s.factor <= DRAWING_VIEW_MM.height) return s;
   }
   return DRAWING_SCALES[DRAWING_SCALES.length - 1];
+}
+
+/** The hardware list as a table: per frame and for the batch. */
+export function hardwareTable(items: readonly HardwareItem[], frames: number): Table {
+  return {
+    title: `Hardware (screws, nuts, spacers) for ${frames} frame${frames === 1 ? '' : 's'}`,
+    header: ['item', 'standard', 'size', 'length mm', 'per frame', 'all', 'use'],
+    rows: items.map((h) => [h.item, h.standard, h.size, h.lengthMm === null ? '-' : mm(h.lengthMm, 1), String(h.count), String(h.count * frames), h.use]),
+  };
 }
 
 /** The tag letters of hole types, in the order of the quote's hole rows (A, B, … Z, AA, AB …). */

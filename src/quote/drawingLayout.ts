@@ -49,7 +49,7 @@ export function layoutDrawing(set: DrawingSet): PaperSheet[] {
         pages.push(...partPages(sheet));
         break;
       case 'summary':
-        pages.push({ sheet, items: summaryView(set, sheet), title: sheet.title });
+        pages.push(...summaryPages(set, sheet));
         break;
       default:
         assertNever(sheet);
@@ -350,27 +350,42 @@ function arrowHead(tip: Vec2, dir: Vec2): PaperItem {
   return { kind: 'triangle', points: [tip, [back[0] + n[0], back[1] + n[1]], [back[0] - n[0], back[1] - n[1]]] };
 }
 
-function summaryView(set: DrawingSet, sheet: SummarySheet): PaperItem[] {
+/** The summary sheet; the parts, sheets and hardware tables flow onto continuation sheets when long. */
+function summaryPages(set: DrawingSet, sheet: SummarySheet): Array<{ sheet: DrawingSheet; items: PaperItem[]; title: string }> {
   const items: PaperItem[] = [text([16, FRAME.y1 - 9], 'Quote summary', 5, 'start', true)];
   const [parts, sheets, batch] = sheet.tables;
-  const leftCol: Column = { x: 16, top: FRAME.y1 - 14, bottom: 52, width: 180 };
-  let y = table(parts, leftCol.x, leftCol.top, leftCol.width, items);
-  y = table(sheets, leftCol.x, y - 5, leftCol.width, items);
-  if (set.hardware) y = table(set.hardware, leftCol.x, y - 5, leftCol.width, items);
-  const yb = table(batch, 201, FRAME.y1 - 14, 85, items);
-  // Per-sheet utilisation below the batch table, as many rows as fit above the title block.
-  const room = Math.max(1, Math.floor((yb - 6 - TITLE_BLOCK_TOP - T * 1.2 - 1.5 - 2) / ROW_MM) - 1);
-  const rows = sheet.sheetRows.rows;
-  const shown = rows.length <= room ? rows : [...rows.slice(0, room - 1), [`+ ${rows.length - room + 1} more`, '', '', '']];
-  table({ ...sheet.sheetRows, rows: shown }, 201, yb - 6, 85, items);
-  let ly = y - 6;
+  // The notes under the tables need room: the tables stop that far above the notes block.
+  const notesRoom = sheet.lines.reduce((n, l) => n + wrap(l, 180).length, 0) * T * 1.35 + 4;
+  const tables = [parts, sheets, ...(set.hardware ? [set.hardware] : [])];
+  const placed: PaperItem[] = [];
+  let left = flowTables(tables, [{ x: 16, top: FRAME.y1 - 14, bottom: 52 + notesRoom, width: 180 }], placed);
+  items.push(...placed);
+  const lowest = Math.min(FRAME.y1 - 14, ...placed.filter((i): i is Extract<PaperItem, { kind: 'line' }> => i.kind === 'line').map((i) => i.a[1]));
+  summaryRight(sheet, batch, items);
+  let ly = lowest - 6;
   for (const l of sheet.lines) {
     for (const w of wrap(l, 180)) {
       items.push(text([16, ly], w, T));
       ly -= T * 1.35;
     }
   }
-  return items;
+  const pages = [{ sheet: sheet as DrawingSheet, items, title: sheet.title }];
+  while (left.length) {
+    const more: PaperItem[] = [text([16, FRAME.y1 - 9], 'Quote summary (continued)', 5, 'start', true)];
+    left = flowTables(left, [{ x: 16, top: FRAME.y1 - 14, bottom: 52, width: 180 }, { x: 201, top: FRAME.y1 - 14, bottom: TITLE_BLOCK_TOP + 3, width: 85 }], more);
+    pages.push({ sheet, items: more, title: `${sheet.title} (continued)` });
+  }
+  return pages;
+}
+
+/** The batch time and cost table, and the per-sheet utilisation below it. */
+function summaryRight(sheet: SummarySheet, batch: Table, items: PaperItem[]): void {
+  const yb = table(batch, 201, FRAME.y1 - 14, 85, items);
+  // Per-sheet utilisation below the batch table, as many rows as fit above the title block.
+  const room = Math.max(1, Math.floor((yb - 6 - TITLE_BLOCK_TOP - T * 1.2 - 1.5 - 2) / ROW_MM) - 1);
+  const rows = sheet.sheetRows.rows;
+  const shown = rows.length <= room ? rows : [...rows.slice(0, room - 1), [`+ ${rows.length - room + 1} more`, '', '', '']];
+  table({ ...sheet.sheetRows, rows: shown }, 201, yb - 6, 85, items);
 }
 
 function notesBlock(set: DrawingSet, items: PaperItem[]): void {

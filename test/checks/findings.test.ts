@@ -48,7 +48,9 @@ function plantedFrames(): (readonly Finding[])[] {
     frameWith({ layout: { kind: 'x', wheelbaseMm: 190, armAngleDeg: 45 } }),
     frameWith({ body: { standoffs: { positionsMm: [[50, 17], [50, -17], [-50, 17], [-50, -17]] } } }),
     frameWith({ camera: { forwardOffsetMm: 60 } }),
-    frameWith({ topPlate: { lengthMm: 124 } }),
+    frameWith({ topPlate: { lengthMm: 140 } }),
+    // Camera side plates grown into the flight stack: an interference.
+    buildFrame(validateDesign(designWith('farline-7.yaml', { camera: { plateMarginMm: 5.2 } }))),
   ].map((f) => checkFrame(f).findings);
 }
 
@@ -104,7 +106,7 @@ describe('finding messages', () => {
   });
 
   it('every message ends in one sentence of advice that starts with what to do', () => {
-    const verbs = /^(move|widen|drill|round|enlarge|space|lay|run|trim|set|accept|information only|no change needed)\b/;
+    const verbs = /^(move|widen|drill|round|enlarge|space|lay|run|trim|set|accept|lengthen|use|turn|shim|narrow|add|information only|no change needed)\b/;
     for (const f of all) {
       const parts = f.message.split('; ');
       expect(parts.length, f.message).toBe(2);
@@ -119,7 +121,7 @@ describe('finding messages', () => {
     const want = [
       'bit-reach error X: slot width', 'bit-reach error X: the largest tool', 'bit-reach error X: gap', 'bit-reach info X: diameter', 'bit-reach warning X: radius',
       'camera-view warning', 'hole-edge-distance error X: e/D', 'hole-edge-distance warning X: e/D', 'hole-edge-distance warning X: pitch/D', 'hole-stress info',
-      'prop-clearance error X: clearance', 'prop-clearance error X: gap', 'prop-clearance warning X: plan clearance', 'weave-direction info', 'weave-direction warning',
+      'prop-clearance error X: clearance', 'prop-clearance error X: gap', 'interference error X: overlap', 'weave-direction info', 'weave-direction warning',
       'web-width error X: web', 'web-width warning X: web',
     ];
     for (const w of want) expect([...templates].some((t) => t.startsWith(w)), w).toBe(true);

@@ -11,6 +11,7 @@ import { CAP_HEIGHT_EM, drawingSet, layoutDrawing, MIN_TEXT_MM, quoteParts } fro
 import { DEMO_FILES, demoFrame } from '../helpers/demo.js';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
 import { exampleShop } from './fixtures.js';
+import { buildAssembly, hardwareList } from '../../src/assembly/index.js';
 
 // dxf-parser's default export under NodeNext (library-notes.md)
 type Vertex = { x: number; y: number; bulge?: number };
@@ -61,7 +62,8 @@ describe('the drawing against the DXF (pdftotext and dxf-parser)', () => {
       if (!requireTool(commandAvailable('pdftotext'), 'poppler-utils (pdftotext)')) return;
       const frame = demoFrame(file);
       const quote = quoteParts(frame.parts, { quantity: 1, shop: exampleShop(), toolDiameterMm: 3.175 });
-      const set = drawingSet(frame.parts, quote, { design: frame.name, revision: frame.revision, date: null, checks: null });
+      const hardware = hardwareList(buildAssembly(frame.design, frame), frame.design).items;
+      const set = drawingSet(frame.parts, quote, { design: frame.name, revision: frame.revision, date: null, checks: null, hardware });
       const sheets = layoutDrawing(set);
       // Readable in print: no text below ISO 3098's smallest lettering height (1.8 mm capitals).
       for (const s of sheets) for (const it of s.items) if (it.kind === 'text') expect(it.sizeMm * CAP_HEIGHT_EM).toBeGreaterThanOrEqual(1.8 - 1e-9);
@@ -73,6 +75,12 @@ describe('the drawing against the DXF (pdftotext and dxf-parser)', () => {
       expect(fonts).toMatch(/DejaVuSans\s.*\byes\s+yes\s+yes/);
       expect(fonts).not.toMatch(/\bno\s+no\s+(yes|no)\s+\d+/);
       const pages = spawnSync('pdftotext', ['-layout', pdfPath, '-'], { encoding: 'utf8' }).stdout.split('\f');
+      // The hardware list: every line of the assembly's list, with its count per frame.
+      const summary = pages.filter((p) => /part: summary/.test(p)).join('\n');
+      for (const h of hardware) {
+        const size = h.lengthMm === null ? '-' : h.lengthMm.toFixed(1);
+        expect(summary, `${h.item} ${h.size} ${h.use}`).toMatch(new RegExp(`${h.standard}\\s+${h.size}\\s+${size.replace('.', '\\.')}\\s+${h.count}\\s+${h.count}\\s+${h.use}`));
+      }
       for (const part of frame.parts) {
         const text = pages.filter((p) => new RegExp(`part: ${part.name}( \\(continued\\))?\\s`).test(p)).join('\n');
         expect(text.length, part.name).toBeGreaterThan(0);

@@ -1,12 +1,12 @@
-import { buildFrame } from '../../src/geometry/index.js';
-import { validateDesign } from '../../src/params/index.js';
-import { designWith } from '../helpers/demo.js';
 import { describe, expect, it } from 'vitest';
 import { flattenLoop, partArea, transformPoint, type Part } from '../../src/geometry/index.js';
 import { DesignError } from '../../src/params/errors.js';
 import { allowedRotations, nestParts, type NestResult } from '../../src/quote/index.js';
 import { pythonModuleAvailable, requireTool, runPythonJson } from '../helpers/reference.js';
 import { demoFrame, plate, polygon, roundedRect, roundHole } from './fixtures.js';
+import { buildFrame } from '../../src/geometry/index.js';
+import { validateDesign } from '../../src/params/index.js';
+import { designWith } from '../helpers/demo.js';
 
 const SPACING = 3.175 + 2; // tool diameter + 2 mm (domain.md: spacing ≥ tool diameter + 1–3 mm, common practice)
 const MARGIN = 10;
@@ -103,9 +103,9 @@ describe('nesting', () => {
   });
 
   it.skipIf(!haveShapely)('the finer raster pass keeps a layout only when it saves a sheet, and it passes the same checks', () => {
-    // 54 Tessel 5 arms as first drawn (root edge margin 5.5 mm, tip pad margin 3.5 mm): on the 0.5 mm
-    // raster 26 fit a 400 × 300 sheet (3 sheets), on the 0.25 mm one 27 (2 sheets).
-    const arm = buildFrame(validateDesign(designWith('tessel-5.yaml', { arms: { root: { edgeMarginMm: 5.5 }, tipPadMarginMm: 3.5 } }))).parts.find((p) => p.name === 'arm')!;
+    // 54 Tessel 5 arms as first drawn (224 mm wheelbase, root edge margin 5.5 mm, tip pad margin
+    // 3.5 mm): on the 0.5 mm raster 26 fit a 400 × 300 sheet (3 sheets), on the 0.25 mm one 27 (2 sheets).
+    const arm = buildFrame(validateDesign(designWith('tessel-5.yaml', { layout: { kind: 'x', wheelbaseMm: 224, armAngleDeg: 45 }, arms: { root: { edgeMarginMm: 5.5 }, tipPadMarginMm: 3.5 } }))).parts.find((p) => p.name === 'arm')!;
     const coarse = nestParts([{ part: arm, count: 54 }], { sheet: { widthMm: 400, heightMm: 300 }, spacingMm: SPACING, marginMm: MARGIN, refine: false });
     const r = nestParts([{ part: arm, count: 54 }], { sheet: { widthMm: 400, heightMm: 300 }, spacingMm: SPACING, marginMm: MARGIN });
     expect(r.sheets.length).toBeLessThanOrEqual(coarse.sheets.length);

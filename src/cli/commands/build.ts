@@ -2,6 +2,8 @@ import type { Command } from 'commander';
 import { join } from 'node:path';
 import { buildFrame, partArea, partBBox, partCutLength, partMassG, type Frame } from '../../geometry/index.js';
 import { frameOverviewSvg, partToDxf, partToSvg } from '../../export/index.js';
+import { assemblyOutputs } from './assemblyFiles.js';
+import { buildAssembly, massBalanceText } from '../../assembly/index.js';
 import { buildGate, checkFrame, summaryLine } from '../../checks/index.js';
 import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
@@ -57,7 +59,7 @@ const round = (x: number, d: number): number => Math.round(x * 10 ** d) / 10 ** 
 export function registerBuild(program: Command): void {
   program
     .command('build')
-    .description('build every plate of a design and write DXF and SVG cut files plus an overview SVG')
+    .description('build every plate of a design and write DXF and SVG cut files, an overview SVG, side and front views, the hardware list and the assembly with mass and balance')
     .argument('<design>', 'design file (YAML or JSON)')
     .option('--out <dir>', 'output folder (default: out/<design name>)')
     .option('--json', 'print the summary as JSON')
@@ -70,7 +72,8 @@ export function registerBuild(program: Command): void {
       const outDir = opts.out ?? join('out', slug(design.name));
       if (outDir.trim() === '') throw new UsageError('--out must name a folder');
       // Cut files only for a design that passes its checks, unless the designer insists.
-      const report = checkFrame(frame);
+      const assembly = buildAssembly(design, frame);
+      const report = checkFrame(frame, {}, assembly);
       const { errors, warnings } = report.summary;
       const gate = buildGate(report, !!opts.force);
       if (gate.message) process.stderr.write(gate.message);
@@ -80,9 +83,11 @@ export function registerBuild(program: Command): void {
       }
       const comment = gate.comment;
       const { files, summary } = buildOutputs(frame, outDir, opts, comment);
+      const built = assemblyOutputs(frame, assembly, report, outDir);
+      files.push(...built.files);
       writeAllAtomically(files);
       if (opts.json) {
-        process.stdout.write(`${JSON.stringify({ units: 'mm', design: design.name, revision: design.revision, outDir, checks: report.summary, parts: summary }, null, 2)}\n`);
+        process.stdout.write(`${JSON.stringify({ units: 'mm', design: design.name, revision: design.revision, outDir, checks: report.summary, parts: summary, massBalance: built.massBalance }, null, 2)}\n`);
         if (errors > 0) process.exitCode = 1;
         return;
       }
@@ -98,6 +103,7 @@ export function registerBuild(program: Command): void {
       const totalMass = summary.reduce((a, s) => a + s.massG * s.quantity, 0);
       process.stdout.write(`${design.name} rev ${design.revision}: ${summary.length} parts, plate mass ${totalMass.toFixed(1)} g per frame\n\n`);
       process.stdout.write(`${textTable(['part', 'qty', 'thick mm', 'size mm', 'area mm²', 'mass g', 'cut mm'], rows)}\n\n`);
+      process.stdout.write(`${massBalanceText(built.balance)}\n\n`);
       process.stdout.write(`checks: ${summaryLine(report)}${warnings > 0 ? ' (framewright check for details)' : ''}\n`);
       process.stdout.write(`wrote ${files.length} files to ${outDir}/${comment ? ` — FORCED past ${errors} check errors; the files say so` : ''}\n`);
       if (errors > 0) process.exitCode = 1;

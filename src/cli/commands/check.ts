@@ -15,6 +15,7 @@ import { frameFindingsAnnotation, markersAnnotation } from '../../export/svgFind
 import { partToSvg } from '../../export/svgPart.js';
 import { frameOverviewSvg } from '../../export/svgOverview.js';
 import { buildFrame, relieveFrame, type Frame } from '../../geometry/index.js';
+import { buildAssembly, massBalance, massBalanceSummary, massBalanceText } from '../../assembly/index.js';
 import { DesignError } from '../../params/errors.js';
 import type { Design } from '../../params/design.js';
 import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
@@ -103,7 +104,9 @@ export function registerCheck(program: Command): void {
         frame = r.frame;
         reliefNote = reliefLine(style, r.added, r.skipped);
       }
-      const report = checkFrame(frame, o);
+      const assembly = buildAssembly(frame.design, frame);
+      const report = checkFrame(frame, o, assembly);
+      const balance = massBalance(assembly, frame.design);
       if (opts.annotate) {
         const files = annotatedFiles(frame, report, opts.annotate, o);
         try {
@@ -112,11 +115,12 @@ export function registerCheck(program: Command): void {
           throw new UsageError(`cannot write the annotated drawings to ${opts.annotate}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}; nothing was written`);
         }
       }
-      if (opts.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
+      if (opts.json) process.stdout.write(`${JSON.stringify({ ...report, massBalance: massBalanceSummary(assembly, balance) }, null, 2)}\n`);
       else {
         const heading = `framewright check: ${frame.name} rev ${frame.revision} (router bit ${o.toolDiameterMm.toFixed(3)} mm)`;
-        process.stdout.write(`${reliefNote}${formatCheckReport(report, heading)}`);
+        process.stdout.write(`${reliefNote}${formatCheckReport(report, heading)}${massBalanceText(balance)}\n`);
       }
       process.exitCode = report.summary.errors > 0 ? 1 : 0;
     });
 }
+

@@ -1,6 +1,7 @@
 import type { Command } from 'commander';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { buildAssembly, hardwareList } from '../../assembly/index.js';
 import { checkFrame } from '../../checks/index.js';
 import { buildFrame } from '../../geometry/index.js';
 import { placedPartsToDxf } from '../../export/dxf.js';
@@ -90,7 +91,8 @@ export function registerQuote(program: Command): void {
       // The drawing carries the design-rule summary for the tool this quote uses.
       const checks = checkFrame(frame, { toolDiameterMm: quote.toolDiameterMm }).summary;
       const meta = { design: design.name, revision: design.revision, date, checks };
-      const set = drawingSet(frame.parts, quote, { ...meta, generalTolerance: opts.tolerance ?? 'ISO 2768-m unless stated' });
+      const hardware = hardwareList(buildAssembly(design, frame), design).items;
+      const set = drawingSet(frame.parts, quote, { ...meta, generalTolerance: opts.tolerance ?? 'ISO 2768-m unless stated', hardware });
       const files: OutputFile[] = [];
       const report = quoteReport(quote, meta);
       files.push({ path: join(outDir, 'quote.json'), data: `${JSON.stringify(report, null, 2)}\n` });
