@@ -1,6 +1,6 @@
 import type { Design } from '../params/design.js';
 import { componentMassBody } from './components.js';
-import { nutBody, screwBody } from './hardwareMass.js';
+import { nutBody, screwBody, washerBody } from './hardwareMass.js';
 import { addBodies, centreOfMass, inertiaAboutCentre, type MassBody } from './massProps.js';
 import { motorMassBody, standoffMassBody } from './parts.js';
 import { plateMassBody } from './plates.js';
@@ -11,7 +11,7 @@ export function massGroups(a: Assembly, d: Design): Readonly<Record<'frame' | 'h
   const rho = d.assembly.screwDensityGPerCm3;
   return {
     frame: addBodies(a.plates.map((p) => plateMassBody(p.part, p.pose))),
-    hardware: addBodies([...a.standoffs, ...a.cameraSpacers].map(standoffMassBody).concat(a.joints.flatMap((j) => [screwBody(j, rho), nutBody(j, rho)]))),
+    hardware: addBodies([...a.standoffs, ...a.cameraSpacers].map(standoffMassBody).concat(a.joints.flatMap((j) => [screwBody(j, rho), nutBody(j, rho), washerBody(j, rho)]))),
     motors: addBodies(a.motors.map(motorMassBody)),
     components: addBodies(a.components.filter((c) => c.kind !== 'battery').map(componentMassBody)),
     battery: addBodies(a.components.filter((c) => c.kind === 'battery').map(componentMassBody)),

@@ -1,7 +1,7 @@
 import type { Frame } from '../geometry/frame.js';
 import type { Design } from '../params/design.js';
 import { cameraPivotMm, placeComponents } from './components.js';
-import { COAXIAL_MM, beyondNutMm, engagementMm, makeJoint, placedHoles, plateJoints } from './joints.js';
+import { COAXIAL_MM, beyondNutMm, engagementMm, makeJoint, placedHoles, plateJoints, washerFor } from './joints.js';
 import { placeCameraSpacers, placeMotors, placeProps, placeStandoffs, stackCorners, stackScrew, stackUpOf } from './parts.js';
 import { placePlates } from './plates.js';
 import { nut as nutOf, screwHead, shortestPreferredLength } from './standards.js';
@@ -71,7 +71,7 @@ function stackJoints(d: Design, plates: readonly PlacedPlate[], components: read
       const countersunk = clamps.some((pl) => pl.part.features.some((f) => f.purpose === 'stack-bolt' && f.countersink));
       const n = nutOf(screw, d.assembly.nut);
       const plateTop = clamps[clamps.length - 1].zLowMm + clamps[clamps.length - 1].thicknessMm;
-      const j = makeJoint({ id: `stack ${mount + 1} ${pattern} ${k + 1}`, kind: 'stack', screw, planMm: p, clamps, up: 1, style: countersunk ? 'countersunk' : 'socket', endsIn: 'nut', beyondGripMm: top - plateTop + beyondNutMm(screw, n.heightMm), nut: n, nutOffsetMm: top - plateTop });
+      const j = makeJoint({ id: `stack ${mount + 1} ${pattern} ${k + 1}`, kind: 'stack', screw, planMm: p, clamps, up: 1, style: countersunk ? 'countersunk' : 'socket', endsIn: 'nut', beyondGripMm: top - plateTop + beyondNutMm(screw, n.heightMm), nut: n, nutOffsetMm: top - plateTop, washer: washerFor(d, screw) });
       out.push(j);
     });
   }

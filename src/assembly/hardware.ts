@@ -40,6 +40,7 @@ export function hardwareList(a: Assembly, d: Design): HardwareList {
   for (const j of a.joints) {
     if (!j.stud && j.screwLengthMm > 0) add(SCREW_ITEM[j.headStandard], j.headStandard, j.screw, j.screwLengthMm, USE[j.kind]);
     if (j.nut) add(NUT_ITEM[j.nut.standard], j.nut.standard, j.screw, null, USE[j.kind]);
+    if (j.washer) add('plain washer', j.washer.standard, j.screw, null, USE[j.kind]);
   }
   for (const s of a.standoffs) add(`standoff, ${s.shape} ${s.acrossFlatsMm} mm, ${s.ends}, ${s.material}`, 'none', s.screw, s.lengthMm, 'bottom plate to top plate');
   for (const s of a.cameraSpacers) add(`spacer, ${s.shape} ${s.acrossFlatsMm} mm, ${s.ends}, ${s.material}`, 'none', s.screw, s.lengthMm, 'between the camera side plates');

@@ -45,6 +45,14 @@ export function screwBody(j: BoltedJoint, densityGPerCm3: number): MassBody {
   return addBodies([head, shank]);
 }
 
+/** The washer under a joint's nut (zero when there is none): an annulus d1–d2 of thickness h. g, mm. */
+export function washerBody(j: BoltedJoint, densityGPerCm3: number): MassBody {
+  if (!j.washer || !j.nutAtMm) return { massG: 0, firstGMm: [0, 0, 0], secondGMm2: [0, 0, 0, 0, 0, 0, 0, 0, 0] };
+  const h = j.washer.thicknessMm;
+  const at: Vec3 = [j.nutAtMm[0] - j.axis[0] * h, j.nutAtMm[1] - j.axis[1] * h, j.nutAtMm[2] - j.axis[2] * h];
+  return placeBody(cylinderBody(j.washer.outerMm, h, densityGPerCm3 / 1000, j.washer.innerMm), at, axesAlong(j.axis));
+}
+
 /** The nut of a joint placed in the frame (zero when the joint has none). g, mm. */
 export function nutBody(j: BoltedJoint, densityGPerCm3: number): MassBody {
   if (!j.nut || !j.nutAtMm) return { massG: 0, firstGMm: [0, 0, 0], secondGMm2: [0, 0, 0, 0, 0, 0, 0, 0, 0] };

@@ -3,7 +3,7 @@ import type { Feature, FeaturePurpose } from '../geometry/part.js';
 import type { Vec2 } from '../geometry/types.js';
 import type { Design } from '../params/design.js';
 import type { ScrewSize } from '../params/types.js';
-import { nut as nutOf, pitchMm, screwHead, shortestPreferredLength, type HeadStyle } from './standards.js';
+import { nut as nutOf, pitchMm, screwHead, shortestPreferredLength, washer as washerOf, type HeadStyle, type Washer } from './standards.js';
 import type { BoltedJoint, JointKind, PlacedPlate, Standoff, Vec3 } from './types.js';
 
 /** Holes of different plates whose centres are this close in plan take one screw. mm. */
@@ -58,14 +58,17 @@ type JointInput = Readonly<{
   nut: ReturnType<typeof nutOf> | null;
   /** Distance from the last plate to the nut's face (boards stacked between them). mm. */
   nutOffsetMm?: number;
+  /** A washer under the nut: its thickness adds to what lies beyond the grip. */
+  washer?: Washer | null;
 }>;
 
 /** A joint record from its plates and what the screw ends in. Screw length: shortest preferred length covering grip + what lies beyond. */
 export function makeJoint(j: JointInput): BoltedJoint {
   const head = screwHead(j.screw, j.style);
   const grip = j.clamps.reduce((a, p) => a + p.thicknessMm, 0);
+  const washerMm = j.nut && j.washer ? j.washer.thicknessMm : 0;
   // A countersunk screw's nominal length includes its head, which sits inside the first plate.
-  const need = grip + j.beyondGripMm;
+  const need = grip + j.beyondGripMm + washerMm;
   const length = shortestPreferredLength(need) ?? Math.ceil(need);
   const first = j.clamps[0];
   const headZ = j.up === 1 ? first.zLowMm : first.zLowMm + first.thicknessMm;
@@ -86,10 +89,14 @@ export function makeJoint(j: JointInput): BoltedJoint {
     gripMm: grip,
     screwLengthMm: length,
     nut: j.nut,
-    ...(j.nut ? { nutAtMm: [headAt[0], headAt[1], headZ + j.up * (grip + (j.nutOffsetMm ?? 0))] as Vec3 } : {}),
+    ...(j.nut ? { nutAtMm: [headAt[0], headAt[1], headZ + j.up * (grip + (j.nutOffsetMm ?? 0) + washerMm)] as Vec3 } : {}),
+    ...(j.nut && j.washer ? { washer: j.washer } : {}),
     endsIn: j.endsIn,
   };
 }
+
+/** The washer under a nut when the design asks for washers (`assembly.washers`), else null. */
+export const washerFor = (d: Design, screw: ScrewSize): Washer | null => (d.assembly.washers ? washerOf(screw) : null);
 
 /** Nut plus one full thread beyond it (domain.md: full engagement means thread through the nut). mm. */
 export const beyondNutMm = (screw: ScrewSize, nutHeightMm: number): number => nutHeightMm + pitchMm(screw);
@@ -111,7 +118,7 @@ export function plateJoints(d: Design, plates: readonly PlacedPlate[], standoffs
     const at = g[0].atMm;
     if (purpose === 'arm-root-bolt') {
       const n = nutOf(screw, nutChoice);
-      out.push(makeJoint({ id: `arm-root ${++rootN}`, kind: 'arm-root', screw, planMm: at, clamps: g.map((h) => h.plate), up: 1, style: g[0].feature.countersink ? 'countersunk' : 'socket', endsIn: 'nut', beyondGripMm: beyondNutMm(screw, n.heightMm), nut: n }));
+      out.push(makeJoint({ id: `arm-root ${++rootN}`, kind: 'arm-root', screw, planMm: at, clamps: g.map((h) => h.plate), up: 1, style: g[0].feature.countersink ? 'countersunk' : 'socket', endsIn: 'nut', beyondGripMm: beyondNutMm(screw, n.heightMm), nut: n, washer: washerFor(d, screw) }));
     } else if (purpose === 'standoff') {
       const so = standoffs.find((s) => Math.hypot(s.planMm[0] - at[0], s.planMm[1] - at[1]) <= COAXIAL_MM);
       if (!so) continue;
@@ -132,7 +139,7 @@ function standoffBottom(d: Design, so: Standoff, platesUp: readonly PlacedPlate[
   if (so.ends === 'male-female') {
     // The standoff's own stud passes down through the plates into a nut underneath.
     const n = nutOf(screw, d.assembly.nut);
-    const j = makeJoint({ id: `${so.id} bottom`, kind: 'standoff-bottom', screw, planMm: so.planMm, clamps: [...platesUp].reverse(), up: -1, style: 'socket', endsIn: 'nut', standoffEnds: [{ standoff: so.id, end: 'bottom' }], beyondGripMm: beyondNutMm(screw, n.heightMm), nut: n });
+    const j = makeJoint({ id: `${so.id} bottom`, kind: 'standoff-bottom', screw, planMm: so.planMm, clamps: [...platesUp].reverse(), up: -1, style: 'socket', endsIn: 'nut', standoffEnds: [{ standoff: so.id, end: 'bottom' }], beyondGripMm: beyondNutMm(screw, n.heightMm), nut: n, washer: washerFor(d, screw) });
     return { ...j, screwLengthMm: 0, stud: so.id };
   }
   const countersunk = platesUp.some((p) => p.part.features.some((f) => f.purpose === 'standoff' && f.countersink));

@@ -80,7 +80,8 @@ export function hardwareReport(list: HardwareList) {
 /** Mass and balance in a few lines of text for the terminal. */
 export function massBalanceText(mb: MassBalance): string {
   const m = mb.massG;
-  const f = (x: number) => x.toFixed(1);
+  // No "-0.0" for a centre of gravity on the centre line.
+  const f = (x: number) => (Math.abs(x) < 0.05 ? 0 : x).toFixed(1);
   return [
     `mass: frame ${f(m.frame)} g, hardware ${f(m.hardware)} g, motors ${f(m.motors)} g, components ${f(m.components)} g, battery ${f(m.battery)} g; all-up ${f(m.allUp)} g`,
     `centre of gravity (${mb.cgMm.map(f).join(', ')}) mm; thrust centre (${mb.thrustCentreMm.map(f).join(', ')}) mm; offset ${mb.cgOffsetMm.toFixed(1)} mm (${(mb.cgOffsetShare * 100).toFixed(1)} % of the arm)`,

@@ -103,6 +103,17 @@ export function longestPreferredLength(maxMm: number): number | null {
   return fits.length ? fits[fits.length - 1] : null;
 }
 
+export type Washer = Readonly<{ standard: 'ISO 7089'; innerMm: number; outerMm: number; thicknessMm: number }>;
+
+/** ISO 7089 plain washers, normal series: d1 / d2 / h (from memory). */
+const ISO_7089: Record<ScrewSize, [number, number, number]> = { M2: [2.2, 5, 0.3], 'M2.5': [2.7, 6, 0.5], M3: [3.2, 7, 0.5], M4: [4.3, 9, 0.8], M5: [5.3, 10, 1] };
+
+/** The ISO 7089 washer for a screw size. */
+export function washer(size: ScrewSize): Washer {
+  const [innerMm, outerMm, thicknessMm] = ISO_7089[size];
+  return { standard: 'ISO 7089', innerMm, outerMm, thicknessMm };
+}
+
 /** Tap drill for the coarse thread (ISO 2306 practice: d − P, from memory), the bore of a tapped standoff. mm. */
 export const tapDrillMm = (s: ScrewSize): number => Math.round((Number(s.slice(1)) - PITCH_MM[s]) * 100) / 100;
 

@@ -139,8 +139,10 @@ export type BoltedJoint = Readonly<{
   /** Screw length from the hardware list (ISO 4762 preferred series). mm. */
   screwLengthMm: number;
   nut: Readonly<{ standard: NutStandard; heightMm: number; acrossFlatsMm: number }> | null;
-  /** Where the nut's bearing face meets the axis (after the plates, or on top of a stack). */
+  /** Where the nut's bearing face meets the axis (after the plates and any washer, or on top of a stack). */
   nutAtMm?: Vec3;
+  /** A plain washer under the nut (`assembly.washers`), between the last plate and the nut. */
+  washer?: Readonly<{ standard: WasherStandard; innerMm: number; outerMm: number; thicknessMm: number }>;
   /** Where the screw ends: a nut, a standoff thread, the motor's threaded base, a press nut. */
   endsIn: 'nut' | 'standoff' | 'motor-thread' | 'press-nut' | 'camera-thread';
   /** Set when the "screw" is a male–female standoff's own stud (no screw to buy; screwLengthMm 0). */

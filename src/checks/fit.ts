@@ -181,7 +181,10 @@ function towards(c: Vec2, R: number, s: Prism): Vec2 {
 function cameraVsProp(camera: Component, prop: Prop, c: Vec2, R: number, minMm: number, rule: string): Finding[] {
   const [zLo, zHi] = band(prop);
   let worst: { gap: number; pose: Prism } | null = null;
-  for (const pose of cameraPosePrisms(camera)) {
+  const poses = cameraPosePrisms(camera);
+  const reach = { min: [Math.min(...poses.map((p) => p.min[0])), Math.min(...poses.map((p) => p.min[1])), 0], max: [Math.max(...poses.map((p) => p.max[0])), Math.max(...poses.map((p) => p.max[1])), 0] } as unknown as Prism;
+  if (planBoxGap(c, R, reach) > minMm + 1) return [];
+  for (const pose of poses) {
     if (Math.min(pose.max[2], zHi) - Math.max(pose.min[2], zLo) <= CONTACT_MM || planBoxGap(c, R, pose) > minMm + 1) continue;
     const footprint = yPrismPlanFootprint(pose, zLo, zHi);
     if (!footprint.length) continue;

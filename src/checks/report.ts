@@ -12,7 +12,7 @@ import { buildAssembly } from '../assembly/build.js';
 import type { Assembly } from '../assembly/types.js';
 import { batteryFitRule, cameraFitRule, motorScrewRule, stackFitRule } from './componentFit.js';
 import { interferenceRule } from './fit.js';
-import { assemblyPrisms } from './solids.js';
+import { assemblyPrisms, type Prism } from './solids.js';
 import type { CheckReport, Finding, PartMetrics, Severity } from './types.js';
 import { webLimitMm, webRule } from './webs.js';
 import { weaveRule } from './weave.js';
@@ -162,7 +162,8 @@ export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}, as
   const o = optionsForDesign(frame.design, options);
   const results = frame.parts.map((p) => checkPart(p, o));
   const discs = propDiscs(frame);
-  const frameFindings = [...propClearanceRule(frame, o, discs, assembly), ...cameraViewRule(frame, o, discs), ...fitFindings(frame, assembly, o)];
+  const prisms = assemblyPrisms(assembly);
+  const frameFindings = [...propClearanceRule(frame, o, discs, assembly, prisms), ...cameraViewRule(frame, o, discs), ...fitFindings(frame, assembly, o, prisms)];
   return makeReport(results.map((r) => r.metrics), [...results.flatMap((r) => r.findings), ...frameFindings]);
 }
 
@@ -170,8 +171,7 @@ export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}, as
  * The fit rules on the assembled frame (interference, stack, camera, battery, motor screws), sharing
  * one set of prisms.
  */
-export function fitFindings(frame: Frame, a: Assembly, o: CheckOptions): Finding[] {
-  const prisms = assemblyPrisms(a);
+export function fitFindings(frame: Frame, a: Assembly, o: CheckOptions, prisms: readonly Prism[] = assemblyPrisms(a)): Finding[] {
   return [
     ...interferenceRule(a, o, prisms),
     ...stackFitRule(a, o, prisms),

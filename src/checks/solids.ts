@@ -1,7 +1,7 @@
 import { FillRule, areaPathsD, intersectD, rectClip, type PathsD } from 'clipper2-ts';
 import type { Assembly, BoltedJoint, Component, OrientedBox, PlacedPlate, Standoff, Vec3 } from '../assembly/types.js';
 import { jointStandsProud } from '../assembly/joints.js';
-import { flattenLoop, transformLoop } from '../geometry/loop.js';
+import { flattenLoop, loopBBox, transformLoop } from '../geometry/loop.js';
 import { circle, polygon } from '../geometry/primitives.js';
 import type { Loop, Vec2 } from '../geometry/types.js';
 
@@ -29,29 +29,34 @@ export type Prism = Readonly<{
   owner?: string;
 }>;
 
-/** Flattening of arcs for overlap areas and plan gaps; rule margins (0.5 mm and up) are kept ten times above it. mm. */
+/** Flattening of plate arcs for overlap areas and plan gaps; rule margins (0.5 mm and up) are kept ten times above it. mm. */
 export const FIT_CHORD_MM = 0.05;
+/** Flattening of the small round solids (heads, nuts, standoffs, motors): 0.25 % of a 3 mm head's area. mm. */
+export const SMALL_CHORD_MM = 0.005;
 /** Faces closer than this along the axis touch (intended contact), they do not intersect. mm. */
 export const CONTACT_MM = 0.01;
 /** Overlap areas below this are contact along an edge, not interference. mm². */
 export const OVERLAP_AREA_MM2 = 0.05;
 
-const toPaths = (loops: readonly Loop[]): PathsD => loops.map((l) => flattenLoop(l, FIT_CHORD_MM).map(([x, y]) => ({ x, y })));
+const toPaths = (loops: readonly Loop[], chordMm = SMALL_CHORD_MM): PathsD => loops.map((l) => flattenLoop(l, chordMm).map(([x, y]) => ({ x, y })));
 
 const partPaths = new WeakMap<PlacedPlate['part'], PathsD>();
 
-function prism(id: string, kind: Prism['kind'], axis: 'z' | 'y', loops: readonly Loop[], lo: number, hi: number, owner?: string, given?: PathsD): Prism {
-  const paths = given ?? toPaths(loops);
-  let [a0, b0, a1, b1] = [Infinity, Infinity, -Infinity, -Infinity];
-  for (const p of paths) for (const q of p) {
-    a0 = Math.min(a0, q.x);
-    b0 = Math.min(b0, q.y);
-    a1 = Math.max(a1, q.x);
-    b1 = Math.max(b1, q.y);
-  }
+/**
+ * A prism whose bounds come from its exact outline (cheap) and whose flattened paths are made only
+ * when an overlap test needs them (most pairs are told apart by their bounds).
+ */
+function prism(id: string, kind: Prism['kind'], axis: 'z' | 'y', loops: readonly Loop[], lo: number, hi: number, owner?: string, given?: () => PathsD): Prism {
+  const [a0, b0, a1, b1] = loopBBox(loops[0]);
   const min: Vec3 = axis === 'z' ? [a0, b0, lo] : [a0, lo, b0];
   const max: Vec3 = axis === 'z' ? [a1, b1, hi] : [a1, hi, b1];
-  return { id, kind, axis, loops, paths, lo, hi, min, max, ...(owner ? { owner } : {}) };
+  let cache: PathsD | null = null;
+  const out = { id, kind, axis, loops, lo, hi, min, max, ...(owner ? { owner } : {}) };
+  Object.defineProperty(out, 'paths', {
+    enumerable: true,
+    get: (): PathsD => (cache ??= given ? given() : toPaths(loops)),
+  });
+  return out as Prism;
 }
 
 /** A regular hexagon of width across flats s about c, corners on the x axis (flats facing ±y). */
@@ -62,21 +67,24 @@ export function hexagon(c: Vec2, s: number): Loop {
 
 /** The plate copy as a prism (outline and holes; vertical plates in x–z). */
 export function platePrism(p: PlacedPlate): Prism {
-  // Flatten each part once, then move the points of every copy.
-  let flat = partPaths.get(p.part);
-  if (!flat) {
-    flat = toPaths([p.part.outline, ...p.part.features.map((f) => f.loop)]);
-    partPaths.set(p.part, flat);
-  }
+  // Flatten each part once (when first needed), then move the points of every copy.
+  const flatOf = (): PathsD => {
+    let f = partPaths.get(p.part);
+    if (!f) {
+      f = toPaths([p.part.outline, ...p.part.features.map((x) => x.loop)], FIT_CHORD_MM);
+      partPaths.set(p.part, f);
+    }
+    return f;
+  };
   const pl = p.placement;
   if (p.planOutline) {
     const c = Math.cos(pl.rotateRad);
     const s = Math.sin(pl.rotateRad);
     const m = pl.mirrorY ? -1 : 1;
-    const moved = flat.map((path) => path.map((q) => ({ x: c * q.x - s * m * q.y + pl.translateMm[0], y: s * q.x + c * m * q.y + pl.translateMm[1] })));
+    const moved = () => flatOf().map((path) => path.map((q) => ({ x: c * q.x - s * m * q.y + pl.translateMm[0], y: s * q.x + c * m * q.y + pl.translateMm[1] })));
     return prism(p.id, 'plate', 'z', [p.planOutline], p.zLowMm, p.zLowMm + p.thicknessMm, undefined, moved);
   }
-  const moved = flat.map((path) => path.map((q) => ({ x: q.x + pl.translateMm[0], y: q.y + pl.zMm })));
+  const moved = () => flatOf().map((path) => path.map((q) => ({ x: q.x + pl.translateMm[0], y: q.y + pl.zMm })));
   const outline = transformed(p.part.outline, { rotateRad: 0, translateMm: [pl.translateMm[0], pl.zMm], mirrorY: false });
   return prism(p.id, 'plate', 'y', [outline], p.bounds.minMm[1], p.bounds.maxMm[1], undefined, moved);
 }
@@ -112,6 +120,11 @@ export function jointPrisms(j: BoltedJoint): Prism[] {
     const far = axisY ? j.nutAtMm[1] : j.nutAtMm[2];
     const [lo, hi] = dir > 0 ? [far, far + j.nut.heightMm] : [far - j.nut.heightMm, far];
     out.push(prism(`${j.id} nut`, 'nut', axisY ? 'y' : 'z', [hexagon(centre, j.nut.acrossFlatsMm)], lo, hi, j.id));
+    if (j.washer) {
+      const h = j.washer.thicknessMm;
+      const [wlo, whi] = dir > 0 ? [far - h, far] : [far, far + h];
+      out.push(prism(`${j.id} washer`, 'nut', axisY ? 'y' : 'z', [circle(centre, j.washer.outerMm / 2)], wlo, whi, j.id));
+    }
   }
   return out;
 }
@@ -208,9 +221,12 @@ function crossedOverlap(z: Prism, y: Prism): Overlap | null {
   const x1 = Math.min(z.max[0], y.max[0]);
   if (x1 - x0 <= CONTACT_MM) return null;
   // Each region cut to the other's slab (rectangle clips are cheap), then compared at the same x.
-  const zc = rectClip({ left: x0, top: y.lo, right: x1, bottom: y.hi }, z.paths, 6);
+  // The y-prism's region is small (side plates, spacers, camera): clip it first and stop when it
+  // only touches the z-prism's slab.
   const yc = rectClip({ left: x0, top: z.lo, right: x1, bottom: z.hi }, y.paths, 6);
-  if (!zc.length || !yc.length) return null;
+  if (!yc.length || areaPathsD(yc) <= OVERLAP_AREA_MM2) return null;
+  const zc = rectClip({ left: x0, top: y.lo, right: x1, bottom: y.hi }, z.paths, 6);
+  if (!zc.length || areaPathsD(zc) <= OVERLAP_AREA_MM2) return null;
   const span = (ps: PathsD): [number, number] => [Math.min(...ps.flatMap((p) => p.map((q) => q.x))), Math.max(...ps.flatMap((p) => p.map((q) => q.x)))];
   const [za, zb] = span(zc);
   const [ya, yb] = span(yc);

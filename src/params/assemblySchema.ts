@@ -18,6 +18,7 @@ export const AssemblySchema = z
       .enum(FASTENER_NUTS, { error: `must be one of ${FASTENER_NUTS.join(', ')}` })
       .default('locking')
       .describe('nuts on through-bolts: hex (ISO 4032), thin (ISO 4035) or locking (ISO 7040 prevailing torque)'),
+    washers: z.boolean({ error: 'must be true or false' }).default(false).describe('a plain washer (ISO 7089) under every nut'),
     // Steel screws 7.85 g/cm³, stainless A2 7.9 (reference-values.md, densities).
     screwDensityGPerCm3: num(1, 20, 'g/cm³', 'density of the screws and nuts (stainless steel 7.9; titanium 4.5)').default(7.9),
     // domain.md: ≥ 1 × d of thread in a standoff (common practice).
@@ -119,7 +120,7 @@ export const ComponentSchema = z.discriminatedUnion(
     cameraComponent,
     antennaComponent,
   ],
-  { error: `kind must be one of ${COMPONENT_KINDS.join(', ')}` },
+  { error: `must be one of ${COMPONENT_KINDS.join(', ')}` },
 );
 
 export const ComponentsSchema = z.array(ComponentSchema).max(24).default([]).describe('what the frame carries: stacks, video transmitter, receiver, battery, camera, antennas');

@@ -1,5 +1,5 @@
 import { featureLabel, loopBBox, partBBox, type Arc, type BBox, type Feature, type Loop, type Part, type Segment, type Vec2 } from '../geometry/index.js';
-import type { HardwareItem } from '../assembly/types.js';
+import type { HardwareItem, HardwareList } from '../assembly/types.js';
 import { holeRows } from './cutData.js';
 import type { Quote } from './quote.js';
 
@@ -115,8 +115,8 @@ export type DrawingOptions = Readonly<{
   date: string | null;
   generalTolerance?: string;
   checks: Readonly<{ errors: number; warnings: number }> | null;
-  /** The frame's screws, nuts and spacers (the assembly's hardware list), shown on the summary sheet. */
-  hardware?: readonly HardwareItem[];
+  /** The frame's screws, nuts and spacers (the assembly's hardware list), counted for the batch on the summary sheet. */
+  hardware?: HardwareList;
 }>;
 
 const mm = (x: number, d = 1): string => {
@@ -201,7 +201,7 @@ export function drawingSet(parts: readonly Part[], quote: Quote, options: Drawin
     checks: options.checks,
     safetyNotes: SAFETY_NOTES,
     edgeNotes: EDGE_NOTES,
-    hardware: options.hardware?.length ? hardwareTable(options.hardware, quote.frames) : null,
+    hardware: options.hardware?.items.length ? hardwareTable(options.hardware.items, quote.frames) : null,
     sheets: all,
   };
 }

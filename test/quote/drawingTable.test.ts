@@ -62,8 +62,9 @@ describe('the drawing against the DXF (pdftotext and dxf-parser)', () => {
       if (!requireTool(commandAvailable('pdftotext'), 'poppler-utils (pdftotext)')) return;
       const frame = demoFrame(file);
       const quote = quoteParts(frame.parts, { quantity: 1, shop: exampleShop(), toolDiameterMm: 3.175 });
-      const hardware = hardwareList(buildAssembly(frame.design, frame), frame.design).items;
-      const set = drawingSet(frame.parts, quote, { design: frame.name, revision: frame.revision, date: null, checks: null, hardware });
+      const list = hardwareList(buildAssembly(frame.design, frame), frame.design);
+      const hardware = list.items;
+      const set = drawingSet(frame.parts, quote, { design: frame.name, revision: frame.revision, date: null, checks: null, hardware: list });
       const sheets = layoutDrawing(set);
       // Readable in print: no text below ISO 3098's smallest lettering height (1.8 mm capitals).
       for (const s of sheets) for (const it of s.items) if (it.kind === 'text') expect(it.sizeMm * CAP_HEIGHT_EM).toBeGreaterThanOrEqual(1.8 - 1e-9);

@@ -15,7 +15,7 @@ import { frameFindingsAnnotation, markersAnnotation } from '../../export/svgFind
 import { partToSvg } from '../../export/svgPart.js';
 import { frameOverviewSvg } from '../../export/svgOverview.js';
 import { buildFrame, relieveFrame, type Frame } from '../../geometry/index.js';
-import { buildAssembly, massBalance, massBalanceSummary, massBalanceText } from '../../assembly/index.js';
+import { buildAssembly, massBalance, massBalanceText } from '../../assembly/index.js';
 import { DesignError } from '../../params/errors.js';
 import type { Design } from '../../params/design.js';
 import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
@@ -115,7 +115,7 @@ export function registerCheck(program: Command): void {
           throw new UsageError(`cannot write the annotated drawings to ${opts.annotate}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}; nothing was written`);
         }
       }
-      if (opts.json) process.stdout.write(`${JSON.stringify({ ...report, massBalance: massBalanceSummary(assembly, balance) }, null, 2)}\n`);
+      if (opts.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
       else {
         const heading = `framewright check: ${frame.name} rev ${frame.revision} (router bit ${o.toolDiameterMm.toFixed(3)} mm)`;
         process.stdout.write(`${reliefNote}${formatCheckReport(report, heading)}${massBalanceText(balance)}\n`);

@@ -89,9 +89,10 @@ export function registerQuote(program: Command): void {
       });
       bar?.clear();
       // The drawing carries the design-rule summary for the tool this quote uses.
-      const checks = checkFrame(frame, { toolDiameterMm: quote.toolDiameterMm }).summary;
+      const assembly = buildAssembly(design, frame);
+      const checks = checkFrame(frame, { toolDiameterMm: quote.toolDiameterMm }, assembly).summary;
       const meta = { design: design.name, revision: design.revision, date, checks };
-      const hardware = hardwareList(buildAssembly(design, frame), design).items;
+      const hardware = hardwareList(assembly, design);
       const set = drawingSet(frame.parts, quote, { ...meta, generalTolerance: opts.tolerance ?? 'ISO 2768-m unless stated', hardware });
       const files: OutputFile[] = [];
       const report = quoteReport(quote, meta);
