@@ -61,7 +61,8 @@ export type Drawn = Readonly<{ svg: string; box: Box }>;
  * An arrow pointing up (the frame's front in a plan view) with its word under it; (x, y) is the tip.
  * @example frontArrow(5, 5).svg
  */
-export function frontArrow(x: number, y: number, label = 'front', sizeMm = 3): Drawn {
+export function frontArrow(x: number, y: number, label = 'front', sizeMm = 3, direction: 'up' | 'right' = 'up'): Drawn {
+  if (direction === 'right') return rightArrow(x, y, label, sizeMm);
   const len = 10;
   const head = 3;
   const svg = [
@@ -73,6 +74,21 @@ export function frontArrow(x: number, y: number, label = 'front', sizeMm = 3): D
   ].join('');
   const tb = textBox(x, y + len + sizeMm * 1.1, label, sizeMm, 'middle');
   return { svg, box: unionBox({ x0: x - 1.6, y0: y, x1: x + 1.6, y1: y + len }, tb) };
+}
+
+/** The same arrow pointing right (the front in a side view); (x, y) is its tail, the word under it. */
+function rightArrow(x: number, y: number, label: string, sizeMm: number): Drawn {
+  const len = 10;
+  const head = 3;
+  const cy = y + 2;
+  const svg = [
+    `<g class="front-arrow">`,
+    `<line x1="${fmt(x, 3)}" y1="${fmt(cy, 3)}" x2="${fmt(x + len - head, 3)}" y2="${fmt(cy, 3)}" stroke="#000000" stroke-width="0.5"/>`,
+    `<path d="M${fmt(x + len, 3)} ${fmt(cy, 3)} l-${head} -1.6 v3.2 z" fill="#000000" stroke="none"/>`,
+    svgText(x + len / 2, cy + 2 + sizeMm * 1.1, label, sizeMm, { anchor: 'middle' }),
+    '</g>',
+  ].join('');
+  return { svg, box: unionBox({ x0: x, y0: cy - 1.6, x1: x + len, y1: cy + 1.6 }, textBox(x + len / 2, cy + 2 + sizeMm * 1.1, label, sizeMm, 'middle')) };
 }
 
 /** The longest "nice" length (1, 2, 5 × 10^k mm) not above maxMm. */
@@ -246,8 +262,10 @@ export type PictureOptions = Readonly<{
   contentBox: Box;
   /** Placed labels (their boxes join the view). */
   labels?: readonly PlacedLabel[];
-  /** Word under the front arrow; null for no arrow (pictures that are not plan views). */
+  /** Word under the front arrow; null for no arrow (a view looking at the front). */
   front?: string | null;
+  /** Where the front arrow points: up in plan views (the default), right in side views. */
+  frontDirection?: 'up' | 'right';
   legend?: readonly LegendEntry[];
   /** Lines of small print at the foot (cautions, notes). */
   notes?: readonly string[];
@@ -313,7 +331,7 @@ export function pictureSvg(o: PictureOptions): string {
   const top = view.y1 + 5;
   let bottom = top;
   if (o.front !== null) {
-    const a = frontArrow(x + 3, top, o.front ?? 'front');
+    const a = o.frontDirection === 'right' ? frontArrow(x, top, o.front ?? 'front', 3, 'right') : frontArrow(x + 3, top, o.front ?? 'front');
     foot.push(a.svg);
     all = unionBox(all, a.box);
     bottom = Math.max(bottom, a.box.y1);

@@ -8,6 +8,8 @@ import { DEMO_FILES, demoFrame } from '../helpers/demo.js';
 import { drawingSet, layoutDrawing, quoteParts } from '../../src/quote/index.js';
 import { drawingToSvgs } from '../../src/export/svgDrawing.js';
 import { exampleShop } from '../quote/fixtures.js';
+import { assemblyView, buildAssembly } from '../../src/assembly/index.js';
+import { assemblyViewSvg } from '../../src/export/svgAssemblyView.js';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
 import { chromiumTextBoxes, drawnExtent, overlappingTexts } from '../helpers/render.js';
 import { textWidthMm } from '../../src/params/textWidth.js';
@@ -37,6 +39,14 @@ function pictures(): Array<{ name: string; svg: string }> {
     name: 'mote-3 top-plate mode 1',
     svg: modeShapeSvg({ title: 'Mote 3 · top-plate · mode 1', frequencyHz: mode.frequencyHz, description: mode.description, xy: m.mesh.xy, triangles: m.mesh.triangles, w: Float64Array.from({ length: n }, (_, i) => mode.shape[6 * i + 2]), loops: [top.outline, ...top.features.map((f) => f.loop)] }),
   });
+  // The assembly's side, front and plan views with the fit findings marked.
+  for (const file of DEMO_FILES) {
+    const frame = demoFrame(file);
+    const a = buildAssembly(frame.design, frame);
+    for (const v of ['side', 'front', 'plan'] as const) {
+      out.push({ name: `${file} ${v} view`, svg: assemblyViewSvg(assemblyView(a, v), { title: `${frame.name}: ${v} view`, markers: [{ atMm: [0, 5], label: '1', title: 'a marker' }], notes: ['a note'] }) });
+    }
+  }
   // The quote drawing's sheets (A4, the same layout as the PDF).
   for (const file of DEMO_FILES) {
     const frame = demoFrame(file);
@@ -106,6 +116,12 @@ describe('pictures in real renderers', () => {
       expect(p.svg, p.name).not.toMatch(/Helvetica|Arial|Verdana|Segoe/);
       expect(p.svg, p.name).toMatch(/font-family="sans-serif"/);
       if (/drawing sheet/.test(p.name)) continue; // drawing sheets carry a stated scale, a weave and a front arrow
+      if (/front view/.test(p.name)) {
+        // Looking at the front: no arrow, a note says so.
+        expect(p.svg).toContain('the frame&apos;s front faces you'.replace('&apos;', "'"));
+        expect(p.svg, p.name).toContain('class="scale-bar"');
+        continue;
+      }
       expect(p.svg, p.name).toContain('class="front-arrow"');
       expect(p.svg, p.name).toContain('class="scale-bar"');
       expect(p.svg, p.name).toContain('class="legend"');
