@@ -13,12 +13,16 @@ export const CAMERA_FIT_RULE = 'camera-fit';
 export const BATTERY_FIT_RULE = 'battery-fit';
 export const MOTOR_SCREW_RULE = 'motor-screw';
 
-const KIND_ADVICE: Record<string, string> = {
-  'plate/plate': 'move the parts apart (arm roots: a longer arms.root.reachMm, a narrower root or a larger wheelbase)',
-  'plate/standoff': 'move the standoff (body.standoffs.positionsMm) or the plate',
-  'head/plate': 'use a countersunk screw (countersunk holes) or move the hole',
-  'nut/standoff': 'move the hole or the standoff',
-};
+/** What to change when two solids meet, by what they are. */
+function advice(p: Prism, q: Prism): string {
+  const ids = [p.id, q.id];
+  if (ids.every((id) => id.startsWith('arm') || id.startsWith('brace'))) return 'lengthen arms.root.reachMm, narrow the root or enlarge the wheelbase, as the arm roots or braces overlap';
+  const kinds = [p.kind, q.kind].sort().join('/');
+  if (kinds === 'head/plate') return 'use countersunk screws there (countersunk holes) or move the hole clear of the plate';
+  if (kinds === 'plate/standoff' || kinds === 'nut/standoff' || kinds === 'head/standoff') return 'move the standoff (body.standoffs.positionsMm) or the part it meets';
+  if (kinds.includes('component')) return 'move or resize the component (components), or make room for it';
+  return 'move one of them or change its size';
+}
 
 /**
  * Solids of the assembled frame that intersect beyond their contact faces (faces that touch are
@@ -36,10 +40,8 @@ export function interferenceRule(a: Assembly, o: CheckOptions, prisms: readonly 
       if (p.owner !== undefined && p.owner === q.owner) continue;
       const ov = prismOverlap(p, q);
       if (!ov) continue;
-      const key = [p.kind, q.kind].sort().join('/');
-      const advice = KIND_ADVICE[key] ?? 'move one of them or change its size';
       out.push(fitFinding(INTERFERENCE_RULE, 'error', ov.volumeMm3, 0, 'mm³', [p.id, q.id], ov.where,
-        `${p.id} and ${q.id} intersect near ${pt3(ov.where)}: overlap ${ov.volumeMm3.toFixed(2)} mm³ is above the limit 0.00 mm³; ${advice}`));
+        `${p.id} and ${q.id} intersect near ${pt3(ov.where)}: overlap ${ov.volumeMm3.toFixed(2)} mm³ is above the limit 0.00 mm³; ${advice(p, q)}`));
     }
   }
   return out;
