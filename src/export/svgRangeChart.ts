@@ -1,4 +1,3 @@
-import { wrap } from '../quote/drawingLayout.js';
 import { fmt, xmlEscape } from './format.js';
 
 /** One frame of a size range on the chart. Props in inches; wheelbase mm; mass g; frequencies Hz. */
@@ -48,8 +47,11 @@ export function niceTicks(lo: number, hi: number, count = 5): number[] {
 /** Average advance of a sans-serif character, as a fraction of the font size (about half an em). */
 const CHAR_EM = 0.55;
 
-/** Break text at spaces into lines that fit `widthMm` at `fontMm`. */
-export const wrapText = (text: string, widthMm: number, fontMm: number): string[] => wrap(text, Math.max(10, Math.floor(widthMm / (CHAR_EM * fontMm))));
+/** Break text at spaces into lines that fit `widthMm` at `fontMm` (a word longer than a line keeps its own line). */
+export function wrapText(text: string, widthMm: number, fontMm: number): string[] {
+  const max = Math.max(10, Math.floor(widthMm / (CHAR_EM * fontMm)));
+  return (text.match(new RegExp(`\\S.{0,${max - 1}}(?=\\s|$)|\\S+`, 'g')) ?? []).map((l) => l.trim());
+}
 
 type Series = Readonly<{ name: string; key: string; values: readonly number[]; colour: string; dashed?: boolean }>;
 

@@ -129,9 +129,9 @@ export function withRootRoom(d: Design): Design | null {
   const limit = 0.6 * Math.min(...motorSites(d).map((s) => s.motorAlongMm)) - (a.root.boltCount - 1) * a.root.boltSpacingMm - a.root.edgeMarginMm;
   const at = (steps: number): Design => (steps === 0 ? d : { ...d, arms: { ...a, root: { ...a.root, reachMm: a.root.reachMm + 0.5 * steps } } });
   const clear = (steps: number): boolean => rootGapMm(at(steps)) >= ROOT_CLEARANCE_MM;
-  const maxSteps = Math.floor((limit - a.root.reachMm) / 0.5 + 1e-9);
-  if (maxSteps < 0) return null;
   if (clear(0)) return d;
+  const maxSteps = Math.floor((limit - a.root.reachMm) / 0.5 + 1e-9);
+  if (maxSteps < 1) return null;
   let bad = 0;
   let good = -1;
   for (let n = 1; ; n = Math.min(2 * n, maxSteps)) {

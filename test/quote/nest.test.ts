@@ -103,9 +103,9 @@ describe('nesting', () => {
   });
 
   it.skipIf(!haveShapely)('the finer raster pass keeps a layout only when it saves a sheet, and it passes the same checks', () => {
-    // 54 Tessel 5 arms at the 224 mm wheelbase of its revision B (the demo now has 236 mm): on the
-    // 0.5 mm raster 26 fit a 400 × 300 sheet (3 sheets), on the 0.25 mm one 27 (2 sheets).
-    const arm = buildFrame(validateDesign(designWith('tessel-5.yaml', { layout: { kind: 'x', wheelbaseMm: 224, armAngleDeg: 45 } }))).parts.find((p) => p.name === 'arm')!;
+    // 54 Tessel 5 arms as first drawn (224 mm wheelbase, root edge margin 5.5 mm, tip pad margin
+    // 3.5 mm): on the 0.5 mm raster 26 fit a 400 × 300 sheet (3 sheets), on the 0.25 mm one 27 (2 sheets).
+    const arm = buildFrame(validateDesign(designWith('tessel-5.yaml', { layout: { kind: 'x', wheelbaseMm: 224, armAngleDeg: 45 }, arms: { root: { edgeMarginMm: 5.5 }, tipPadMarginMm: 3.5 } }))).parts.find((p) => p.name === 'arm')!;
     const coarse = nestParts([{ part: arm, count: 54 }], { sheet: { widthMm: 400, heightMm: 300 }, spacingMm: SPACING, marginMm: MARGIN, refine: false });
     const r = nestParts([{ part: arm, count: 54 }], { sheet: { widthMm: 400, heightMm: 300 }, spacingMm: SPACING, marginMm: MARGIN });
     expect(r.sheets.length).toBeLessThanOrEqual(coarse.sheets.length);

@@ -11,7 +11,7 @@ const LAYOUTS: Record<string, unknown> = {
   'true X': { kind: 'x', wheelbaseMm: 224, armAngleDeg: 45 },
   'stretched X': { kind: 'x', wheelbaseMm: 240, armAngleDeg: 36 },
   'squashed X': { kind: 'x', wheelbaseMm: 240, armAngleDeg: 57 },
-  H: { kind: 'h', wheelbaseMm: 250, armAngleDeg: 25, frontArmStartMm: [40, 15], rearArmStartMm: [-40, 15] },
+  H: { kind: 'h', wheelbaseMm: 250, armAngleDeg: 25, frontArmStartMm: [30, 12], rearArmStartMm: [-30, 12] },
   asymmetric: { kind: 'asymmetric', front: { reachMm: 105, angleDeg: 62 }, rear: { reachMm: 130, angleDeg: 38 } },
 };
 

@@ -1,21 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import YAML, { isMap, isPair, isScalar, isSeq, parseDocument, visit } from 'yaml';
+import YAML, { isPair, isScalar, parseDocument, visit } from 'yaml';
 import { editDesignText, makeVariant } from '../../src/variant/index.js';
 import { demoText } from './helpers.js';
 import { propBodyClearanceMm } from '../../src/variant/body.js';
 import { parseDesignText } from '../../src/params/index.js';
+import { yamlComments as comments } from '../helpers/yaml.js';
 
-/** Every comment of a YAML text, in order, as the `yaml` package's own parser sees it. */
-function comments(text: string): string[] {
-  const out: string[] = [];
-  const doc = parseDocument(text);
-  if (doc.commentBefore) out.push(doc.commentBefore);
-  visit(doc, (_k, node) => {
-    if ((isScalar(node) || isMap(node) || isSeq(node)) && (node.commentBefore || node.comment)) out.push(`${node.commentBefore ?? ''}|${node.comment ?? ''}`);
-  });
-  if (doc.comment) out.push(doc.comment);
-  return out;
-}
 
 /** Key paths in document order. */
 function keyOrder(text: string): string[] {
