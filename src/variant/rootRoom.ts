@@ -26,6 +26,11 @@ export const ROOT_CLEARANCE_MM = 1;
  * positive when they are apart (a lower bound of their distance), negative when they overlap. mm.
  */
 export function convexGapMm(a: readonly Vec2[], b: readonly Vec2[]): number {
+  // Boxes apart by more than any clearance asked here: that gap is a lower bound too, and cheap.
+  const ba = boxOf(a);
+  const bb = boxOf(b);
+  const boxGap = Math.max(bb[0] - ba[2], ba[0] - bb[2], bb[1] - ba[3], ba[1] - bb[3]);
+  if (boxGap >= ROOT_CLEARANCE_MM) return boxGap;
   let best = -Infinity;
   for (const [p, q] of [[a, b], [b, a]] as const) {
     for (let i = 0; i < p.length; i++) {
@@ -46,6 +51,13 @@ export function convexGapMm(a: readonly Vec2[], b: readonly Vec2[]): number {
     }
   }
   return best;
+}
+
+/** Bounding box [minX, minY, maxX, maxY] of a point list. */
+function boxOf(pts: readonly Vec2[]): [number, number, number, number] {
+  let b: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
+  for (const [x, y] of pts) b = [Math.min(b[0], x), Math.min(b[1], y), Math.max(b[2], x), Math.max(b[3], y)];
+  return b;
 }
 
 /** Chord tolerance for the arm hulls: coarse, the hull only has to contain the arm. mm. */
