@@ -8,7 +8,7 @@ import { radToDeg } from '../params/units.js';
 import { finding, mid, mm } from './finding.js';
 import { heywoodKtn, lekhnitskiiKt } from './laminate.js';
 import type { CheckOptions } from './options.js';
-import type { PartIndex } from './partIndex.js';
+import { edgeFirst, type PartIndex } from './partIndex.js';
 import { buildBoxGrid, queryBoxGrid, type BoxGrid } from './spatial.js';
 import type { Finding } from './types.js';
 
@@ -61,28 +61,33 @@ export function freeEdges(ix: PartIndex): FreeEdges {
  * e: distance from the bolt centre to the nearest free edge, searching outward with a doubling
  * radius (exact on lines and arcs). For a slot the bolt may sit anywhere on its centre line, and
  * since the slot is that line grown by D/2, e = (slot contour to free edge) + D/2. mm.
+ * With `capMm`, the search stops there: null means e > capMm (or no free edge at all).
  */
-export function edgeDistance(ix: PartIndex, h: BoltHole, free: FreeEdges = freeEdges(ix)): { eMm: number; at: Vec2; edge: number } | null {
+export function edgeDistance(ix: PartIndex, h: BoltHole, free: FreeEdges = freeEdges(ix), capMm = Infinity): { eMm: number; at: Vec2; edge: number } | null {
   const own = ix.contours[h.contour];
   const box = h.slot ? own.bbox : ([h.center[0], h.center[1], h.center[0], h.center[1]] as const);
+  // The cap on e as a cap on the searched distance (a slot's contour lies D/2 nearer the edge).
+  const capGap = h.slot ? capMm - h.diameterMm / 2 : capMm;
+  if (capGap < 0) return null;
   for (let r = h.diameterMm; ; r *= 2) {
+    const reach = Math.min(r, capGap);
     let best: { eMm: number; at: Vec2; edge: number } | null = null;
-    for (const k of queryBoxGrid(free.grid, box, r)) {
+    for (const k of queryBoxGrid(free.grid, box, reach)) {
       const s = ix.segs[free.ids[k]];
       if (s.contour === h.contour) continue;
       if (h.slot) {
         for (const seg of own.loop) {
           const c = segmentDistance(seg, s.s);
           const e = c.distance + h.diameterMm / 2;
-          if (c.distance <= r && (!best || e < best.eMm)) best = { eMm: e, at: c.p, edge: s.contour };
+          if (c.distance <= reach && (!best || e < best.eMm)) best = { eMm: e, at: c.p, edge: s.contour };
         }
       } else {
         const c = closestPoint(s.s, h.center);
-        if (c.distance <= r && (!best || c.distance < best.eMm)) best = { eMm: c.distance, at: c.point, edge: s.contour };
+        if (c.distance <= reach && (!best || c.distance < best.eMm)) best = { eMm: c.distance, at: c.point, edge: s.contour };
       }
     }
     if (best) return best;
-    if (r > 2 * ix.spanMm) return null;
+    if (reach >= capGap || r > 2 * ix.spanMm) return null;
   }
 }
 
@@ -96,8 +101,14 @@ export function holeEdgeRule(ix: PartIndex, o: CheckOptions, holes: readonly Bol
   const findings: Finding[] = [];
   let minRatio: number | null = null;
   const free = freeEdges(ix);
-  for (const h of holes) {
-    const e = edgeDistance(ix, h, free);
+  // Holes nearest the edge first; each search stops at the larger of the warning level and the
+  // smallest e/D so far (a hole beyond both neither warns nor lowers the metric): linear in holes.
+  const order = edgeFirst(ix);
+  const rank = new Map(order.map((k, i) => [k, i]));
+  const byEdge = [...holes].sort((a, b) => (rank.get(a.contour) ?? 0) - (rank.get(b.contour) ?? 0));
+  for (const h of byEdge) {
+    const capRatio = Math.max(lim.enabled ? lim.warnEdgeRatio : 0, minRatio ?? Infinity);
+    const e = edgeDistance(ix, h, free, capRatio * h.diameterMm);
     if (!e) continue;
     const ratio = e.eMm / h.diameterMm;
     minRatio = minRatio === null ? ratio : Math.min(minRatio, ratio);

@@ -60,15 +60,10 @@ const cmp = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
 /** Assemble a report: findings in a stable order (part order, then severity, rule, position). */
 export function makeReport(parts: readonly PartMetrics[], findings: readonly Finding[]): CheckReport {
   const order = new Map(parts.map((p, i) => [p.name, i]));
-  const sorted = [...findings].sort(
-    (a, b) =>
-      (order.get(a.part) ?? parts.length) - (order.get(b.part) ?? parts.length) ||
-      SEVERITY_ORDER[a.severity] - SEVERITY_ORDER[b.severity] ||
-      cmp(a.rule, b.rule) ||
-      (a.atMm?.[0] ?? 0) - (b.atMm?.[0] ?? 0) ||
-      (a.atMm?.[1] ?? 0) - (b.atMm?.[1] ?? 0) ||
-      cmp(a.message, b.message),
-  );
+  // Sort keys computed once per finding (thousands of findings on a drilled plate).
+  const keyed = findings.map((f) => ({ f, part: order.get(f.part) ?? parts.length, sev: SEVERITY_ORDER[f.severity], x: f.atMm?.[0] ?? 0, y: f.atMm?.[1] ?? 0 }));
+  keyed.sort((a, b) => a.part - b.part || a.sev - b.sev || cmp(a.f.rule, b.f.rule) || a.x - b.x || a.y - b.y || cmp(a.f.message, b.f.message));
+  const sorted = keyed.map((k) => k.f);
   return {
     units: 'mm',
     parts,
