@@ -9,7 +9,7 @@ const read = (rel: string): string => readFileSync(new URL(`../../designs/${rel}
 
 /** "2 mm: 3 sheets (bound 1.47, 49 %)" per thickness, then the whole batch. */
 function utilisationNote(r: NestResult): string {
-  const groups = r.groups.map((g) => `${g.thicknessMm} mm ${g.sheets} sh (bound ${g.areaBoundSheets.toFixed(2)}) ${(g.utilisation * 100).toFixed(0)} %`);
+  const groups = r.groups.map((g) => `${g.thicknessMm} mm ${g.sheets} sh (bound ${g.lowerBoundSheets}, ${g.boundSheets.toFixed(2)}) ${(g.utilisation * 100).toFixed(0)} %`);
   const area = r.groups.reduce((a, g) => a + g.partAreaMm2, 0);
   const sheets = r.groups.reduce((a, g) => a + g.sheets, 0);
   const sheetArea = r.sheets[0].widthMm * r.sheets[0].heightMm;

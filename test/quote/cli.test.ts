@@ -15,7 +15,7 @@ type Report = {
   frames: number;
   checks: { errors: number; warnings: number } | null;
   parts: Array<{ name: string; total: number; toolPathMm: number; pierces: number }>;
-  nesting: { groups: Array<{ thicknessMm: number; sheets: number; utilisation: number; areaBoundSheets: number }>; sheets: Array<{ index: number; thicknessMm: number; parts: number; sizeMm: [number, number] }> };
+  nesting: { groups: Array<{ thicknessMm: number; sheets: number; utilisation: number; lowerBoundSheets: number; boundSheets: number; minGapMm: number | null }>; sheets: Array<{ index: number; thicknessMm: number; parts: number; sizeMm: [number, number] }> };
   batch: { cost: { total: number; material: number }; timeMin: { totalMin: number } };
   perFrame: { cost: number };
   files: string[];
@@ -47,7 +47,11 @@ describe('framewright quote (the built CLI)', () => {
     expect(report.parts.map((p) => p.name)).toEqual(frame.parts.map((p) => p.name));
     for (const p of report.parts) expect(p.total).toBe(frame.parts.find((x) => x.name === p.name)!.quantity * 2);
     expect(new Set(report.nesting.groups.map((g) => g.thicknessMm))).toEqual(new Set(frame.parts.map((p) => p.thicknessMm)));
-    for (const g of report.nesting.groups) expect(g.sheets).toBeGreaterThanOrEqual(Math.ceil(g.areaBoundSheets));
+    for (const g of report.nesting.groups) {
+      expect(g.sheets).toBeGreaterThanOrEqual(g.lowerBoundSheets);
+      expect(g.lowerBoundSheets).toBe(Math.max(1, Math.ceil(g.boundSheets - 1e-9)));
+      expect(g.minGapMm!).toBeGreaterThanOrEqual(3.175 + 2);
+    }
     expect(report.batch.cost.total).toBeGreaterThan(report.batch.cost.material);
     expect(report.perFrame.cost).toBeCloseTo(report.batch.cost.total / 2, 3);
   });
