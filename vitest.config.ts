@@ -1,3 +1,4 @@
+import { availableParallelism } from 'node:os';
 import { defineConfig } from 'vitest/config';
 
 export default defineConfig({
@@ -6,5 +7,8 @@ export default defineConfig({
     testTimeout: 60_000,
     hookTimeout: 60_000,
     pool: 'forks',
+    // vitest's default leaves one core idle (one worker on a two-core machine); much of this suite
+    // waits on reference programs (ccx, gmsh, python), so every core gets a test file.
+    maxWorkers: Math.max(2, availableParallelism()),
   },
 });

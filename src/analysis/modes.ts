@@ -4,6 +4,7 @@ import type { PlateMesh } from './mesh.js';
 import { defaultMeshSizeMm, featureCentre, featureNodes, meshMassG, motorsOnPlate, plateModel, withFixed, withMasses, type AddedMass, type PlateModel } from './plateModel.js';
 import { solvePlateModes } from './solve.js';
 import { armTipDeflection, bodyTwist, rootLoadedBodyTwist, type ArmStatics, type BodyTwist, type TipDeflection, unibodyTipDeflections } from './statics.js';
+import { DEFAULT_THRUST_N } from './defaults.js';
 
 export type ModeOptions = Readonly<{
   /** Elastic modes wanted per model (default 6, 1 to 200). */
@@ -56,8 +57,7 @@ export type ModalResult = Readonly<{
   mesh: PlateMesh;
 }>;
 
-/** Thrust used for static figures when none is given, N (a 5-inch motor near hover-to-punch; common practice, no source). */
-export const DEFAULT_THRUST_N = 10;
+export { DEFAULT_THRUST_N };
 
 /**
  * Natural modes of a part as cut, free in space (free–free): the lowest `modes` elastic modes.

@@ -18,7 +18,7 @@ export const cases: BenchCase[] = [
     target: 'under 1 s per design',
     budgetMs: 1000,
     setup: () => readFileSync(designPath(name), 'utf8'),
-    run: (text: unknown) => buildOutputs(buildFrame(parseDesignText(text as string)), 'out', {}).files.length,
+    run: async (text: unknown) => (await buildOutputs(buildFrame(parseDesignText(text as string)), 'out', {})).files.length,
     note: (n: unknown) => `${String(n)} files`,
   })),
   {

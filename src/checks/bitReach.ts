@@ -1,5 +1,6 @@
 import { EndType, JoinType, inflatePathsD, type PathsD } from 'clipper2-ts';
-import { asCircle, flattenLoop, reverseLoop } from '../geometry/loop.js';
+import { distanceToLoop, isInside } from '../geometry/inside.js';
+import { asCircle, flattenLoop, loopBBox, reverseLoop } from '../geometry/loop.js';
 import { endOf, tangentAt } from '../geometry/segment.js';
 import type { Loop, Vec2 } from '../geometry/types.js';
 import { cross, dot } from '../geometry/vec.js';
@@ -61,8 +62,24 @@ export function sharpInsideCorners(loop: Loop, contour: number): InsideCorner[] 
   return out;
 }
 
-/** Does the void of this inner contour disappear when eroded by the tool radius? */
+/**
+ * Is some point of the void deeper than the tool radius plus the vanish margin? Then the eroded
+ * void is not empty, exactly (distances to true arcs). Tries the centres of the loop's arcs and of
+ * its bounding box, which settles slots, rounded cut-outs and strap slots; false only means "not
+ * shown this way".
+ */
+function clearlyEnterable(loop: Loop, toolRadiusMm: number): boolean {
+  const b = loopBBox(loop);
+  const candidates: Vec2[] = [[(b[0] + b[2]) / 2, (b[1] + b[3]) / 2], ...loop.flatMap((s) => (s.kind === 'arc' ? [s.center] : []))];
+  return candidates.some((p) => isInside(loop, p) && distanceToLoop(loop, p) > toolRadiusMm + VANISH_MARGIN_MM);
+}
+
+/**
+ * Does the void of this inner contour disappear when eroded by the tool radius? A point deeper
+ * than the tool radius answers no at once; otherwise a polygon offset (clipper2) decides.
+ */
 export function vanishesForTool(loop: Loop, toolRadiusMm: number): boolean {
+  if (clearlyEnterable(loop, toolRadiusMm)) return false;
   const pts = flattenLoop(reverseLoop(loop), VANISH_CHORD_MM);
   const paths: PathsD = [pts.map(([x, y]) => ({ x, y }))];
   const shrunk = inflatePathsD(paths, -(toolRadiusMm - VANISH_MARGIN_MM), JoinType.Round, EndType.Polygon, 2, 6, VANISH_CHORD_MM);

@@ -4,6 +4,7 @@ import { loopBBox, transformLoop } from '../geometry/loop.js';
 import type { Part } from '../geometry/part.js';
 import { circle, roundedRect } from '../geometry/primitives.js';
 import type { Loop, Vec2 } from '../geometry/types.js';
+import { closestPoint } from '../geometry/segment.js';
 import { dist } from '../geometry/vec.js';
 import { degToRad } from '../params/units.js';
 import { discViewMargin, smallestHiding, type CameraPose, type PropDisc } from './camera.js';
@@ -101,8 +102,9 @@ export function propClearanceRule(frame: Frame, o: CheckOptions, discs: readonly
     out.push(finding(PROP_RULE, 'error', FRAME_PART, g.gapMm, o.minTipGapMm, 'mm', g.atMm,
       `prop tips ${g.a} and ${g.b} are ${mm(g.gapMm)} apart, below ${mm(o.minTipGapMm)}; lengthen the arms or use smaller props`));
   }
+  const obstacles = planObstacles(frame, o);
   for (const disc of discs) {
-    for (const ob of planObstacles(frame, o)) {
+    for (const ob of obstacles) {
       const clearance = signedDistance(ob.loop, disc.centerMm) - disc.radiusMm;
       const spans = ob.zMinMm <= disc.zMm && disc.zMm <= ob.zMaxMm;
       if (spans && clearance < lim.minPartClearanceMm) {
@@ -122,6 +124,18 @@ export function propClearanceRule(frame: Frame, o: CheckOptions, discs: readonly
 
 /** The point of the disc edge nearest the obstacle (where to put the marker). */
 function nearestTip(disc: PropDisc, loop: Loop): Vec2 {
+  const c = disc.centerMm;
+  if (windingNumber(loop, c) === 0) {
+    // Centre outside: the nearest edge point lies towards the obstacle's nearest boundary point (exact).
+    let q: Vec2 | null = null;
+    let d = Infinity;
+    for (const s of loop) {
+      const cp = closestPoint(s, c);
+      if (cp.distance < d) [d, q] = [cp.distance, cp.point];
+    }
+    if (q && d > 1e-9) return [c[0] + (disc.radiusMm * (q[0] - c[0])) / d, c[1] + (disc.radiusMm * (q[1] - c[1])) / d];
+  }
+  // Centre inside the obstacle (no frame puts a motor there): the deepest of 360 edge points.
   let best: { d: number; p: Vec2 } | null = null;
   for (let k = 0; k < 360; k++) {
     const a = (k * Math.PI) / 180;

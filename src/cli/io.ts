@@ -1,115 +1,143 @@
-import { existsSync, mkdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
-import { dirname, join, resolve } from 'node:path';
-import { parseDesignText, type Design } from '../params/index.js';
+import { closeSync, fstatSync, openSync, readSync } from 'node:fs';
+import type { Design } from '../params/design.js';
 import { DesignError } from '../params/errors.js';
+import { printable } from '../export/format.js';
+import { binaryKind, decodeText } from './fileKind.js';
+import { UsageError } from './usageError.js';
 
-/** Bad usage or input: printed without a stack trace, exit code 2. */
-export class UsageError extends Error {}
+// This module is loaded by every command at start-up (main.ts imports reportError): keep it free
+// of heavy imports. Stages are loaded with `await import()` where they are used.
 
-/** A text file's contents; a missing or unreadable file is a UsageError naming it. */
-export function readText(path: string): string {
+export { UsageError };
+
+/** Largest design or shop file read, bytes. A design is a few kilobytes; this leaves room for generated ones. */
+export const MAX_DESIGN_BYTES = 1024 * 1024;
+
+/**
+ * Largest DXF read, bytes. Beyond the reader's 5 million group-code pairs (about 12 bytes a pair)
+ * no drawing can be read anyway; a plate drawing is kilobytes, a full sheet a few megabytes.
+ */
+export const MAX_DXF_BYTES = 64 * 1024 * 1024;
+
+/** The path that means standard input. */
+export const STDIN_PATH = '-';
+
+const CHUNK = 64 * 1024;
+const MB = (n: number): string => `${(n / 1048576).toFixed(n < 1048576 ? 2 : 0)} MB`;
+const shownName = (path: string): string => (path === STDIN_PATH ? 'standard input' : path);
+
+/**
+ * Read a whole file (or standard input for `-`) but never more than `maxBytes`: a regular file
+ * is judged by its size before reading, anything else (a pipe, a device such as /dev/zero) is read
+ * in chunks and refused as soon as it passes the limit, or as soon as its first chunk shows it is
+ * binary when `refuseBinary` is set. `what` names the expected content in messages
+ * ("a design file (YAML or JSON)"). Throws UsageError naming the file, exit code 2.
+ *
+ * @example readBounded('designs/tessel-5.yaml', MAX_DESIGN_BYTES, 'a design file (YAML or JSON)')
+ */
+export function readBounded(path: string, maxBytes: number, what: string, refuseBinary = true): Buffer {
+  const name = shownName(path);
+  let fd: number;
   try {
-    return readFileSync(path, 'utf8');
+    fd = path === STDIN_PATH ? 0 : openSync(path, 'r');
   } catch (e) {
-    throw new UsageError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
+    throw new UsageError(`cannot read ${name}: ${errCode(e)}`);
+  }
+  try {
+    const st = fstatSync(fd);
+    if (st.isDirectory()) throw new UsageError(`${name} is a folder, not ${what}`);
+    if (st.isFile() && st.size > maxBytes) throw new UsageError(`${name} is ${MB(st.size)}, more than the ${MB(maxBytes)} allowed for ${what}`);
+    const chunks: Buffer[] = [];
+    let total = 0;
+    for (;;) {
+      const buf = Buffer.allocUnsafe(CHUNK);
+      const n = readChunk(fd, buf);
+      if (n === 0) break;
+      if (total === 0 && refuseBinary) {
+        const kind = binaryKind(buf.subarray(0, n));
+        if (kind) throw new UsageError(`${name} is ${kind}, not ${what}`);
+      }
+      chunks.push(buf.subarray(0, n));
+      total += n;
+      if (total > maxBytes) throw new UsageError(`${name} is more than the ${MB(maxBytes)} allowed for ${what}; nothing was read beyond that`);
+    }
+    return Buffer.concat(chunks, total);
+  } catch (e) {
+    if (e instanceof UsageError) throw e;
+    throw new UsageError(`cannot read ${name}: ${errCode(e)}`);
+  } finally {
+    if (fd !== 0) closeSync(fd);
   }
 }
 
-/** Read and validate a design file. A DXF drawing is refused with a pointer to the commands that take one. */
-export function readDesign(path: string): Design {
+/** One read; a non-blocking standard input that has nothing yet is waited for. */
+function readChunk(fd: number, buf: Buffer): number {
+  for (;;) {
+    try {
+      return readSync(fd, buf, 0, buf.length, null);
+    } catch (e) {
+      const code = (e as NodeJS.ErrnoException).code;
+      if (code === 'EAGAIN') {
+        Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, 5);
+        continue;
+      }
+      if (code === 'EOF') return 0;
+      throw e;
+    }
+  }
+}
+
+const errCode = (e: unknown): string => (e as NodeJS.ErrnoException).code ?? (e as Error).message;
+
+/**
+ * A YAML or JSON input file's text (design, shop profile, sidecar): bounded by
+ * MAX_DESIGN_BYTES, UTF-8 or UTF-16. A PDF, an image, a binary file or UTF-32 text is refused
+ * saying what it is. Throws UsageError.
+ */
+export function readText(path: string, what = 'a YAML or JSON file'): string {
+  const d = decodeText(readBounded(path, MAX_DESIGN_BYTES, what));
+  if ('kind' in d) throw new UsageError(`${shownName(path)} is ${d.kind}, not ${what}`);
+  if ('problem' in d) throw new UsageError(`${shownName(path)} is ${d.problem}`);
+  return d.text;
+}
+
+/**
+ * DXF text: bounded by MAX_DXF_BYTES; UTF-8 (R2007 and later) or, when that fails, the
+ * single-byte code page older files use. Binary files are refused saying what they are.
+ */
+export function readDxfText(path: string): string {
+  const bytes = readBounded(path, MAX_DXF_BYTES, 'a DXF drawing');
+  try {
+    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    return bytes.toString('latin1');
+  }
+}
+
+/**
+ * Read and validate a design file (the validation stage is loaded on first use). A DXF drawing is
+ * refused with a pointer to the commands that take one. Throws UsageError or DesignError.
+ */
+export async function readDesign(path: string): Promise<Design> {
   if (/\.dxf$/i.test(path)) {
     throw new UsageError(`${path} is a DXF drawing; this command takes a design file (YAML or JSON). For a DXF use \`framewright check\` or \`framewright modes\`.`);
   }
-  return parseDesignText(readText(path), path);
+  const text = readText(path, 'a design file (YAML or JSON)');
+  const { parseDesignText } = await import('../params/design.js');
+  return parseDesignText(text, shownName(path));
 }
 
-/** One output file to write: its path and its bytes. */
-export type OutputFile = Readonly<{ path: string; data: string | Uint8Array }>;
-
-/**
- * Make a folder and its missing parents one level at a time (a recursive mkdir can spin forever on
- * special file systems). Returns the folders it created, outermost first. Throws UsageError.
- */
-function ensureDir(dir: string): string[] {
-  const missing: string[] = [];
-  let d = resolve(dir);
-  for (;;) {
-    let st;
-    try {
-      st = statSync(d);
-    } catch (e) {
-      if ((e as NodeJS.ErrnoException).code !== 'ENOENT') throw new UsageError(`cannot write into ${dir}: ${(e as NodeJS.ErrnoException).code}`);
-      missing.push(d);
-      const up = dirname(d);
-      if (up === d) break;
-      d = up;
-      continue;
-    }
-    if (!st.isDirectory()) throw new UsageError(`cannot write into ${dir}: ${d} is not a folder`);
-    break;
-  }
-  const created: string[] = [];
-  for (const m of missing.reverse()) {
-    try {
-      mkdirSync(m);
-    } catch (e) {
-      throw new UsageError(`cannot create ${m}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
-    }
-    created.push(m);
-  }
-  return created;
-}
-
-/**
- * Write every file or none: each goes to a temporary name beside its target; only when all are
- * written are they renamed into place, and a file that was already there is kept aside until the
- * end so a failed rename puts everything back as it was. File-system failures become UsageError
- * (exit 2) naming the path.
- */
-export function writeAllAtomically(files: readonly OutputFile[]): void {
-  const temps: Array<{ tmp: string; path: string; backup?: string }> = [];
-  const createdDirs: string[] = [];
-  const renamed: Array<{ tmp: string; path: string; backup?: string }> = [];
-  try {
-    for (const f of files) {
-      createdDirs.push(...ensureDir(dirname(f.path)));
-      const tmp = join(dirname(f.path), `.${process.pid}.${temps.length}.tmp`);
-      writeFileSync(tmp, f.data);
-      temps.push({ tmp, path: f.path });
-    }
-    for (const t of temps) {
-      if (existsSync(t.path)) {
-        t.backup = `${t.tmp}.previous`;
-        renameSync(t.path, t.backup);
-      }
-      renameSync(t.tmp, t.path);
-      renamed.push(t);
-    }
-  } catch (e) {
-    for (const t of renamed.reverse()) {
-      rmSync(t.path, { force: true });
-      if (t.backup) renameSync(t.backup, t.path);
-    }
-    for (const t of temps) {
-      rmSync(t.tmp, { force: true });
-      if (t.backup && existsSync(t.backup) && !renamed.includes(t)) renameSync(t.backup, t.path);
-    }
-    for (const d of createdDirs.reverse()) rmSync(d, { recursive: true, force: true });
-    if (e instanceof UsageError) throw e;
-    const err = e as NodeJS.ErrnoException;
-    throw new UsageError(`cannot write ${err.path ?? 'the output'}: ${err.code ?? err.message}; nothing was written`);
-  }
-  for (const t of temps) if (t.backup) rmSync(t.backup, { force: true });
-}
+export { writeAllAtomically, recoverOutputs, SET_MARKER, type OutputFile } from './outputSet.js';
 
 /** Turn an error into a message and exit code; a bug (anything unexpected) keeps its stack. */
 export function reportError(e: unknown): number {
   if (e instanceof DesignError) {
-    process.stderr.write(`framewright: ${e.issues.length === 1 ? 'a problem' : `${e.issues.length} problems`} in the input; nothing was written.\n${e.message}\n`);
+    process.stderr.write(printable(`framewright: ${e.issues.length === 1 ? 'a problem' : `${e.issues.length} problems`} in the input; nothing was written.\n${e.message}\n`));
     return 2;
   }
   if (e instanceof UsageError) {
-    process.stderr.write(`framewright: ${e.message}\n`);
+    // printable: a file name or value must not reach the terminal with control characters in it.
+    process.stderr.write(printable(`framewright: ${e.message}\n`));
     return 2;
   }
   process.stderr.write(`framewright: internal error (please report it with the design file):\n${(e as Error)?.stack ?? String(e)}\n`);

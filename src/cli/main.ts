@@ -1,27 +1,13 @@
 #!/usr/bin/env node
-import { Command } from 'commander';
-import { reportError } from './io.js';
-import { registerCommands } from './commands/index.js';
+import { runCommandLine } from './run.js';
 
-const program = new Command();
-program
-  .name('framewright')
-  .description('Parametric carbon-plate multirotor frames: plate geometry, design-rule checks, stiffness, variants, nesting, quotes and cut files.')
-  .version('0.1.0')
-  .showHelpAfterError()
-  .configureOutput({ writeErr: (s) => process.stderr.write(s) })
-  .exitOverride();
-
-registerCommands(program);
-
-try {
-  await program.parseAsync(process.argv);
-} catch (e) {
-  const code = (e as { code?: string }).code;
-  if (typeof code === 'string' && code.startsWith('commander.')) {
-    const helpOrVersion = code === 'commander.helpDisplayed' || code === 'commander.version' || code === 'commander.help';
-    process.exitCode = helpOrVersion ? 0 : 2;
-  } else {
-    process.exitCode = reportError(e);
-  }
+// A reader that stops early (`framewright schema | head`) closes the pipe: end quietly, as a shell
+// tool does, instead of a stack trace for the write that could not be delivered.
+for (const stream of [process.stdout, process.stderr]) {
+  stream.on('error', (e: NodeJS.ErrnoException) => {
+    if (e.code !== 'EPIPE') throw e;
+    process.exit(typeof process.exitCode === 'number' ? process.exitCode : 0);
+  });
 }
+
+process.exitCode = await runCommandLine(process.argv);

@@ -1,4 +1,4 @@
-import { fmt } from './format.js';
+import { dxfCommentLines, fmt, plainLine } from './format.js';
 import { DXF_LAYERS, type DxfDocument, type DxfEntity } from './dxfDocument.js';
 import { assertNever } from '../geometry/types.js';
 
@@ -12,7 +12,7 @@ export function writeDxfR12(doc: DxfDocument): string {
   const tag = (code: number, value: string | number) => {
     out.push(String(code).padStart(3, ' '), typeof value === 'number' ? fmt(value, 6) : value);
   };
-  for (const c of doc.comments) tag(999, c.replace(/[\r\n]+/g, ' '));
+  for (const line of dxfCommentLines(doc.comments)) tag(999, line);
   const [x0, y0, x1, y1] = Number.isFinite(doc.extents[0]) ? doc.extents : [0, 0, 0, 0];
   tag(0, 'SECTION'); tag(2, 'HEADER');
   tag(9, '$ACADVER'); tag(1, 'AC1009');
@@ -68,7 +68,7 @@ function entity(e: DxfEntity, tag: (code: number, value: string | number) => voi
       tag(0, 'SEQEND'); tag(8, e.layer);
       return;
     case 'text':
-      tag(0, 'TEXT'); tag(8, e.layer); tag(10, e.x); tag(20, e.y); tag(30, 0); tag(40, e.height); tag(1, e.text.replace(/[\r\n]+/g, ' '));
+      tag(0, 'TEXT'); tag(8, e.layer); tag(10, e.x); tag(20, e.y); tag(30, 0); tag(40, e.height); tag(1, plainLine(e.text));
       return;
     default:
       assertNever(e);

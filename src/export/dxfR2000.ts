@@ -1,6 +1,8 @@
 import DxfWriter from 'dxf-writer';
+import Handle from 'dxf-writer/src/Handle.js';
 import { assertNever } from '../geometry/types.js';
 import { DXF_LAYERS, type DxfDocument } from './dxfDocument.js';
+import { dxfCommentLines, plainLine } from './format.js';
 
 /** Coordinates rounded the same way as the R12 writer, so both give stable bytes. */
 const r6 = (x: number): number => {
@@ -14,6 +16,9 @@ const r6 = (x: number): number => {
  * element of a polyline point although the code writes it, hence the local cast.
  */
 export function writeDxfR2000(doc: DxfDocument): string {
+  // dxf-writer numbers handles from one counter shared by every drawing of the process; restart it
+  // for each file, so a file's bytes depend on its content alone (not on what was written before).
+  Handle.seed = 0;
   const d = new DxfWriter();
   d.setUnits('Millimeters');
   (d as unknown as { header(v: string, vals: Array<[number, string | number]>): void }).header('ACADVER', [[1, 'AC1015']]);
@@ -37,12 +42,12 @@ export function writeDxfR2000(doc: DxfDocument): string {
         break;
       }
       case 'text':
-        d.drawText(r6(e.x), r6(e.y), r6(e.height), 0, e.text);
+        d.drawText(r6(e.x), r6(e.y), r6(e.height), 0, plainLine(e.text));
         break;
       default:
         assertNever(e);
     }
   }
-  const comments = doc.comments.map((c) => `999\n${c.replace(/[\r\n]+/g, ' ')}\n`).join('');
+  const comments = dxfCommentLines(doc.comments).map((line) => `999\n${line}\n`).join('');
   return comments + d.toDxfString();
 }

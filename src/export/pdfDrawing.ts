@@ -2,6 +2,7 @@ import PDFDocument from 'pdfkit';
 import type { Vec2 } from '../geometry/types.js';
 import { assertNever } from '../geometry/types.js';
 import { type DrawingSet, type PaperItem, type PaperSheet, type Stroke } from '../quote/index.js';
+import { plainLine } from './format.js';
 import { loopPathData } from './svgPath.js';
 
 /** PDF points per millimetre (72 pt per inch, 25.4 mm per inch). */
@@ -27,7 +28,7 @@ export async function drawingToPdf(set: DrawingSet, sheets: readonly PaperSheet[
   const doc = new PDFDocument({
     autoFirstPage: false,
     compress: true,
-    info: { Title: `${set.design} rev ${set.revision} - drawing and quote`, Creator: 'framewright', Producer: 'framewright', CreationDate: date, ModDate: date },
+    info: { Title: plainLine(`${set.design} rev ${set.revision} - drawing and quote`), Creator: 'framewright', Producer: 'framewright', CreationDate: date, ModDate: date },
   });
   const chunks: Buffer[] = [];
   const done = new Promise<void>((resolve, reject) => {
@@ -75,12 +76,13 @@ function draw(doc: PDFKit.PDFDocument, item: PaperItem, flip: (p: Vec2) => Vec2)
     case 'text': {
       const at = flip(item.at);
       doc.font(item.bold ? 'Helvetica-Bold' : 'Helvetica').fontSize(item.sizeMm).fillColor('black');
-      const w = doc.widthOfString(item.text);
+      const text = plainLine(item.text);
+      const w = doc.widthOfString(text);
       const dx = item.anchor === 'start' ? 0 : item.anchor === 'middle' ? -w / 2 : -w;
       doc.save();
       // pdfkit turns clockwise on the y-down page; the layout's angles are counter-clockwise.
       if (item.rotateDeg) doc.rotate(-item.rotateDeg, { origin: [at[0], at[1]] });
-      doc.text(item.text, at[0] + dx, at[1], { lineBreak: false, baseline: 'alphabetic' });
+      doc.text(text, at[0] + dx, at[1], { lineBreak: false, baseline: 'alphabetic' });
       doc.restore();
       return;
     }

@@ -12,7 +12,7 @@ export type SvgPartOptions = Readonly<{
   strokeMm?: number;
   /** Extra SVG elements drawn over the part, in part coordinates (y up); e.g. check markers. */
   overlay?: string;
-  /** A comment placed at the top of the file (e.g. the finding count of a forced build). */
+  /** A note in the file's description (`<desc>`, e.g. the finding count of a forced build). */
   comment?: string;
 }>;
 
@@ -31,9 +31,10 @@ export function partToSvg(part: Part, options: SvgPartOptions = {}): string {
   const inner = options.innerColor ?? '#d00000';
   const lines = [
     '<?xml version="1.0" encoding="UTF-8"?>',
-    ...(options.comment ? [`<!-- ${xmlEscape(options.comment)} -->`] : []),
     `<svg xmlns="http://www.w3.org/2000/svg" width="${fmt(w, 4)}mm" height="${fmt(h, 4)}mm" viewBox="0 0 ${fmt(w, 4)} ${fmt(h, 4)}">`,
     `<title>${xmlEscape(part.name)}</title>`,
+    // A description, not an XML comment: a comment may not hold "--" (XML 1.0, 2.5), and notes say "--force".
+    ...(options.comment ? [`<desc>${xmlEscape(options.comment)}</desc>`] : []),
     `<g fill="none" stroke-width="${stroke}">`,
     `<path id="outline" stroke="${outline}" d="${loopPathData(part.outline, map)}"/>`,
     ...part.features.map((f, i) => `<path id="${f.purpose}-${i}" stroke="${inner}" d="${loopPathData(f.loop, map)}"/>`),

@@ -1,7 +1,7 @@
-import YAML from 'yaml';
 import { z } from 'zod';
 import type { Material } from '../geometry/part.js';
-import { formatIssue, type DesignIssue } from '../params/errors.js';
+import { DesignError, formatIssue, type DesignIssue } from '../params/errors.js';
+import { parseYamlText } from '../params/yamlInput.js';
 import { MaterialSchema } from '../params/schema.js';
 import { DxfReadError } from './errors.js';
 import { DRAWING_UNITS, parseDrawingUnit, type DrawingUnit } from './units.js';
@@ -52,9 +52,10 @@ export type Sidecar = z.infer<typeof SidecarSchema>;
 export function parseSidecarText(text: string, sourceName: string): Sidecar {
   let raw: unknown;
   try {
-    raw = YAML.parse(text);
+    raw = parseYamlText(text, sourceName);
   } catch (e) {
-    throw new DxfReadError(`${sourceName}: not valid YAML: ${(e as Error).message.split('\n')[0]}`);
+    if (!(e instanceof DesignError)) throw e;
+    throw new DxfReadError(e.issues.map((i) => (i.path ? formatIssue(i) : `${sourceName} ${i.message}`)).join('\n'));
   }
   if (raw === null || raw === undefined) return {};
   const r = SidecarSchema.safeParse(raw);

@@ -11,10 +11,20 @@ export class DesignError extends Error {
 
 /** One issue as a line: "path: value message". */
 export function formatIssue(i: DesignIssue): string {
-  const full = i.value === undefined ? '(missing)' : JSON.stringify(i.value);
+  const full = i.value === undefined ? '(missing)' : shownValue(i.value);
   // A whole file pasted where a value belongs (a DXF given as a design) must not flood the terminal.
   const shown = full.length > 60 ? `${full.slice(0, 57)}...` : full;
   return `${i.path || '(design)'}: ${shown} ${i.message}`;
+}
+
+/** A value as the user wrote it: JSON, except the numbers JSON cannot spell (YAML's .nan and .inf). */
+function shownValue(v: unknown): string {
+  if (typeof v === 'number' && !Number.isFinite(v)) return Number.isNaN(v) ? '.nan' : v > 0 ? '.inf' : '-.inf';
+  try {
+    return JSON.stringify(v) ?? String(v);
+  } catch {
+    return String(v);
+  }
 }
 
 /** A DesignError with a single issue. */

@@ -1,3 +1,4 @@
+import { outputNames, runCli } from '../helpers/cli.js';
 import { describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readdirSync, readFileSync } from 'node:fs';
@@ -6,11 +7,8 @@ import { join } from 'node:path';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
 import { REPO } from './helpers.js';
 
-/** The built CLI (npm test builds dist/ first), run from the repository root. */
-function cli(args: string[]) {
-  const r = spawnSync(process.execPath, [join(REPO, 'dist', 'cli', 'main.js'), 'modes', ...args], { cwd: REPO, encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
-  return { code: r.status ?? -1, stdout: r.stdout, stderr: r.stderr };
-}
+/** `framewright modes ...` through the built CLI (npm test builds dist/ first). */
+const cli = (args: string[]) => runCli(['modes', ...args]);
 const STACK = /^\s+at .+:\d+:\d+\)?$/m;
 
 describe('framewright modes', () => {
@@ -53,7 +51,7 @@ describe('framewright modes', () => {
     const dir = mkdtempSync(join(tmpdir(), 'fw-modes-'));
     const r = cli(['designs/tessel-5.yaml', '--part', 'arm', '--modes', '2', '--plot', dir]);
     expect(r.code).toBe(0);
-    const files = readdirSync(dir).sort();
+    const files = outputNames(dir);
     expect(files).toEqual(['arm-arm-root-clamped-mode1.svg', 'arm-arm-root-clamped-mode2.svg', 'arm-free-mode1.svg', 'arm-free-mode2.svg']);
     const svg = readFileSync(join(dir, files[0]), 'utf8');
     expect(svg).toMatch(/ Hz — Tessel 5 · arm · mode 1/);

@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import YAML from 'yaml';
 import { describe, expect, it } from 'vitest';
 import { DESIGNS_DIR, designWith } from '../helpers/demo.js';
-import { runCli, STACK_LINE } from '../helpers/cli.js';
+import { runCli, STACK_LINE, outputNames } from '../helpers/cli.js';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
 
 const tmp = () => mkdtempSync(join(tmpdir(), 'fw-check-'));
@@ -85,7 +85,7 @@ describe('framewright check (the built CLI)', () => {
     const dir = join(tmp(), 'ann');
     const r = runCli(['check', tessel, '--annotate', dir]);
     expect(r.code).toBe(0);
-    const files = readdirSync(dir).sort();
+    const files = outputNames(dir);
     expect(files).toEqual(['arm.check.svg', 'bottom-plate.check.svg', 'brace.check.svg', 'camera-side.check.svg', 'overview.check.svg', 'top-plate.check.svg']);
     const overview = readFileSync(join(dir, 'overview.check.svg'), 'utf8');
     expect(overview).toMatch(/camera view in the prop plane/);
@@ -102,7 +102,7 @@ describe('framewright check (the built CLI)', () => {
   it('--annotate into a path that cannot be a directory is bad input, nothing written (exit 2)', () => {
     const file = join(tmp(), 'plain-file');
     writeFileSync(file, 'x');
-    expectBadInput(runCli(['check', tessel, '--annotate', join(file, 'sub')]), /cannot write the annotated drawings to .*ENOTDIR; nothing was written/);
+    expectBadInput(runCli(['check', tessel, '--annotate', join(file, 'sub')]), /cannot write into .*sub: .*plain-file is not a folder; nothing was written/);
   });
 
   it('--relieve-corners reports the reliefs and re-checks', () => {

@@ -5,7 +5,7 @@ import YAML from 'yaml';
 import { describe, expect, it } from 'vitest';
 import { DEMO_FILES, DESIGNS_DIR, demoFrame, designWith } from '../helpers/demo.js';
 import { partBBox } from '../../src/geometry/index.js';
-import { runCli, STACK_LINE } from '../helpers/cli.js';
+import { outputNames, runCli, STACK_LINE } from '../helpers/cli.js';
 
 const tmp = () => mkdtempSync(join(tmpdir(), 'fw-build-'));
 
@@ -17,7 +17,7 @@ describe('framewright build (the built CLI)', () => {
       expect(r.stderr).toBe('');
       expect(r.code).toBe(0);
       const names = demoFrame(file).parts.map((p) => p.name);
-      const written = readdirSync(out).sort();
+      const written = outputNames(out);
       expect(written).toEqual([...names.flatMap((n) => [`${n}.dxf`, `${n}.svg`]), 'overview.svg'].sort());
       expect(r.stdout).toMatch(/part\s+qty\s+thick mm\s+size mm\s+area mm²\s+mass g\s+cut mm/);
       for (const n of names) expect(r.stdout).toContain(n);
@@ -125,7 +125,7 @@ describe('build runs the checks first', () => {
     const out = join(dir, 'out');
     const r = runCli(['build', path, '--out', out, '--force']);
     expect(r.code).toBe(1);
-    for (const f of readdirSync(out).filter((x) => x !== 'overview.svg')) {
+    for (const f of outputNames(out).filter((x) => x !== 'overview.svg')) {
       expect(readFileSync(join(out, f), 'utf8')).toMatch(/written with --force although the design-rule checks found \d+ errors/);
     }
   });

@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { CheckReport } from '../../src/checks/index.js';
-import { runCli, STACK_LINE } from '../helpers/cli.js';
+import { runCli, STACK_LINE, outputNames } from '../helpers/cli.js';
 import { fixturePath, fixtureText } from './helpers.js';
 
 const tmp = () => mkdtempSync(join(tmpdir(), 'fw-import-'));
@@ -119,6 +119,6 @@ describe('framewright check FILE.dxf (the built CLI)', () => {
     const out = join(tmp(), 'svg');
     const r = runCli(['check', fixturePath('multi-part.dxf'), '--annotate', out]);
     expect(r.code).toBe(0);
-    expect(readdirSync(out).sort()).toEqual(['multi-part-1.check.svg', 'multi-part-2.check.svg', 'multi-part-3.check.svg', 'multi-part-4.check.svg']);
+    expect(outputNames(out)).toEqual(['multi-part-1.check.svg', 'multi-part-2.check.svg', 'multi-part-3.check.svg', 'multi-part-4.check.svg']);
   });
 });

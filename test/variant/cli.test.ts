@@ -4,7 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import YAML from 'yaml';
-import { runCli, STACK_LINE } from '../helpers/cli.js';
+import { runCli, STACK_LINE, outputNames } from '../helpers/cli.js';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
 
 // End to end through the built CLI (npm test builds dist/ first), repo root as cwd.
@@ -67,7 +67,7 @@ describe('framewright variant (built CLI)', () => {
     expect(report.rows.map((x: { propsIn: number }) => x.propsIn)).toEqual([7, 5, 6, 7]);
     for (const row of report.rows) expect(['ok', 'warnings', 'errors']).toContain(row.status);
     expect(r.status).toBe(report.variants.some((v: { checks: { errors: number } }) => v.checks.errors > 0) ? 1 : 0);
-    expect(readdirSync(dir).sort()).toEqual(['family.svg', 'farline-7-5in.yaml', 'farline-7-6in.yaml', 'farline-7-7in.yaml']);
+    expect(outputNames(dir)).toEqual(['family.svg', 'farline-7-5in.yaml', 'farline-7-6in.yaml', 'farline-7-7in.yaml']);
 
     const svg = readFileSync(join(dir, 'family.svg'), 'utf8');
     // one user unit = 1 mm (CSS Values 3 / SVG 2: width in mm equal to the viewBox width)

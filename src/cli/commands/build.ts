@@ -1,8 +1,6 @@
 import type { Command } from 'commander';
 import { join } from 'node:path';
-import { buildFrame, partArea, partBBox, partCutLength, partMassG, type Frame } from '../../geometry/index.js';
-import { frameOverviewSvg, partToDxf, partToSvg } from '../../export/index.js';
-import { buildGate, checkFrame, summaryLine } from '../../checks/index.js';
+import type { Frame } from '../../geometry/index.js';
 import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 
@@ -26,7 +24,8 @@ export type PartSummary = {
 };
 
 /** Every output file of a build, and the summary rows, without touching the disk. */
-export function buildOutputs(frame: Frame, outDir: string, opts: BuildOptions, comment?: string): { files: OutputFile[]; summary: PartSummary[] } {
+export async function buildOutputs(frame: Frame, outDir: string, opts: BuildOptions, comment?: string): Promise<{ files: OutputFile[]; summary: PartSummary[] }> {
+  const [{ partArea, partBBox, partCutLength, partMassG }, { frameOverviewSvg, partToDxf, partToSvg }] = await Promise.all([import('../../geometry/index.js'), import('../../export/index.js')]);
   const files: OutputFile[] = [];
   const summary: PartSummary[] = [];
   for (const part of frame.parts) {
@@ -64,8 +63,9 @@ export function registerBuild(program: Command): void {
     .option('--r2000', 'write DXF R2000 with LWPOLYLINE contours instead of R12')
     .option('--entities', 'write contours as loose LINE and ARC entities instead of closed polylines')
     .option('--force', 'write cut files even when the checks find errors (the files then say so)')
-    .action((designPath: string, opts: BuildOptions) => {
-      const design = readDesign(designPath);
+    .action(async (designPath: string, opts: BuildOptions) => {
+      const design = await readDesign(designPath);
+      const [{ buildFrame }, { buildGate, checkFrame, summaryLine }] = await Promise.all([import('../../geometry/index.js'), import('../../checks/index.js')]);
       const frame = buildFrame(design);
       const outDir = opts.out ?? join('out', slug(design.name));
       if (outDir.trim() === '') throw new UsageError('--out must name a folder');
@@ -79,8 +79,8 @@ export function registerBuild(program: Command): void {
         return;
       }
       const comment = gate.comment;
-      const { files, summary } = buildOutputs(frame, outDir, opts, comment);
-      writeAllAtomically(files);
+      const { files, summary } = await buildOutputs(frame, outDir, opts, comment);
+      writeAllAtomically(files, outDir);
       if (opts.json) {
         process.stdout.write(`${JSON.stringify({ units: 'mm', design: design.name, revision: design.revision, outDir, checks: report.summary, parts: summary }, null, 2)}\n`);
         if (errors > 0) process.exitCode = 1;

@@ -1,25 +1,11 @@
 import type { Command } from 'commander';
 import { join } from 'node:path';
-import {
-  CHECK_CAUTIONS,
-  checkFrame,
-  formatCheckReport,
-  frameAnnotation,
-  optionsForDesign,
-  parseLimits,
-  partMarkers,
-  relieveFrame,
-  type CheckOptions,
-  type CheckReport,
-} from '../../checks/index.js';
-import { frameFindingsOverlay, markersOverlay } from '../../export/svgFindings.js';
-import { partToSvg } from '../../export/svgPart.js';
-import { frameOverviewSvg } from '../../export/svgOverview.js';
-import { buildFrame, type Frame } from '../../geometry/index.js';
+import type { CheckOptions, CheckReport } from '../../checks/index.js';
+import type { Frame } from '../../geometry/index.js';
 import { DesignError } from '../../params/errors.js';
 import type { Design } from '../../params/design.js';
-import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
-import { runDxfCheck, type DxfCheckFlags } from './checkDxf.js';
+import { readDesign, readDxfText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
+import type { DxfCheckFlags } from './checkDxf.js';
 
 /** Flags of `check`; thickness, material, units and layers apply to DXF input only (checkDxf.ts). */
 export type CheckCliOptions = DxfCheckFlags;
@@ -28,8 +14,8 @@ export type CheckCliOptions = DxfCheckFlags;
 type CheckInput = Readonly<{ kind: 'design'; design: Design }>;
 
 /** Load the thing to check from a path (the only file access of this command besides --annotate). */
-function loadCheckInput(path: string): CheckInput {
-  return { kind: 'design', design: readDesign(path) };
+async function loadCheckInput(path: string): Promise<CheckInput> {
+  return { kind: 'design', design: await readDesign(path) };
 }
 
 /**
@@ -50,7 +36,8 @@ export function parseLimitFlags(pairs: readonly string[]): Record<string, Record
 }
 
 /** The design's limits with the command-line ones on top; throws DesignError naming `checks.RULE.KEY`. */
-export function mergedOptions(design: Design, opts: CheckCliOptions): CheckOptions {
+export async function mergedOptions(design: Design, opts: CheckCliOptions): Promise<CheckOptions> {
+  const { optionsForDesign, parseLimits } = await import('../../checks/index.js');
   const flags = parseLimitFlags(opts.limit ?? []);
   const base = design.checks as Record<string, Record<string, unknown>>;
   const merged: Record<string, unknown> = { ...base };
@@ -67,7 +54,12 @@ export function mergedOptions(design: Design, opts: CheckCliOptions): CheckOptio
 }
 
 /** Annotated SVG files: one per part with its findings marked, and the overview with props and camera view. */
-export function annotatedFiles(frame: Frame, report: CheckReport, dir: string, o: CheckOptions): OutputFile[] {
+export async function annotatedFiles(frame: Frame, report: CheckReport, dir: string, o: CheckOptions): Promise<OutputFile[]> {
+  const [{ CHECK_CAUTIONS, frameAnnotation, partMarkers }, { frameFindingsOverlay, markersOverlay }, { partToSvg, frameOverviewSvg }] = await Promise.all([
+    import('../../checks/index.js'),
+    import('../../export/svgFindings.js'),
+    import('../../export/index.js'),
+  ]);
   const files: OutputFile[] = frame.parts.map((p) => ({
     path: join(dir, `${p.name}.check.svg`),
     data: partToSvg(p, { marginMm: 4, overlay: markersOverlay(partMarkers(report, p.name)), comment: `${p.name}: numbered markers follow the order of the check report. ${CHECK_CAUTIONS.join(' ')}` }),
@@ -91,11 +83,16 @@ export function registerCheck(program: Command): void {
     .option('--material <name>', 'DXF only: material name (woven-cf, or one defined in the sidecar)')
     .option('--units <unit>', 'DXF only: drawing units mm, cm, m, in, ft (overrides $INSUNITS)')
     .option('--layers <a,b>', 'DXF only: the layers that hold cut geometry (default: all but frozen, off and annotation layers)')
-    .action((path: string, opts: CheckCliOptions) => {
-      if (/\.dxf$/i.test(path)) return runDxfCheck(path, opts, parseLimitFlags(opts.limit ?? []));
-      const input = loadCheckInput(path);
+    .action(async (path: string, opts: CheckCliOptions) => {
+      if (/\.dxf$/i.test(path)) {
+        // Read (bounded) before loading the stages, so a file that is not DXF is refused at once.
+        const text = readDxfText(path);
+        return (await import('./checkDxf.js')).runDxfCheck(path, text, opts, parseLimitFlags(opts.limit ?? []));
+      }
+      const input = await loadCheckInput(path);
       // Limits are judged before the (slower) geometry is built, so bad input fails fast.
-      const o = mergedOptions(input.design, opts);
+      const o = await mergedOptions(input.design, opts);
+      const [{ buildFrame }, { checkFrame, formatCheckReport, relieveFrame }] = await Promise.all([import('../../geometry/index.js'), import('../../checks/index.js')]);
       let frame = buildFrame(input.design);
       let reliefNote = '';
       if (opts.relieveCorners) {
@@ -105,12 +102,8 @@ export function registerCheck(program: Command): void {
       }
       const report = checkFrame(frame, o);
       if (opts.annotate) {
-        const files = annotatedFiles(frame, report, opts.annotate, o);
-        try {
-          writeAllAtomically(files);
-        } catch (e) {
-          throw new UsageError(`cannot write the annotated drawings to ${opts.annotate}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}; nothing was written`);
-        }
+        const files = await annotatedFiles(frame, report, opts.annotate, o);
+        writeAllAtomically(files, opts.annotate);
       }
       if (opts.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
       else {

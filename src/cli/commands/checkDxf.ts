@@ -1,11 +1,10 @@
-import { existsSync, readFileSync, statSync } from 'node:fs';
 import { basename, join } from 'node:path';
 import { checkOptions, checkParts, formatCheckReport, makeReport, partMarkers, relieveCornersDetailed, type CheckReport } from '../../checks/index.js';
 import { markersOverlay } from '../../export/svgFindings.js';
 import { partToSvg } from '../../export/svgPart.js';
 import type { Part } from '../../geometry/index.js';
-import { DxfReadError, importDxf, parseSidecarText, resolveImportSettings, type ImportResult } from '../../import/index.js';
-import { UsageError, writeAllAtomically } from '../io.js';
+import { importDxfFile } from '../dxfInput.js';
+import { writeAllAtomically } from '../io.js';
 
 /** Flags of `check` that apply to a DXF file. */
 export type DxfCheckFlags = Readonly<{
@@ -20,48 +19,14 @@ export type DxfCheckFlags = Readonly<{
   layers?: string;
 }>;
 
-/** Larger files are refused before reading: a plate drawing is kilobytes, a full sheet a few megabytes. */
-const MAX_DXF_BYTES = 256 * 1024 * 1024;
-
-/** DXF text: UTF-8 (R2007 and later) or, when that fails, the single-byte code page older files use. */
-function readDxfText(path: string): string {
-  let size: number;
-  try {
-    size = statSync(path).size;
-  } catch (e) {
-    throw new UsageError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
-  }
-  if (size > MAX_DXF_BYTES) throw new UsageError(`${path} is ${(size / 1048576).toFixed(0)} MB, beyond the ${MAX_DXF_BYTES / 1048576} MB a DXF may have here`);
-  const bytes = readFileSync(path);
-  try {
-    return new TextDecoder('utf-8', { fatal: true }).decode(bytes);
-  } catch {
-    return bytes.toString('latin1');
-  }
-}
-
-/** The sidecar beside a DXF: `arm.dxf` → `arm.dxf.yaml`, if present. */
-export const sidecarPath = (dxfPath: string): string => `${dxfPath}.yaml`;
-
 /**
- * `framewright check part.dxf`: import the drawing (flags over sidecar), run the part rules on
+ * `framewright check part.dxf` (loaded by `check` only for a DXF): import the drawing (flags over sidecar), run the part rules on
  * every part and print one report with the file findings beside the design findings.
  * Bad input (not DXF, truncated, bad flags or sidecar) → UsageError, exit 2.
  */
-export function runDxfCheck(path: string, flags: DxfCheckFlags, limitFlags: Record<string, Record<string, unknown>>): void {
-  const text = readDxfText(path);
-  const side = sidecarPath(path);
-  let imported: ImportResult;
-  let toolDiameterMm: number | undefined;
-  try {
-    const sidecar = existsSync(side) ? parseSidecarText(readFileSync(side, 'utf8'), side) : {};
-    const settings = resolveImportSettings(flags, sidecar);
-    toolDiameterMm = settings.toolDiameterMm;
-    imported = importDxf(text, { name: basename(path).replace(/\.dxf$/i, ''), ...settings });
-  } catch (e) {
-    if (e instanceof DxfReadError) throw new UsageError(`${path}: ${e.message}`);
-    throw e;
-  }
+export function runDxfCheck(path: string, text: string, flags: DxfCheckFlags, limitFlags: Record<string, Record<string, unknown>>): void {
+  const { imported, settings } = importDxfFile(path, text, flags);
+  const toolDiameterMm = settings.toolDiameterMm;
   const o = checkOptions({ ...(toolDiameterMm !== undefined ? { toolDiameterMm } : {}), limits: limitFlags });
   let parts: Part[] = imported.parts;
   let reliefNote = '';
@@ -80,7 +45,7 @@ export function runDxfCheck(path: string, flags: DxfCheckFlags, limitFlags: Reco
   const report: CheckReport = makeReport(design.parts, [...imported.findings, ...design.findings]);
   if (flags.annotate) {
     const dir = flags.annotate;
-    writeAllAtomically(parts.map((p) => ({ path: join(dir, `${p.name}.check.svg`), data: partToSvg(p, { marginMm: 4, overlay: markersOverlay(partMarkers(report, p.name)), comment: `${p.name}: numbered markers follow the order of the check report` }) })));
+    writeAllAtomically(parts.map((p) => ({ path: join(dir, `${p.name}.check.svg`), data: partToSvg(p, { marginMm: 4, overlay: markersOverlay(partMarkers(report, p.name)), comment: `${p.name}: numbered markers follow the order of the check report` }) })), dir);
   }
   if (flags.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
   else {

@@ -1,22 +1,10 @@
 import type { Command } from 'commander';
-import { existsSync, readFileSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import {
-  armModes,
-  armTipDeflection,
-  DEFAULT_THRUST_N,
-  frameModes,
-  partModes,
-  type ArmResult,
-  type BodyResult,
-  type FrameModes,
-  type ModalResult,
-} from '../../analysis/index.js';
+import type { ArmResult, BodyResult, FrameModes, ModalResult } from '../../analysis/index.js';
+import { DEFAULT_THRUST_N } from '../../analysis/defaults.js';
 import { fmt } from '../../export/format.js';
-import { modeShapeSvg } from '../../export/svgModes.js';
-import { buildFrame, type Part } from '../../geometry/index.js';
-import { DxfReadError, importDxf, parseSidecarText, resolveImportSettings } from '../../import/index.js';
-import { readDesign, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
+import type { Part } from '../../geometry/index.js';
+import { readDesign, readDxfText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 
 type ModesCliOptions = {
@@ -57,7 +45,7 @@ function numberFlag(name: string, text: string | undefined, min: number, max: nu
 type Loaded = Readonly<{ label: string; result: FrameModes }>;
 
 /** Analyse one input: a design file (every part, arms, unibody body) or a DXF drawing (each part, free–free). */
-function analyse(path: string, opts: ModesCliOptions): Loaded {
+async function analyse(path: string, opts: ModesCliOptions): Promise<Loaded> {
   const common = {
     modes: numberFlag('--modes', opts.modes, 1, 50, true) ?? 6,
     meshSizeMm: numberFlag('--mesh-size', opts.meshSize, 0.3, 20),
@@ -69,8 +57,9 @@ function analyse(path: string, opts: ModesCliOptions): Loaded {
   };
   const options = Object.fromEntries(Object.entries(common).filter((e): e is [string, number] => e[1] !== undefined));
   try {
-    if (/\.dxf$/i.test(path)) return { label: basename(path), result: dxfModes(path, opts, options) };
-    const design = readDesign(path);
+    if (/\.dxf$/i.test(path)) return { label: basename(path), result: await dxfModes(path, opts, options) };
+    const design = await readDesign(path);
+    const [{ buildFrame }, { frameModes }] = await Promise.all([import('../../geometry/index.js'), import('../../analysis/index.js')]);
     let frame = buildFrame(design);
     if (opts.part) {
       const keep = frame.parts.filter((p) => p.name === opts.part);
@@ -85,31 +74,18 @@ function analyse(path: string, opts: ModesCliOptions): Loaded {
   }
 }
 
-function dxfModes(path: string, opts: ModesCliOptions, options: Record<string, number>): FrameModes {
-  let text: string;
-  try {
-    const bytes = readFileSync(path);
-    try {
-      text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
-    } catch {
-      text = bytes.toString('latin1');
-    }
-  } catch (e) {
-    throw new UsageError(`cannot read ${path}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
-  }
-  let parts: Part[];
-  try {
-    const side = `${path}.yaml`;
-    const sidecar = existsSync(side) ? parseSidecarText(readFileSync(side, 'utf8'), side) : {};
-    const settings = resolveImportSettings(opts, sidecar);
-    if (settings.thicknessMm === undefined) throw new UsageError(`${path}: give the plate thickness with --thickness MM (or thicknessMm in ${basename(side)}); modes depend on it`);
-    parts = importDxf(text, { name: basename(path).replace(/\.dxf$/i, ''), ...settings }).parts;
-  } catch (e) {
-    if (e instanceof DxfReadError) throw new UsageError(`${path}: ${e.message}`);
-    throw e;
-  }
+async function dxfModes(path: string, opts: ModesCliOptions, options: Record<string, number>): Promise<FrameModes> {
+  const text = readDxfText(path);
+  const [{ importDxfFile }, { armModes, armTipDeflection, partModes }] = await Promise.all([import('../dxfInput.js'), import('../../analysis/index.js')]);
+  const { imported } = importDxfFile(path, text, opts, 'modes depend on it');
+  let parts: Part[] = imported.parts;
   if (opts.part) parts = parts.filter((p) => p.name === opts.part);
   if (!parts.length) throw new UsageError(`${path}: no closed part${opts.part ? ` named ${JSON.stringify(opts.part)}` : ''} to analyse`);
+  // A part whose contours cross (or that has any other drawing error) has no plate to mesh.
+  for (const p of parts) {
+    const broken = imported.findings.find((f) => f.severity === 'error' && f.rule.startsWith('dxf-') && f.part === p.name);
+    if (broken) throw new UsageError(`${path}: part ${p.name} cannot be analysed: ${broken.rule}: ${broken.message.split('\n')[0]} (\`framewright check ${path}\` lists every problem)`);
+  }
   const results = parts.map((p) => partModes(p, options));
   // A drawing that marks motor and root bolts (it does not, unless a sidecar says so) would also get arm results.
   const arms: ArmResult[] = parts
@@ -192,7 +168,8 @@ function comparisonText(items: readonly Loaded[]): string {
 
 const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '');
 
-function plotFiles(dir: string, prefix: string, r: FrameModes, parts: ReadonlyMap<string, Part>): OutputFile[] {
+async function plotFiles(dir: string, prefix: string, r: FrameModes, parts: ReadonlyMap<string, Part>): Promise<OutputFile[]> {
+  const { modeShapeSvg } = await import('../../export/svgModes.js');
   const all: ModalResult[] = [...r.parts, ...r.arms.map((a) => a.modal), ...(r.body ? [r.body.modal] : [])];
   return all.flatMap((m) => {
     const part = parts.get(m.part);
@@ -239,19 +216,18 @@ export function registerModes(program: Command): void {
     .option('--material <name>', 'DXF only: material name (woven-cf, or one defined in the sidecar)')
     .option('--units <unit>', 'DXF only: drawing units mm, cm, m, in, ft (overrides $INSUNITS)')
     .option('--layers <a,b>', 'DXF only: the layers that hold cut geometry')
-    .action((inputs: string[], opts: ModesCliOptions) => {
-      const items = inputs.map((path) => ({ path, ...analyse(path, opts) }));
+    .action(async (inputs: string[], opts: ModesCliOptions) => {
+      const items: Array<Loaded & { path: string }> = [];
+      for (const path of inputs) items.push({ path, ...(await analyse(path, opts)) });
       if (opts.plot) {
-        const files = items.flatMap((it) => {
+        const { buildFrame } = await import('../../geometry/index.js');
+        const files: OutputFile[] = [];
+        for (const it of items) {
           const parts = new Map<string, Part>();
-          if (!/\.dxf$/i.test(it.path)) for (const p of buildFrame(readDesign(it.path)).parts) parts.set(p.name, p);
-          return plotFiles(opts.plot!, items.length > 1 ? `${slug(it.label)}-` : '', it.result, parts);
-        });
-        try {
-          writeAllAtomically(files);
-        } catch (e) {
-          throw new UsageError(`cannot write the mode plots to ${opts.plot}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}; nothing was written`);
+          if (!/\.dxf$/i.test(it.path)) for (const p of buildFrame(await readDesign(it.path)).parts) parts.set(p.name, p);
+          files.push(...(await plotFiles(opts.plot, items.length > 1 ? `${slug(it.label)}-` : '', it.result, parts)));
         }
+        writeAllAtomically(files, opts.plot);
       }
       if (opts.json) {
         const body = {

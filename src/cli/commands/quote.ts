@@ -1,13 +1,6 @@
 import type { Command } from 'commander';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { checkFrame } from '../../checks/index.js';
-import { buildFrame } from '../../geometry/index.js';
-import { placedPartsToDxf } from '../../export/dxf.js';
-import { drawingToPdf } from '../../export/pdfDrawing.js';
-import { drawingToSvgs, sheetLayoutToSvg } from '../../export/svgDrawing.js';
-import { parseShopText } from '../../params/shop.js';
-import { drawingSet, layoutDrawing, quoteParts, quoteReport } from '../../quote/index.js';
 import { readDesign, readText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 import { slug } from './build.js';
@@ -78,9 +71,18 @@ export function registerQuote(program: Command): void {
       const sheet = opts.sheet ? parseSheet(opts.sheet) : undefined;
       const date = opts.date ? parseDate(opts.date) : null;
       const timeLimitS = opts.timeLimit !== undefined ? parseTimeLimit(opts.timeLimit) : undefined;
-      const design = readDesign(designPath);
+      const design = await readDesign(designPath);
       const shopPath = opts.shop ?? DEFAULT_SHOP;
-      const shop = parseShopText(readText(shopPath), shopPath);
+      const shopText = readText(shopPath, 'a shop profile (YAML)');
+      const [{ parseShopText }, { buildFrame }, { checkFrame }, { drawingSet, layoutDrawing, quoteParts, quoteReport }, { placedPartsToDxf }, { drawingToSvgs, sheetLayoutToSvg }] = await Promise.all([
+        import('../../params/shop.js'),
+        import('../../geometry/index.js'),
+        import('../../checks/index.js'),
+        import('../../quote/index.js'),
+        import('../../export/dxf.js'),
+        import('../../export/svgDrawing.js'),
+      ]);
+      const shop = parseShopText(shopText, shopPath);
       const frame = buildFrame(design);
       const outDir = opts.out ?? join('out', `${slug(design.name)}-quote`);
       if (outDir.trim() === '') throw new UsageError('--out must name a folder');
@@ -103,6 +105,8 @@ export function registerQuote(program: Command): void {
       const report = quoteReport(quote, meta);
       files.push({ path: join(outDir, 'quote.json'), data: `${JSON.stringify(report, null, 2)}\n` });
       const sheets = layoutDrawing(set);
+      // The PDF writer (and its font machinery) loads only here, where a PDF is written.
+      const { drawingToPdf } = await import('../../export/pdfDrawing.js');
       files.push({ path: join(outDir, 'drawing.pdf'), data: await drawingToPdf(set, sheets) });
       drawingToSvgs(sheets).forEach((svg, i) => files.push({ path: join(outDir, `drawing-${pad(i + 1)}.svg`), data: svg }));
       quote.nesting.sheets.forEach((s, i) => {
@@ -117,7 +121,7 @@ export function registerQuote(program: Command): void {
         });
         files.push({ path: join(outDir, 'sheets', `${name}.svg`), data: sheetLayoutToSvg(s, frame.parts, { title: name, marginMm: quote.nesting.marginMm, note }) });
       });
-      writeAllAtomically(files);
+      writeAllAtomically(files, outDir);
       if (opts.json) {
         process.stdout.write(`${JSON.stringify({ ...report, outDir, files: files.map((f) => f.path) }, null, 2)}\n`);
         return;

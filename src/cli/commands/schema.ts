@@ -1,5 +1,4 @@
 import type { Command } from 'commander';
-import { designJsonSchema, designReferenceMarkdown } from '../../params/index.js';
 import { writeAllAtomically } from '../io.js';
 
 export function registerSchema(program: Command): void {
@@ -8,7 +7,8 @@ export function registerSchema(program: Command): void {
     .description('print the JSON Schema of the design file (for editor completion and validation)')
     .option('--out <file>', 'write it to a file instead of standard output')
     .option('--markdown', 'print the design-file reference table (as in the README) instead')
-    .action((opts: { out?: string; markdown?: boolean }) => {
+    .action(async (opts: { out?: string; markdown?: boolean }) => {
+      const { designJsonSchema, designReferenceMarkdown } = await import('../../params/index.js');
       const text = opts.markdown ? `${designReferenceMarkdown()}\n` : `${JSON.stringify(designJsonSchema(), null, 2)}\n`;
       if (opts.out) writeAllAtomically([{ path: opts.out, data: text }]);
       else process.stdout.write(text);

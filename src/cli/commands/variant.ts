@@ -1,22 +1,11 @@
 import type { Command } from 'commander';
 import { existsSync, statSync } from 'node:fs';
 import { basename, extname, join } from 'node:path';
-import { checkFrame, type CheckReport } from '../../checks/index.js';
+import type { CheckReport } from '../../checks/index.js';
 import type { Frame } from '../../geometry/frame.js';
-import { familySheetSvg } from '../../export/svgFamily.js';
 import { fmt } from '../../export/format.js';
 import { DesignError } from '../../params/errors.js';
-import {
-  armSizeText,
-  makeVariant,
-  pathText,
-  sourceRow,
-  variantRow,
-  VariantRequestError,
-  type FamilyRow,
-  type VariantRequest,
-  type VariantResult,
-} from '../../variant/index.js';
+import type { FamilyRow, VariantRequest, VariantResult } from '../../variant/index.js';
 import { readText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 
@@ -30,6 +19,13 @@ type VariantOptions = {
 };
 
 type FrameChecker = (frame: Frame) => CheckReport;
+
+/** The stages this command uses, loaded when it runs (DEVELOPERS.md, "How to add a command"). */
+async function loadStages() {
+  const [variant, { familySheetSvg }] = await Promise.all([import('../../variant/index.js'), import('../../export/svgFamily.js')]);
+  return { ...variant, familySheetSvg };
+}
+type Stages = Awaited<ReturnType<typeof loadStages>>;
 
 const CAUTIONS = [
   'Structural figures are estimates from idealised beam models, not certification. Test a new frame with the props off first.',
@@ -60,31 +56,31 @@ function progress(done: number, total: number, what: string): void {
   if (done === total) process.stderr.write('\n');
 }
 
-function runOne(text: string, req: VariantRequest, source: string): VariantResult {
+function runOne(V: Stages, text: string, req: VariantRequest, source: string): VariantResult {
   try {
-    return makeVariant(text, req, source);
+    return V.makeVariant(text, req, source);
   } catch (e) {
-    if (e instanceof VariantRequestError) throw new UsageError(`cannot make the ${req.props} variant; nothing was written.\n${e.message}`);
+    if (e instanceof V.VariantRequestError) throw new UsageError(`cannot make the ${req.props} variant; nothing was written.\n${e.message}`);
     throw e;
   }
 }
 
-function changeTable(v: VariantResult): string {
+function changeTable(V: Stages, v: VariantResult): string {
   const show = (x: unknown) => (typeof x === 'number' ? fmt(x, 3) : typeof x === 'string' ? x : JSON.stringify(x));
   return textTable(
     ['parameter', 'old', 'new', 'why'],
-    v.changes.map((c) => [pathText(c.path), show(c.old), show(c.new), c.why]),
+    v.changes.map((c) => [V.pathText(c.path), show(c.old), show(c.new), c.why]),
   );
 }
 
-function comparisonTable(rows: readonly FamilyRow[]): string {
+function comparisonTable(V: Stages, rows: readonly FamilyRow[]): string {
   return textTable(
     ['frame', 'props in', 'wheelbase mm', 'arm widths × t mm', 'mass g', 'arm f1 Hz', 'f1 rule', 'checks'],
     rows.map((r) => [
       r.label,
       fmt(r.propsIn, 2),
       fmt(r.wheelbaseMm, 1),
-      armSizeText(r),
+      V.armSizeText(r),
       fmt(r.massG, 1),
       fmt(r.armFrequencyHz, 1),
       r.stiffnessRule,
@@ -93,14 +89,14 @@ function comparisonTable(rows: readonly FamilyRow[]): string {
   );
 }
 
-function variantJson(v: VariantResult, report: CheckReport | null, file: string) {
+function variantJson(V: Stages, v: VariantResult, report: CheckReport | null, file: string) {
   return {
     file,
     name: v.design.name,
     propDiameterMm: v.propDiameterMm,
     wheelbase: v.wheelbase,
     motorClass: { source: v.motor.sourceClass.name, variant: v.motor.variantClass.name },
-    changes: v.changes.map((c) => ({ parameter: pathText(c.path), old: c.old, new: c.new, why: c.why })),
+    changes: v.changes.map((c) => ({ parameter: V.pathText(c.path), old: c.old, new: c.new, why: c.why })),
     stiffness: {
       rule: 'first bending frequency of the softest arm with its motor kept at or above the source',
       targetHz: v.arms.targetHz,
@@ -143,8 +139,8 @@ export function registerVariant(program: Command): void {
     .option('--motor <class>', 'motor size class (2207, 22xx, 20xx-24xx) or auto; default keeps the motor')
     .option('--out <path>', 'new design file (one size; default out/<design>-<props>.yaml) or directory (family; default out/<design>-family)')
     .option('--json', 'print a JSON report instead of the tables')
-    .action((designPath: string, opts: VariantOptions) => {
-      const text = readText(designPath);
+    .action(async (designPath: string, opts: VariantOptions) => {
+      const text = readText(designPath, 'a design file (YAML or JSON)');
       const sizes = opts.props.split(',').map((s) => s.trim()).filter((s) => s.length > 0);
       if (sizes.length === 0) throw new UsageError('--props: give at least one prop size, e.g. 7in');
       if (new Set(sizes).size !== sizes.length) throw new UsageError(`--props: ${opts.props} lists a size twice`);
@@ -154,35 +150,36 @@ export function registerVariant(program: Command): void {
         ...(opts.motor !== undefined ? { motor: opts.motor } : {}),
       };
       if (sizes.length > 1 && base.wheelbase !== 'auto') throw new UsageError('--wheelbase: a family (several --props) takes only --wheelbase auto');
+      const [V, { checkFrame }] = await Promise.all([loadStages(), import('../../checks/index.js')]);
       const check: FrameChecker = checkFrame;
       const stem = basename(designPath, extname(designPath));
-      if (sizes.length === 1) singleVariant(text, designPath, stem, { ...base, props: sizes[0] }, opts, check);
-      else family(text, designPath, stem, sizes, base, opts, check);
+      if (sizes.length === 1) singleVariant(V, text, designPath, stem, { ...base, props: sizes[0] }, opts, check);
+      else family(V, text, designPath, stem, sizes, base, opts, check);
     });
 }
 
-function singleVariant(text: string, designPath: string, stem: string, req: VariantRequest, opts: VariantOptions, check: FrameChecker | null): void {
-  const v = runOne(text, req, designPath);
+function singleVariant(V: Stages, text: string, designPath: string, stem: string, req: VariantRequest, opts: VariantOptions, check: FrameChecker | null): void {
+  const v = runOne(V, text, req, designPath);
   const report = check ? check(v.frame) : null;
   const name = `${stem}-${propsSlug(req.props)}.yaml`;
   // --out may name the file or a directory to put it in.
   const file = opts.out === undefined ? join('out', name) : existsSync(opts.out) && statSync(opts.out).isDirectory() ? join(opts.out, name) : opts.out;
   writeAllAtomically([{ path: file, data: v.text }]);
   if (opts.json) {
-    process.stdout.write(`${JSON.stringify(variantJson(v, report, file), null, 2)}\n`);
+    process.stdout.write(`${JSON.stringify(variantJson(V, v, report, file), null, 2)}\n`);
   } else {
-    const rows = [sourceRow(v, check ? check(v.sourceFrame) : null), variantRow(v, report)];
+    const rows = [V.sourceRow(v, check ? check(v.sourceFrame) : null), V.variantRow(v, report)];
     const out = [
       `${v.sourceDesign.name} -> ${v.design.name}: ${file}`,
       '',
-      changeTable(v),
+      changeTable(V, v),
       '',
       wheelbaseLine(v),
       v.body.line,
       ...v.arms.lines,
       `Hardware kept: stack mounts, standoffs, camera width, strap slots, root bolts${v.motor.changes.length ? '' : ', motor pattern and bolts'}.`,
       '',
-      comparisonTable(rows),
+      comparisonTable(V, rows),
       '',
       checkLine(report),
       ...CAUTIONS,
@@ -192,17 +189,17 @@ function singleVariant(text: string, designPath: string, stem: string, req: Vari
   if (report && report.summary.errors > 0) process.exitCode = 1;
 }
 
-function family(text: string, designPath: string, stem: string, sizes: readonly string[], base: Omit<VariantRequest, 'props'>, opts: VariantOptions, check: FrameChecker | null): void {
+function family(V: Stages, text: string, designPath: string, stem: string, sizes: readonly string[], base: Omit<VariantRequest, 'props'>, opts: VariantOptions, check: FrameChecker | null): void {
   const results: VariantResult[] = [];
   const reports: Array<CheckReport | null> = [];
   const problems: string[] = [];
   sizes.forEach((props, i) => {
     try {
-      const v = makeVariant(text, { ...base, props }, designPath);
+      const v = V.makeVariant(text, { ...base, props }, designPath);
       results.push(v);
       reports.push(check ? check(v.frame) : null);
     } catch (e) {
-      if (e instanceof VariantRequestError) problems.push(`${props}: ${e.message}`);
+      if (e instanceof V.VariantRequestError) problems.push(`${props}: ${e.message}`);
       else if (e instanceof DesignError) problems.push(`${props}: ${e.message}`);
       else throw e;
     }
@@ -213,21 +210,21 @@ function family(text: string, designPath: string, stem: string, sizes: readonly 
   const dir = opts.out ?? join('out', `${stem}-family`);
   if (existsSync(dir) && !statSync(dir).isDirectory()) throw new UsageError(`--out: ${dir} is a file; a family needs a directory`);
   const files: OutputFile[] = results.map((v, i) => ({ path: join(dir, `${stem}-${propsSlug(sizes[i])}.yaml`), data: v.text }));
-  const rows = [sourceRow(results[0], sourceReport), ...results.map((v, i) => variantRow(v, reports[i]))];
+  const rows = [V.sourceRow(results[0], sourceReport), ...results.map((v, i) => V.variantRow(v, reports[i]))];
   const members = [
-    { label: rows[0].label, notes: notesOf(rows[0]), frame: results[0].sourceFrame },
-    ...results.map((v, i) => ({ label: v.design.name, notes: notesOf(rows[i + 1]), frame: v.frame })),
+    { label: rows[0].label, notes: notesOf(V, rows[0]), frame: results[0].sourceFrame },
+    ...results.map((v, i) => ({ label: v.design.name, notes: notesOf(V, rows[i + 1]), frame: v.frame })),
   ];
   const svgPath = join(dir, 'family.svg');
-  files.push({ path: svgPath, data: familySheetSvg(members, { title: `${results[0].sourceDesign.name}: size family`, footer: CAUTIONS }) });
-  writeAllAtomically(files);
+  files.push({ path: svgPath, data: V.familySheetSvg(members, { title: `${results[0].sourceDesign.name}: size family`, footer: CAUTIONS }) });
+  writeAllAtomically(files, dir);
   if (opts.json) {
-    process.stdout.write(`${JSON.stringify({ units: 'mm', source: designPath, sheet: svgPath, cautions: CAUTIONS, rows, variants: results.map((v, i) => variantJson(v, reports[i], files[i].path)) }, null, 2)}\n`);
+    process.stdout.write(`${JSON.stringify({ units: 'mm', source: designPath, sheet: svgPath, cautions: CAUTIONS, rows, variants: results.map((v, i) => variantJson(V, v, reports[i], files[i].path)) }, null, 2)}\n`);
   } else {
     const out = [
       `${results[0].sourceDesign.name}: ${results.length} variants in ${dir} (sheet: ${svgPath})`,
       '',
-      comparisonTable(rows),
+      comparisonTable(V, rows),
       '',
       'Arm f1: first bending frequency of the softest arm with its motor (Euler-Bernoulli cantilever, tip-mass frequency equation).',
       'Each variant keeps the source arm\'s f1 or more; run with one --props for its change table and rule numbers.',
@@ -238,10 +235,10 @@ function family(text: string, designPath: string, stem: string, sizes: readonly 
   if (reports.some((r) => r && r.summary.errors > 0)) process.exitCode = 1;
 }
 
-function notesOf(r: FamilyRow): string[] {
+function notesOf(V: Stages, r: FamilyRow): string[] {
   return [
     `props ${fmt(r.propsIn, 2)} in, wheelbase ${fmt(r.wheelbaseMm, 1)} mm`,
-    `arms ${armSizeText(r)} mm, f1 ${fmt(r.armFrequencyHz, 0)} Hz`,
+    `arms ${V.armSizeText(r)} mm, f1 ${fmt(r.armFrequencyHz, 0)} Hz`,
     `${fmt(r.massG, 0)} g, checks: ${r.status}`,
   ];
 }

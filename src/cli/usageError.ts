@@ -1,0 +1,2 @@
+/** Bad usage or input: printed without a stack trace, exit code 2. */
+export class UsageError extends Error {}
