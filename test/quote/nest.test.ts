@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { areaPaths, FillRule, Minkowski, union, xor, type Path64 } from 'clipper2-ts';
-import { flattenLoop, partArea, transformLoop, transformPoint, type Loop, type Part } from '../../src/geometry/index.js';
+import { convexHull, flattenLoop, partArea, transformLoop, transformPoint, type Loop, type Part } from '../../src/geometry/index.js';
 import { DesignError } from '../../src/params/errors.js';
 import { allowedRotations, nestParts, type NestResult } from '../../src/quote/index.js';
 import { convexPieces, convolution, dilatedShape, dropCollinear, ringArea2, noFitPolygon, occupiedAreaMm2, quarterTurn } from '../../src/quote/nestShapes.js';
@@ -312,23 +312,6 @@ function cleanRing(p: Path64): Path64 {
 }
 
 describe.skipIf(!haveNest2d)('against an independent nesting library (libnest2d, Debian python3-pynest2d)', () => {
-  function hull(pts: ReadonlyArray<readonly [number, number]>): Array<[number, number]> {
-    // Andrew's monotone chain.
-    const s = [...pts].sort((a, b) => a[0] - b[0] || a[1] - b[1]);
-    const cr = (o: readonly number[], a: readonly number[], b: readonly number[]) => (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
-    const lo: Array<[number, number]> = [];
-    const up: Array<[number, number]> = [];
-    for (const p of s) {
-      while (lo.length >= 2 && cr(lo[lo.length - 2], lo[lo.length - 1], p) <= 0) lo.pop();
-      lo.push([p[0], p[1]]);
-    }
-    for (const p of [...s].reverse()) {
-      while (up.length >= 2 && cr(up[up.length - 2], up[up.length - 1], p) <= 0) up.pop();
-      up.push([p[0], p[1]]);
-    }
-    return [...lo.slice(0, -1), ...up.slice(0, -1)];
-  }
-
   for (const design of ['tessel-5', 'farline-7']) {
     it(`20 frames of ${design}: no more sheets than libnest2d on convex hulls, per thickness`, () => {
       const parts = demoFrame(design).parts;
@@ -338,7 +321,7 @@ describe.skipIf(!haveNest2d)('against an independent nesting library (libnest2d,
         ...SHEET,
         marginMm: MARGIN,
         spacingMm: SPACING,
-        groups: thicknesses.map((t) => ({ name: String(t), items: parts.filter((p) => p.thicknessMm === t).map((p) => ({ hull: hull(flattenLoop(p.outline, 0.01)), count: p.quantity * 20 })) })),
+        groups: thicknesses.map((t) => ({ name: String(t), items: parts.filter((p) => p.thicknessMm === t).map((p) => ({ hull: convexHull(flattenLoop(p.outline, 0.01)), count: p.quantity * 20 })) })),
       });
       thicknesses.forEach((t, i) => {
         const g = ours.groups.find((x) => x.thicknessMm === t)!;
