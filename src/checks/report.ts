@@ -1,5 +1,5 @@
 import type { Frame } from '../geometry/frame.js';
-import { partArea, partBBox, partCutLength } from '../geometry/metrics.js';
+import { partArea, partCutLength } from '../geometry/metrics.js';
 import type { Part } from '../geometry/part.js';
 import { bitReachRule } from './bitReach.js';
 import { loopChords } from './chords.js';
@@ -30,7 +30,8 @@ export function checkPart(part: Part, o: CheckOptions): PartCheck {
   const holes = boltHoles(ix);
   const edge = holeEdgeRule(ix, o, holes);
   const findings = [...webs.findings, ...edge.findings, ...holeStressRule(ix, o, holes), ...bitReachRule(ix, o, chords), ...weaveRule(part, o)];
-  const bb = partBBox(part);
+  // The outline's box is the part's (every inner contour lies inside it), already computed by the index.
+  const bb = ix.contours[0].bbox;
   const num = (x: number | null): number | null => (x === null ? null : r4(x));
   return {
     findings,

@@ -56,7 +56,8 @@ function nearestBySearch(ix: PartIndex, startMm: number, grid: BoxGrid, segOf: (
   let best: ContourPair | null = null;
   for (const a of edgeFirst(ix)) {
     const box = ix.contours[a].bbox;
-    for (let r = Math.max(startMm, 1e-3); r <= 4 * ix.spanMm + 1; r *= 2) {
+    // Once something is found, one query at the best distance so far settles each further contour.
+    for (let r = Math.max(startMm, 1e-3, best ? best.distance : 0); r <= 4 * ix.spanMm + 1; r *= 2) {
       const cap = best ? Math.min(r, best.distance) : r;
       let found: ContourPair | null = null;
       const near = queryBoxGrid(grid, box, cap);
