@@ -114,6 +114,7 @@ describe('framewright quote: bad input is exit code 2, a clear message, no files
     ['sheet text', ['--qty', '1', '--sheet', 'big'], /--sheet: "big" must be WIDTHxHEIGHT in mm/],
     ['sheet too small', ['--qty', '1', '--sheet', '100x80'], /sheet: "100x80" is too small for part [a-z-]+ \(with 10 mm margins/],
     ['date', ['--qty', '1', '--date', '2026-02-30'], /--date: "2026-02-30" must be a calendar date/],
+    ['time limit', ['--qty', '1', '--time-limit', '0.5'], /--time-limit: "0\.5" must be a number of seconds from 1 to 3600/],
   ];
   for (const [name, args, message] of cases) {
     it(name, () => {
@@ -125,6 +126,26 @@ describe('framewright quote: bad input is exit code 2, a clear message, no files
       expect(existsSync(out)).toBe(false);
     });
   }
+
+  it('a shop profile with turns the nesting cannot use names the key', () => {
+    const shop = join(root, 'bad-turns.yaml');
+    writeFileSync(shop, `${readFileSync('designs/hollin-row-shop.yaml', 'utf8')}nestTurnsDeg: [45]\n`);
+    const out = join(root, 'bad-turns-out');
+    const r = runCli(['quote', 'designs/tessel-5.yaml', '--qty', '1', '--shop', shop, '--out', out]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/shop\.nestTurnsDeg\.0: 45 must be 0, 90, 180 or 270/);
+    expect(r.stderr).not.toMatch(STACK_LINE);
+    expect(existsSync(out)).toBe(false);
+  });
+
+  it('a shop that allows only half turns gets a layout with 0° and 180° only', () => {
+    const shop = join(root, 'half-turns.yaml');
+    writeFileSync(shop, `${readFileSync('designs/hollin-row-shop.yaml', 'utf8')}nestTurnsDeg: [0, 180]\n`);
+    const r = runCli(['quote', 'designs/tessel-5.yaml', '--qty', '2', '--shop', shop, '--out', join(root, 'half-turns-out'), '--json']);
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout) as { nesting: { sheets: Array<{ placements: Array<{ rotationDeg: number }> }> } };
+    for (const sh of report.nesting.sheets) for (const p of sh.placements) expect([0, 180]).toContain(p.rotationDeg);
+  });
 
   it('a bad shop profile names the shop path, value and range', () => {
     const shop = join(root, 'bad-shop.yaml');
