@@ -1,60 +1,127 @@
-import { cholesky, choleskySolve, type Envelope } from './envelope.js';
+import { cholesky, choleskySolveInPlace, type SparseSymmetric } from './sparse.js';
 
 /**
- * Symmetric eigen-decomposition of a small dense matrix (row-major n×n) by cyclic Jacobi rotations.
- * Returns eigenvalues (unsorted, in matching order) and eigenvectors as columns of `vectors`.
+ * Eigen-decomposition of a small dense symmetric matrix (row-major n×n): Householder reduction to
+ * tridiagonal form, then the implicit QL iteration with Wilkinson shifts (the method of the
+ * Handbook for Automatic Computation, vol. II, Wilkinson & Reinsch 1971, written anew here).
+ * @returns eigenvalues ascending and the eigenvectors as the columns of `vectors` (row-major n×n)
  */
-export function jacobiEigen(a0: Float64Array, n: number): { values: Float64Array; vectors: Float64Array } {
-  const a = new Float64Array(a0);
-  const v = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) v[i * n + i] = 1;
-  for (let sweep = 0; sweep < 60; sweep++) {
-    let off = 0;
-    let total = 0;
-    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) {
-      const x = a[i * n + j] * a[i * n + j];
-      total += x;
-      if (i !== j) off += x;
-    }
-    if (off <= 1e-30 * total || off === 0) break;
-    for (let p = 0; p < n - 1; p++) {
-      for (let q = p + 1; q < n; q++) {
-        const apq = a[p * n + q];
-        if (Math.abs(apq) < 1e-300) continue;
-        const theta = (a[q * n + q] - a[p * n + p]) / (2 * apq);
-        const t = Math.sign(theta || 1) / (Math.abs(theta) + Math.sqrt(theta * theta + 1));
-        const c = 1 / Math.sqrt(t * t + 1);
-        const s = t * c;
-        for (let k = 0; k < n; k++) {
-          const akp = a[k * n + p];
-          const akq = a[k * n + q];
-          a[k * n + p] = c * akp - s * akq;
-          a[k * n + q] = s * akp + c * akq;
+export function symmetricEigen(a0: Float64Array, n: number): { values: Float64Array; vectors: Float64Array } {
+  const z = Float64Array.from(a0);
+  const d = new Float64Array(n);
+  const e = new Float64Array(n);
+  // Householder tridiagonalisation; z accumulates the orthogonal transform.
+  for (let i = n - 1; i > 0; i--) {
+    const l = i - 1;
+    let h = 0;
+    let scale = 0;
+    if (l > 0) {
+      for (let k = 0; k <= l; k++) scale += Math.abs(z[i * n + k]);
+      if (scale === 0) e[i] = z[i * n + l];
+      else {
+        for (let k = 0; k <= l; k++) {
+          z[i * n + k] /= scale;
+          h += z[i * n + k] * z[i * n + k];
         }
-        for (let k = 0; k < n; k++) {
-          const apk = a[p * n + k];
-          const aqk = a[q * n + k];
-          a[p * n + k] = c * apk - s * aqk;
-          a[q * n + k] = s * apk + c * aqk;
+        const f = z[i * n + l];
+        const g = f >= 0 ? -Math.sqrt(h) : Math.sqrt(h);
+        e[i] = scale * g;
+        h -= f * g;
+        z[i * n + l] = f - g;
+        let ff = 0;
+        for (let j = 0; j <= l; j++) {
+          z[j * n + i] = z[i * n + j] / h;
+          let gg = 0;
+          for (let k = 0; k <= j; k++) gg += z[j * n + k] * z[i * n + k];
+          for (let k = j + 1; k <= l; k++) gg += z[k * n + j] * z[i * n + k];
+          e[j] = gg / h;
+          ff += e[j] * z[i * n + j];
         }
-        for (let k = 0; k < n; k++) {
-          const vkp = v[k * n + p];
-          const vkq = v[k * n + q];
-          v[k * n + p] = c * vkp - s * vkq;
-          v[k * n + q] = s * vkp + c * vkq;
+        const hh = ff / (h + h);
+        for (let j = 0; j <= l; j++) {
+          const fj = z[i * n + j];
+          const gj = (e[j] -= hh * fj);
+          for (let k = 0; k <= j; k++) z[j * n + k] -= fj * e[k] + gj * z[i * n + k];
         }
       }
+    } else e[i] = z[i * n + l];
+    d[i] = h;
+  }
+  d[0] = 0;
+  e[0] = 0;
+  for (let i = 0; i < n; i++) {
+    const l = i - 1;
+    if (d[i] !== 0) {
+      for (let j = 0; j <= l; j++) {
+        let g = 0;
+        for (let k = 0; k <= l; k++) g += z[i * n + k] * z[k * n + j];
+        for (let k = 0; k <= l; k++) z[k * n + j] -= g * z[k * n + i];
+      }
+    }
+    d[i] = z[i * n + i];
+    z[i * n + i] = 1;
+    for (let j = 0; j <= l; j++) z[j * n + i] = z[i * n + j] = 0;
+  }
+  // Implicit QL on the tridiagonal (d, e).
+  for (let i = 1; i < n; i++) e[i - 1] = e[i];
+  e[n - 1] = 0;
+  for (let l = 0; l < n; l++) {
+    let iter = 0;
+    for (;;) {
+      let m = l;
+      for (; m < n - 1; m++) {
+        const dd = Math.abs(d[m]) + Math.abs(d[m + 1]);
+        if (Math.abs(e[m]) <= Number.EPSILON * dd) break;
+      }
+      if (m === l) break;
+      if (++iter > 60) throw new Error('symmetric eigen-decomposition did not converge');
+      let g = (d[l + 1] - d[l]) / (2 * e[l]);
+      let r = Math.hypot(g, 1);
+      g = d[m] - d[l] + e[l] / (g + (g >= 0 ? Math.abs(r) : -Math.abs(r)));
+      let s = 1;
+      let c = 1;
+      let p = 0;
+      let i = m - 1;
+      for (; i >= l; i--) {
+        let f = s * e[i];
+        const b = c * e[i];
+        r = Math.hypot(f, g);
+        e[i + 1] = r;
+        if (r === 0) {
+          d[i + 1] -= p;
+          e[m] = 0;
+          break;
+        }
+        s = f / r;
+        c = g / r;
+        g = d[i + 1] - p;
+        r = (d[i] - g) * s + 2 * c * b;
+        p = s * r;
+        d[i + 1] = g + p;
+        g = c * r - b;
+        for (let k = 0; k < n; k++) {
+          f = z[k * n + i + 1];
+          z[k * n + i + 1] = s * z[k * n + i] + c * f;
+          z[k * n + i] = c * z[k * n + i] - s * f;
+        }
+      }
+      if (r === 0 && i >= l) continue;
+      d[l] -= p;
+      e[l] = g;
+      e[m] = 0;
     }
   }
-  const values = new Float64Array(n);
-  for (let i = 0; i < n; i++) values[i] = a[i * n + i];
-  return { values, vectors: v };
+  const idx = Array.from({ length: n }, (_, i) => i).sort((x, y) => d[x] - d[y]);
+  const values = Float64Array.from(idx, (i) => d[i]);
+  const vectors = new Float64Array(n * n);
+  for (let r = 0; r < n; r++) for (let c = 0; c < n; c++) vectors[r * n + c] = z[r * n + idx[c]];
+  return { values, vectors };
 }
 
 export type EigenOptions = Readonly<{
   /** Shift σ (rad²/s²) below every wanted eigenvalue; K − σM must be positive definite. Default −(2π·10 Hz)². */
   shift?: number;
-  /** Vectors per Krylov block: at least the largest multiplicity expected. Default 6. */
+  /** Vectors per Krylov block: at least the largest multiplicity expected. Default 3. */
   blockSize?: number;
   /**
    * Known eigenvectors at λ = 0 (rigid-body motions of an unsupported model), kept out of the search:
@@ -62,7 +129,7 @@ export type EigenOptions = Readonly<{
    * swamp the precision left for high elastic modes. Vectors that vanish on the active DOFs are ignored.
    */
   deflate?: readonly Float64Array[];
-  /** Relative residual of the inverted operator, ‖Op x − θx‖_M / θ, accepted. Eigenvalue errors go as its square. Default 1e-4. */
+  /** Relative residual of the inverted operator, ‖Op x − θx‖_M / θ, accepted. Eigenvalue errors go as its square. Default 1e-3. */
   tolerance?: number;
 }>;
 
@@ -77,187 +144,168 @@ export type EigenResult = Readonly<{
   basisSize: number;
 }>;
 
+const dot = (a: Float64Array, b: Float64Array): number => {
+  let s = 0;
+  for (let i = 0; i < a.length; i++) s += a[i] * b[i];
+  return s;
+};
+
+const axpy = (y: Float64Array, c: number, x: Float64Array): void => {
+  for (let i = 0; i < y.length; i++) y[i] += c * x[i];
+};
+
 /**
- * Lowest eigenpairs of K x = λ M x (K symmetric in envelope storage, M diagonal and positive) by
- * shift-invert block Lanczos with full reorthogonalisation: the basis is grown block by block
- * from Op = (K − σM)⁻¹M in the M-inner product and Rayleigh–Ritz is applied to Op on it until the
- * wanted pairs meet the residual tolerance. Blocks keep repeated eigenvalues (symmetric parts,
- * rigid-body modes of a free part) from being missed, as a single-vector Lanczos run can.
- * Deterministic: the start block comes from a fixed-seed generator.
- * @throws NotPositiveDefiniteError when K − σM is not positive definite
+ * Lowest eigenpairs of K x = λ M x (K, M symmetric on one sparse pattern, M positive semi-definite,
+ * K − σM positive definite) by shift-invert block Lanczos with full reorthogonalisation. The basis
+ * Q is grown block by block from Op = (K − σM)⁻¹M in the M-inner product. The projected operator
+ * H = QᵀM·Op·Q comes for free from the Gram–Schmidt coefficients; a Ritz pair (θ, Qs) has the residual
+ * ‖Op x − θx‖_M = ‖W s_last‖_M with W the last block's orthogonalised remainders, so convergence is
+ * judged from vectors the iteration forms anyway. Blocks keep repeated eigenvalues (symmetric parts)
+ * from being missed. Deterministic: the start block comes from a fixed-seed generator.
+ * @throws NotPositiveDefiniteError when K − σM is not positive definite (a mechanism)
  */
-export function lowestEigenpairs(k: Envelope, m: Float64Array, count: number, options: EigenOptions = {}): EigenResult {
+export function lowestEigenpairs(k: SparseSymmetric, m: SparseSymmetric, count: number, options: EigenOptions = {}): EigenResult {
   const n = k.n;
-  const want = Math.min(count, n);
+  const want = Math.min(count, n - (options.deflate?.length ?? 0));
   if (want <= 0) return { values: [], vectors: [], basisSize: 0, deflated: 0 };
   const sigma = options.shift ?? -((2 * Math.PI * 10) ** 2);
-  const p = Math.min(options.blockSize ?? 6, n);
-  const tol = options.tolerance ?? 1e-4;
-  // A safety stop; the wanted pairs normally converge with a basis of two to four times their number.
-  const maxBasis = Math.min(n - (options.deflate?.length ?? 0), 10 * want + 10 * p + 50);
-  const factor = cholesky(k.withDiagonal(m, -sigma));
-  const locked: Float64Array[] = [];
+  const p = Math.max(1, Math.min(options.blockSize ?? 3, n));
+  const tol = options.tolerance ?? 1e-3;
+  const factor = cholesky(k.plus(m, -sigma));
+  const lockedQ: Float64Array[] = [];
+  const lockedMQ: Float64Array[] = [];
   const q: Float64Array[] = [];
+  const mq: Float64Array[] = [];
   const z: Float64Array[] = [];
-  const mdot = (a: Float64Array, b: Float64Array) => {
-    let s = 0;
-    for (let i = 0; i < n; i++) s += a[i] * m[i] * b[i];
-    return s;
-  };
-  /** M-orthogonalise against the basis (twice, classical Gram–Schmidt) and normalise; null if nothing is left. */
-  const orthonormalise = (v: Float64Array): Float64Array | null => {
-    const norm0 = Math.sqrt(mdot(v, v));
-    if (norm0 === 0) return null;
-    for (let pass = 0; pass < 2; pass++) {
-      for (const b of locked) {
-        const c = mdot(b, v);
-        for (let i = 0; i < n; i++) v[i] -= c * b[i];
-      }
-      for (const b of q) {
-        const c = mdot(b, v);
-        for (let i = 0; i < n; i++) v[i] -= c * b[i];
-      }
-    }
-    const norm = Math.sqrt(mdot(v, v));
-    if (norm < 1e-10 * norm0) return null;
-    for (let i = 0; i < n; i++) v[i] /= norm;
-    return v;
-  };
+  /** Columns of H by basis index: h[j][i] = q_iᵀ M z_j for i < h[j].length. */
+  const h: number[][] = [];
+  const maxBasis = Math.min(n - (options.deflate?.length ?? 0), 10 * want + 10 * p + 50);
   let seed = 12345;
   const rand = () => {
     seed = (seed * 1103515245 + 12345) % 2147483648;
     return seed / 2147483648 - 0.5;
   };
-  const addBlock = (cands: Float64Array[]): number => {
-    let added = 0;
-    for (const c of cands) {
-      if (q.length + locked.length >= n) break;
-      const v = orthonormalise(c);
-      if (!v) continue;
-      q.push(v);
-      const mv = new Float64Array(n);
-      for (let i = 0; i < n; i++) mv[i] = m[i] * v[i];
-      z.push(choleskySolve(factor, mv));
-      added++;
-    }
-    return added;
-  };
-  const randomBlock = () => Array.from({ length: p }, () => Float64Array.from({ length: n }, rand));
-  for (const d of options.deflate ?? []) {
-    const v = orthonormaliseAgainstLocked(new Float64Array(d));
-    if (v) locked.push(v);
-  }
-  function orthonormaliseAgainstLocked(v: Float64Array): Float64Array | null {
-    const norm0 = Math.sqrt(mdot(v, v));
-    if (!(norm0 > 0)) return null;
+  /** Remove the components along the locked and basis vectors (two classical Gram–Schmidt passes); first-pass basis coefficients returned. */
+  const orthogonalise = (v: Float64Array): number[] => {
+    let first: number[] = [];
     for (let pass = 0; pass < 2; pass++) {
-      for (const b of locked) {
-        const c = mdot(b, v);
-        for (let i = 0; i < n; i++) v[i] -= c * b[i];
-      }
+      for (let i = 0; i < lockedQ.length; i++) axpy(v, -dot(lockedMQ[i], v), lockedQ[i]);
+      const c = q.map((_, i) => dot(mq[i], v));
+      for (let i = 0; i < q.length; i++) axpy(v, -c[i], q[i]);
+      if (pass === 0) first = c;
     }
-    const norm = Math.sqrt(mdot(v, v));
-    if (norm < 1e-8 * norm0) return null;
-    for (let i = 0; i < n; i++) v[i] /= norm;
-    return v;
+    return first;
+  };
+  /** Orthonormalise candidates among themselves (M-norm) after `orthogonalise`; returns kept vectors with M·v. */
+  const normaliseBlock = (cands: Float64Array[], norms0: number[]): Array<{ v: Float64Array; mv: Float64Array }> => {
+    const out: Array<{ v: Float64Array; mv: Float64Array }> = [];
+    cands.forEach((v, c) => {
+      for (let pass = 0; pass < 2; pass++) for (const o of out) axpy(v, -dot(o.mv, v), o.v);
+      let mv = m.multiply(v);
+      const norm = Math.sqrt(Math.max(dot(v, mv), 0));
+      if (!(norm > 1e-10 * norms0[c])) return;
+      for (let i = 0; i < n; i++) v[i] /= norm;
+      mv = mv.map((x) => x / norm);
+      out.push({ v, mv });
+    });
+    return out;
+  };
+  const addToBasis = (block: Array<{ v: Float64Array; mv: Float64Array }>) => {
+    const sol = choleskySolveInPlace(
+      factor,
+      block.map((b) => Float64Array.from(b.mv)),
+    );
+    block.forEach((b, i) => {
+      q.push(b.v);
+      mq.push(b.mv);
+      z.push(sol[i]);
+      h.push([]);
+    });
+  };
+  for (const d of options.deflate ?? []) {
+    const v = Float64Array.from(d);
+    const norm0 = Math.sqrt(Math.max(dot(v, m.multiply(v)), 0));
+    if (!(norm0 > 0)) continue;
+    for (let pass = 0; pass < 2; pass++) for (let i = 0; i < lockedQ.length; i++) axpy(v, -dot(lockedMQ[i], v), lockedQ[i]);
+    const mv = m.multiply(v);
+    const norm = Math.sqrt(Math.max(dot(v, mv), 0));
+    if (!(norm > 1e-8 * norm0)) continue;
+    lockedQ.push(v.map((x) => x / norm));
+    lockedMQ.push(mv.map((x) => x / norm));
   }
-  addBlock(randomBlock());
-  let lastBlockStart = 0;
-  // H = QᵀM Z (the projected operator) and G = ZᵀM Z, grown one row per basis vector. With
-  // Ritz vector x = Q s and θ its value, ‖Op x − θx‖²_M = sᵀGs − 2θ sᵀHs + θ², so convergence is
-  // judged without forming any vector.
-  const hRows: number[][] = [];
-  const gRows: number[][] = [];
+  const randomBlock = (): Array<{ v: Float64Array; mv: Float64Array }> => {
+    const cands = Array.from({ length: p }, () => Float64Array.from({ length: n }, rand));
+    const norms = cands.map((v) => Math.sqrt(Math.max(dot(v, m.multiply(v)), 0)));
+    for (const v of cands) orthogonalise(v);
+    return normaliseBlock(cands, norms);
+  };
+  addToBasis(randomBlock());
+  let last = 0;
   for (;;) {
-    for (let i = hRows.length; i < q.length; i++) {
-      const h: number[] = [];
-      const g: number[] = [];
-      for (let j = 0; j <= i; j++) {
-        h.push(0.5 * (mdot(q[i], z[j]) + mdot(q[j], z[i])));
-        g.push(mdot(z[i], z[j]));
-      }
-      hRows.push(h);
-      gRows.push(g);
+    // Candidates: Op applied to the last block, orthogonalised against everything so far.
+    const lastEnd = q.length;
+    const cands: Float64Array[] = [];
+    const norms0: number[] = [];
+    for (let j = last; j < lastEnd; j++) {
+      const v = Float64Array.from(z[j]);
+      norms0.push(Math.sqrt(Math.max(dot(v, m.multiply(v)), 0)));
+      h[j] = orthogonalise(v);
+      cands.push(v);
     }
-    if (q.length >= Math.min(n, want + p)) {
-      const ritz = ritzPairs(hRows, want);
-      let converged = true;
-      for (const { theta, s } of ritz) {
-        const r2 = quad(gRows, s) - 2 * theta * quad(hRows, s) + theta * theta;
-        if (!(Math.sqrt(Math.max(r2, 0)) <= tol * theta)) converged = false;
+    // H over the current basis is now complete: entry (i, j) was formed when the later of the two
+    // blocks was orthogonalised; pairs inside one block were formed twice and are averaged.
+    const b = lastEnd;
+    const hm = new Float64Array(b * b);
+    const known = new Uint8Array(b * b);
+    for (let j = 0; j < b; j++) {
+      const col = h[j];
+      for (let i = 0; i < col.length; i++) {
+        hm[i * b + j] = col[i];
+        known[i * b + j] = 1;
       }
-      // The cheap estimate is found by cancellation and cannot resolve much below ε·θmax, so a
-      // pass is confirmed on the vectors themselves before it is trusted.
-      if (converged && !explicitlyConverged(ritz)) converged = false;
-      if (converged || q.length >= maxBasis) return finish(ritz);
     }
-    const start = q.length;
-    const added = addBlock(z.slice(lastBlockStart, start).map((v) => new Float64Array(v)));
-    lastBlockStart = start;
-    if (added === 0 && addBlock(randomBlock()) === 0) return finish(ritzPairs(hRows, want));
-  }
-
-  function explicitlyConverged(ritz: Array<{ theta: number; s: Float64Array }>): boolean {
-    const x = new Float64Array(n);
-    const y = new Float64Array(n);
+    for (let i = 0; i < b; i++) {
+      for (let j = 0; j < i; j++) {
+        const a = known[i * b + j] ? hm[i * b + j] : hm[j * b + i];
+        const c = known[j * b + i] ? hm[j * b + i] : hm[i * b + j];
+        hm[i * b + j] = hm[j * b + i] = 0.5 * (a + c);
+      }
+    }
+    const { values, vectors } = symmetricEigen(hm, b);
+    // Largest θ of the inverted operator ↔ eigenvalues closest above the shift.
+    const ritz: Array<{ theta: number; s: Float64Array }> = [];
+    for (let c = b - 1; c >= 0 && ritz.length < want; c--) {
+      if (!(values[c] > 0)) break;
+      ritz.push({ theta: values[c], s: Float64Array.from({ length: b }, (_, r) => vectors[r * b + c]) });
+    }
+    // Residuals from the remainders W of the last block: ‖W s_last‖²_M = s_lastᵀ (WᵀMW) s_last.
+    const nc = cands.length;
+    const mc = cands.map((v) => m.multiply(v));
+    const w = new Float64Array(nc * nc);
+    for (let a = 0; a < nc; a++) for (let c = 0; c <= a; c++) w[a * nc + c] = w[c * nc + a] = dot(cands[a], mc[c]);
+    let converged = ritz.length === want;
     for (const { theta, s } of ritz) {
-      x.fill(0);
-      y.fill(0);
-      for (let a = 0; a < s.length; a++) {
-        const c = s[a];
-        const qa = q[a];
-        const za = z[a];
-        for (let r = 0; r < n; r++) {
-          x[r] += c * qa[r];
-          y[r] += c * za[r];
-        }
-      }
       let r2 = 0;
-      for (let r = 0; r < n; r++) r2 += m[r] * (y[r] - theta * x[r]) ** 2;
-      if (!(Math.sqrt(r2) <= tol * theta)) return false;
+      for (let a = 0; a < nc; a++) for (let c = 0; c < nc; c++) r2 += s[last + a] * s[last + c] * w[a * nc + c];
+      if (!(Math.sqrt(Math.max(r2, 0)) <= tol * theta)) converged = false;
     }
-    return true;
+    if (converged || q.length >= maxBasis) return finish(ritz);
+    const block = normaliseBlock(cands, norms0);
+    last = lastEnd;
+    if (block.length) addToBasis(block);
+    else {
+      const fresh = randomBlock();
+      if (!fresh.length) return finish(ritz);
+      addToBasis(fresh);
+    }
   }
 
   function finish(ritz: Array<{ theta: number; s: Float64Array }>): EigenResult {
     const vectors = ritz.map(({ s }) => {
       const x = new Float64Array(n);
-      for (let a = 0; a < s.length; a++) {
-        const c = s[a];
-        if (c === 0) continue;
-        const qa = q[a];
-        for (let r = 0; r < n; r++) x[r] += c * qa[r];
-      }
+      for (let a = 0; a < s.length; a++) if (s[a] !== 0) axpy(x, s[a], q[a]);
       return x;
     });
-    return { values: ritz.map(({ theta }) => sigma + 1 / theta), vectors, basisSize: q.length, deflated: locked.length };
+    return { values: ritz.map(({ theta }) => sigma + 1 / theta), vectors, basisSize: q.length, deflated: lockedQ.length };
   }
-}
-
-/** sᵀ A s for a symmetric matrix stored as lower-triangle rows. */
-function quad(rows: number[][], s: Float64Array): number {
-  let acc = 0;
-  for (let i = 0; i < s.length; i++) {
-    const row = rows[i];
-    let t = 0;
-    for (let j = 0; j < i; j++) t += row[j] * s[j];
-    acc += s[i] * (2 * t + row[i] * s[i]);
-  }
-  return acc;
-}
-
-/**
- * Rayleigh–Ritz on the basis: eigenpairs of the projected operator H, largest θ first (largest θ of
- * the inverted operator ↔ eigenvalues closest above the shift).
- */
-function ritzPairs(hRows: number[][], want: number): Array<{ theta: number; s: Float64Array }> {
-  const b = hRows.length;
-  const h = new Float64Array(b * b);
-  for (let i = 0; i < b; i++) for (let j = 0; j <= i; j++) h[i * b + j] = h[j * b + i] = hRows[i][j];
-  const { values, vectors } = jacobiEigen(h, b);
-  return Array.from(values.keys())
-    .filter((i) => values[i] > 0)
-    .sort((i, j) => values[j] - values[i])
-    .slice(0, want)
-    .map((i) => ({ theta: values[i], s: Float64Array.from({ length: b }, (_, a) => vectors[a * b + i]) }));
 }

@@ -1,7 +1,8 @@
 export * from './laminate.js';
 export * from './mesh.js';
 export * from './shellTriangle.js';
-export * from './envelope.js';
+export * from './sparse.js';
+export * from './beamElement.js';
 export * from './eigen.js';
 export * from './model.js';
 export * from './plateModel.js';
@@ -9,3 +10,5 @@ export * from './solve.js';
 export * from './describe.js';
 export * from './statics.js';
 export * from './modes.js';
+export * from './frameModel.js';
+export * from './frameModes.js';

@@ -1,5 +1,10 @@
-import cdt2d from 'cdt2d';
+import ConstrainautorImport from '@kninnug/constrainautor';
+import Delaunator from 'delaunator';
 import { lengthOf, pointAt, type Loop, type Part, type Vec2 } from '../geometry/index.js';
+
+// The package's types are its TypeScript source, which NodeNext reads as CommonJS (a namespace with
+// `default`); at run time the ESM build's default export is the class itself.
+const Constrainautor = ConstrainautorImport as unknown as typeof ConstrainautorImport.default;
 
 /**
  * A triangulation of a plate's material (outline minus holes) in part coordinates.
@@ -11,8 +16,14 @@ export type PlateMesh = Readonly<{
   /** Three node indices per triangle, counter-clockwise. */
   triangles: Uint32Array;
   loops: readonly (readonly number[])[];
+  /** The rings of nodes laid at a given radius about a point (a screw head's edge), in the order given. */
+  rings: readonly MeshRing[];
   sizeMm: number;
 }>;
+
+/** A circle of nodes laid inside the material, so a region of that radius is resolved by the mesh. */
+export type RingRequest = Readonly<{ centreMm: Vec2; radiusMm: number }>;
+export type MeshRing = RingRequest & Readonly<{ nodes: readonly number[]; whole: boolean }>;
 
 export const nodeCount = (m: PlateMesh): number => m.xy.length / 2;
 export const triangleCount = (m: PlateMesh): number => m.triangles.length / 3;
@@ -21,16 +32,21 @@ export const triangleCount = (m: PlateMesh): number => m.triangles.length / 3;
 const MIN_PIECES_PER_TURN = 12;
 /** Interior lattice points keep this fraction of the target size away from any boundary edge. */
 const BOUNDARY_CLEARANCE = 0.55;
+/** A ring node keeps this fraction of the ring's node spacing away from the part's boundary. */
+const RING_CLEARANCE = 0.35;
 
 /**
  * Triangulate the material of a part: boundary nodes on the exact loops at the target spacing
- * (arcs get at least 12 pieces per turn), interior nodes on an equilateral lattice of the same
- * spacing, a constrained Delaunay triangulation (cdt2d, robust predicates) that keeps every
- * boundary edge and drops the holes, then a few guarded Laplacian smoothing passes.
+ * (arcs get at least 12 pieces per turn), optional rings of nodes (the edge of a screw head about
+ * a bolt hole, so the clamped footprint is resolved where it matters), interior nodes on an
+ * equilateral lattice of the same spacing, a Delaunay triangulation (`delaunator`, robust
+ * predicates) with every boundary edge and whole ring enforced (`@kninnug/constrainautor`),
+ * triangles outside the material dropped, then a few guarded Laplacian smoothing passes.
+ * Deterministic: the same part and options give the same mesh.
  * @param sizeMm target element edge length, mm (> 0)
  * @throws RangeError when sizeMm is not positive or the mesh would exceed 200 000 nodes
  */
-export function meshPart(part: Pick<Part, 'outline' | 'features'>, sizeMm: number): PlateMesh {
+export function meshPart(part: Pick<Part, 'outline' | 'features'>, sizeMm: number, options: Readonly<{ rings?: readonly RingRequest[] }> = {}): PlateMesh {
   if (!(sizeMm > 0)) throw new RangeError(`mesh size must be positive (got ${sizeMm} mm)`);
   const pts: Vec2[] = [];
   const edges: Array<[number, number]> = [];
@@ -46,11 +62,29 @@ export function meshPart(part: Pick<Part, 'outline' | 'features'>, sizeMm: numbe
     loops.push(ids);
   }
   const polys = loops.map((ids) => ids.map((i) => pts[i]));
-  const grid = new EdgeGrid(polys, sizeMm);
   const [minX, minY, maxX, maxY] = bbox(polys[0]);
   const dy = (sizeMm * Math.sqrt(3)) / 2;
   const estimate = ((maxX - minX) / sizeMm + 1) * ((maxY - minY) / dy + 1);
   if (estimate > 200_000) throw new RangeError(`mesh size ${sizeMm} mm is too fine for a ${(maxX - minX).toFixed(0)} × ${(maxY - minY).toFixed(0)} mm part (about ${estimate.toFixed(0)} nodes; limit 200000)`);
+  const grid = new EdgeGrid(sizeMm);
+  for (const poly of polys) grid.addLoop(poly);
+  const rings: MeshRing[] = [];
+  for (const r of options.rings ?? []) {
+    const n = Math.max(MIN_PIECES_PER_TURN, Math.ceil((2 * Math.PI * r.radiusMm) / sizeMm - 1e-9));
+    const spacing = (2 * Math.PI * r.radiusMm) / n;
+    const circle: Vec2[] = Array.from({ length: n }, (_, k) => [r.centreMm[0] + r.radiusMm * Math.cos((2 * Math.PI * k) / n), r.centreMm[1] + r.radiusMm * Math.sin((2 * Math.PI * k) / n)] as Vec2);
+    const ok = circle.map((p) => inMaterial(polys, p) && grid.distance(p) >= RING_CLEARANCE * spacing);
+    const ids: number[] = [];
+    circle.forEach((p, k) => {
+      if (!ok[k]) return;
+      ids.push(pts.length);
+      pts.push(p);
+    });
+    const whole = ok.every(Boolean);
+    if (whole) for (let i = 0; i < ids.length; i++) edges.push([ids[i], ids[(i + 1) % ids.length]]);
+    if (ids.length) grid.addLoop(ids.map((i) => pts[i]), whole);
+    rings.push({ ...r, nodes: ids, whole });
+  }
   const interiorStart = pts.length;
   for (let j = 0, y = minY + dy / 2; y < maxY; j++, y += dy) {
     for (let x = minX + (j % 2 ? sizeMm / 2 : 0) + sizeMm / 4; x < maxX; x += sizeMm) {
@@ -60,21 +94,28 @@ export function meshPart(part: Pick<Part, 'outline' | 'features'>, sizeMm: numbe
       pts.push(p);
     }
   }
-  const tris = cdt2d(pts, edges, { exterior: false });
   const xy = new Float64Array(pts.length * 2);
   pts.forEach((p, i) => {
     xy[2 * i] = p[0];
     xy[2 * i + 1] = p[1];
   });
-  const triangles = new Uint32Array(tris.length * 3);
-  tris.forEach((t, k) => {
-    const ccw = area2(xy, t[0], t[1], t[2]) > 0;
-    triangles[3 * k] = t[0];
-    triangles[3 * k + 1] = ccw ? t[1] : t[2];
-    triangles[3 * k + 2] = ccw ? t[2] : t[1];
-  });
+  const del = new Delaunator(xy);
+  new Constrainautor(del, edges);
+  const t = del.triangles;
+  const kept: number[] = [];
+  for (let k = 0; k < t.length; k += 3) {
+    const [a, b, c] = [t[k], t[k + 1], t[k + 2]];
+    // Collinear boundary points (a straight run, the convex hull) can form triangles of no area.
+    const twice = area2(xy, a, b, c);
+    if (Math.abs(twice) < 1e-9 * sizeMm * sizeMm) continue;
+    const centroid: Vec2 = [(xy[2 * a] + xy[2 * b] + xy[2 * c]) / 3, (xy[2 * a + 1] + xy[2 * b + 1] + xy[2 * c + 1]) / 3];
+    if (!inMaterial(polys, centroid)) continue;
+    if (twice > 0) kept.push(a, b, c);
+    else kept.push(a, c, b);
+  }
+  const triangles = Uint32Array.from(kept);
   smooth(xy, triangles, interiorStart, 4);
-  return { xy, triangles, loops, sizeMm };
+  return { xy, triangles, loops, rings, sizeMm };
 }
 
 /** Points along a closed loop (closing point not repeated), spaced at most sizeMm apart. */
@@ -120,22 +161,21 @@ function inMaterial(polys: readonly (readonly Vec2[])[], p: Vec2): boolean {
   return inside;
 }
 
-/** Boundary edges bucketed on a square grid, for the distance from lattice points to the boundary. */
+/** Boundary edges bucketed on a square grid, for the distance from candidate nodes to the boundary. */
 class EdgeGrid {
   private readonly cells = new Map<number, Array<[Vec2, Vec2]>>();
-  constructor(
-    polys: readonly (readonly Vec2[])[],
-    private readonly cell: number,
-  ) {
-    for (const poly of polys) {
-      for (let i = 0; i < poly.length; i++) {
-        const a = poly[i];
-        const b = poly[(i + 1) % poly.length];
-        const [i0, i1] = [Math.floor(Math.min(a[0], b[0]) / cell), Math.floor(Math.max(a[0], b[0]) / cell)];
-        const [j0, j1] = [Math.floor(Math.min(a[1], b[1]) / cell), Math.floor(Math.max(a[1], b[1]) / cell)];
-        for (let ci = i0; ci <= i1; ci++) for (let cj = j0; cj <= j1; cj++) this.bucket(ci, cj).push([a, b]);
-      }
-    }
+  constructor(private readonly cell: number) {}
+  /** Add the edges of a polygon (closed, or an open chain of points when `closed` is false). */
+  addLoop(poly: readonly Vec2[], closed = true): void {
+    const last = closed ? poly.length : poly.length - 1;
+    for (let i = 0; i < last; i++) this.addEdge(poly[i], poly[(i + 1) % poly.length]);
+    if (!closed) for (const p of poly) this.addEdge(p, p);
+  }
+  private addEdge(a: Vec2, b: Vec2): void {
+    const cell = this.cell;
+    const [i0, i1] = [Math.floor(Math.min(a[0], b[0]) / cell), Math.floor(Math.max(a[0], b[0]) / cell)];
+    const [j0, j1] = [Math.floor(Math.min(a[1], b[1]) / cell), Math.floor(Math.max(a[1], b[1]) / cell)];
+    for (let ci = i0; ci <= i1; ci++) for (let cj = j0; cj <= j1; cj++) this.bucket(ci, cj).push([a, b]);
   }
   private key = (i: number, j: number): number => (i + 50_000) * 100_000 + (j + 50_000);
   private bucket(i: number, j: number): Array<[Vec2, Vec2]> {
@@ -144,7 +184,7 @@ class EdgeGrid {
     if (!b) this.cells.set(k, (b = []));
     return b;
   }
-  /** Distance to the nearest boundary edge, exact when it is below one cell size. */
+  /** Distance to the nearest edge, exact when it is below one cell size. */
   distance(p: Vec2): number {
     const ci = Math.floor(p[0] / this.cell);
     const cj = Math.floor(p[1] / this.cell);
@@ -167,8 +207,8 @@ function segDist(p: Vec2, a: Vec2, b: Vec2): number {
 }
 
 /**
- * Laplacian smoothing of interior nodes (boundary nodes stay on the exact outline). A pass that
- * would make any triangle lose more than 80 % of its area, or turn over, is undone and smoothing stops.
+ * Laplacian smoothing of interior nodes (boundary and ring nodes stay put). A pass that would make
+ * any triangle lose more than 80 % of its area, or turn over, is undone and smoothing stops.
  */
 function smooth(xy: Float64Array, tris: Uint32Array, firstFree: number, passes: number): void {
   const n = xy.length / 2;

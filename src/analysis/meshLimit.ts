@@ -1,9 +1,9 @@
 import { lengthOf, partArea, type Part } from '../geometry/index.js';
 
 /**
- * Mesh nodes one `modes` run solves at most, over all the parts it analyses. The default mesh of a
- * demo frame plate has 1,300–1,400 nodes (about 8,000 degrees of freedom); the solver's time grows a
- * little faster than the node count (measured: 15,000 DOF 6.6 s, 56,000 DOF 34 s on the 2-core
+ * Mesh nodes of one model `modes` solves at most (one part, or the assembled frame). The default mesh
+ * of a demo frame plate has 1,100–1,400 nodes (about 8,000 degrees of freedom); the solver's time grows
+ * a little faster than the node count (measured: 15,000 DOF 6.6 s, 56,000 DOF 34 s on the 2-core
  * machine shared with other work), so beyond this a run takes minutes and is refused instead.
  */
 export const MAX_MESH_NODES = 20_000;
@@ -30,17 +30,18 @@ export function meshNodeEstimate(part: Pick<Part, 'outline' | 'features'>, sizeM
 }
 
 /**
- * Refuse a run whose meshes would exceed MAX_MESH_NODES, before any mesh is made.
+ * Refuse a run with a model whose mesh would exceed MAX_MESH_NODES, before any mesh is made: each
+ * part's own model, and with `assembled` the whole frame (every placed copy of every part).
  * @param sizeOf the element size each part will be meshed at, mm
- * @throws RangeError naming the node count, the limit and what to change
+ * @throws RangeError naming the model, its node count, the limit and what to change
  */
-export function refuseLargeMeshes(parts: readonly Part[], sizeOf: (p: Part) => number): void {
-  let total = 0;
-  for (const p of parts) total += meshNodeEstimate(p, sizeOf(p));
-  if (total > MAX_MESH_NODES) {
-    const holes = parts.reduce((a, p) => a + p.features.length, 0);
-    throw new RangeError(
-      `the mesh would have about ${total} nodes (${parts.length} part${parts.length === 1 ? '' : 's'}, ${holes} holes), more than the ${MAX_MESH_NODES} one modes run solves; analyse fewer parts (--part), use a coarser --mesh-size, or drop holes that do not change the stiffness`,
-    );
+export function refuseLargeMeshes(parts: readonly Part[], sizeOf: (p: Part) => number, assembled = false): void {
+  const advice = 'analyse one part (--part), use a coarser --mesh-size, or drop holes that do not change the stiffness';
+  for (const p of parts) {
+    const n = meshNodeEstimate(p, sizeOf(p));
+    if (n > MAX_MESH_NODES) throw new RangeError(`the mesh of ${p.name} would have about ${n} nodes (${p.features.length} holes), more than the ${MAX_MESH_NODES} of one model; ${advice}`);
   }
+  if (!assembled) return;
+  const total = parts.reduce((a, p) => a + Math.max(1, p.placements.length) * meshNodeEstimate(p, sizeOf(p)), 0);
+  if (total > MAX_MESH_NODES) throw new RangeError(`the assembled frame's mesh would have about ${total} nodes, more than the ${MAX_MESH_NODES} of one model; ${advice}`);
 }

@@ -1,7 +1,10 @@
-import { type Frame, type Material, type Part, type PartRole, type Vec2 } from '../geometry/index.js';
+import { buildAssembly } from '../assembly/build.js';
+import { motorHeightMm } from '../assembly/parts.js';
+import { assembledFrameModes, rotationBandFromTipSpeed, type FrameModalResult } from './frameModes.js';
+import { type Feature, type Frame, type Material, type Part, type PartRole, type Vec2 } from '../geometry/index.js';
 import { describeModes, motionAt, type PointMotion, type ShapeContext } from './describe.js';
 import type { PlateMesh } from './mesh.js';
-import { defaultMeshSizeMm, featureCentre, featureNodes, meshMassG, motorsOnPlate, plateModel, withFixed, withMasses, type AddedMass, type PlateModel } from './plateModel.js';
+import { defaultMeshSizeMm, featureCentre, featureNodes, footprintRadiusMm, footprintRings, meshMassG, motorsOnPlate, nodesWithin, plateModel, withFixed, withMasses, withRigidMass, type AddedMass, type PlateModel } from './plateModel.js';
 import { solvePlateModes } from './solve.js';
 import { armTipDeflection, bodyTwist, rootLoadedBodyTwist, type ArmStatics, type BodyTwist, type TipDeflection, unibodyTipDeflections } from './statics.js';
 import { DEFAULT_THRUST_N } from './defaults.js';
@@ -21,6 +24,13 @@ export type ModeOptions = Readonly<{
   cameraMassG?: number;
   /** Thrust of one motor for the static figures, N. Default 10. */
   thrustN?: number;
+  /**
+   * The motor as a body on the arm: a solid cylinder of the bell diameter and height standing on the
+   * arm's top face (its mass is `motorMassG`). Without it the motor is a mass at the bolt-circle centre.
+   */
+  motor?: Readonly<{ bellDiameterMm: number; heightMm: number }>;
+  /** frameModes: also solve the assembled frame (default true). */
+  assembled?: boolean;
 }>;
 
 export type Boundary = 'free' | 'arm-root-clamped' | 'body-with-motors';
@@ -72,37 +82,54 @@ export function partModes(part: Part, options: ModeOptions = {}): ModalResult {
 }
 
 /**
- * Modes of an arm held at its root bolts (every node on the root bolt-hole edges fixed in
- * translation) and carrying its motor, spread over the motor bolt-hole edges.
+ * Modes of an arm as built: held as the frame holds it, every node within each root screw's head
+ * radius fixed in all six DOFs (the bolted-joint idealisation of the frame model), and carrying its
+ * motor as a rigid body tied to the arm over its motor screws' head footprints (a solid cylinder on
+ * the arm's top face when `options.motor` gives its size).
  * @throws RangeError when the part has no arm-root or motor bolt holes
  */
 export function armModes(part: Part, options: ModeOptions = {}): ModalResult {
-  const pm0 = plateModel(part, options.meshSizeMm ?? defaultMeshSizeMm(part));
-  const { pm, ctx, masses } = armSetup(pm0, part, options.motorMassG ?? 0);
+  const rings = footprintRings(part, ['arm-root-bolt', 'motor-bolt']);
+  const pm0 = plateModel(part, options.meshSizeMm ?? defaultMeshSizeMm(part), rings);
+  const { pm, ctx, masses } = armSetup(pm0, part, options);
   return run(pm, 'arm-root-clamped', masses, ctx, null, options);
 }
 
-function armSetup(pm0: PlateModel, part: Part, motorMassG: number) {
-  const roots = featureNodes(pm0, 'arm-root-bolt');
-  const motors = featureNodes(pm0, 'motor-bolt');
+function armSetup(pm0: PlateModel, part: Part, options: ModeOptions) {
+  const roots = part.features.filter((f) => f.purpose === 'arm-root-bolt');
+  const motors = part.features.filter((f) => f.purpose === 'motor-bolt');
   if (!roots.length) throw new RangeError(`part ${part.name} has no arm-root bolt holes to clamp`);
   if (!motors.length) throw new RangeError(`part ${part.name} has no motor bolt holes`);
-  const centre = (fs: typeof roots): Vec2 => {
-    const cs = fs.map((f) => featureCentre(pm0, f.feature, f.nodes));
+  // Round holes: the head's footprint; a slot (no single centre): its edge nodes.
+  const footprint = (f: Feature) => {
+    const r = footprintRadiusMm(f);
+    return r !== null && f.centerMm ? nodesWithin(pm0, f.centerMm, r) : [...pm0.mesh.loops[part.features.indexOf(f) + 1]];
+  };
+  const centre = (fs: readonly Feature[]): Vec2 => {
+    const cs = fs.map((f) => featureCentre(pm0, f, pm0.mesh.loops[part.features.indexOf(f) + 1]));
     return [cs.reduce((s, c) => s + c[0], 0) / cs.length, cs.reduce((s, c) => s + c[1], 0) / cs.length];
   };
-  const tipNodes = motors.flatMap((m) => m.nodes);
-  const masses: AddedMass[] = motorMassG > 0 ? [{ what: 'motor', massG: motorMassG, nodes: tipNodes }] : [];
-  const pm = withMasses(
-    withFixed(
-      pm0,
-      roots.flatMap((r) => r.nodes),
-      [0, 1, 2],
-    ),
-    masses,
-  );
+  const clamped = roots.flatMap(footprint);
+  const tipNodes = motors.flatMap(footprint);
+  const motorG = options.motorMassG ?? 0;
+  const masses: AddedMass[] = motorG > 0 ? [{ what: 'motor', massG: motorG, nodes: tipNodes }] : [];
+  let pm = withFixed(pm0, clamped, [0, 1, 2, 3, 4, 5]);
+  if (motorG > 0) {
+    const c = centre(motors);
+    const m = options.motor;
+    // The motor's centre of mass: half its height above the arm's top face (the plate's mid-plane is z = 0).
+    const z = m ? part.thicknessMm / 2 + m.heightMm / 2 : 0;
+    pm = withRigidMass(pm, [c[0], c[1], z], motorG, m ? cylinderInertiaGMm2(motorG, m.bellDiameterMm, m.heightMm) : [0, 0, 0], tipNodes);
+  }
   const ctx: ShapeContext = { kind: 'arm', rootMm: centre(roots), tipMm: centre(motors), tipNodes };
   return { pm, ctx, masses, tipNodes };
+}
+
+/** Principal inertia of a solid cylinder (axis z) about its centre: m(3r² + h²)/12 twice, m r²/2. g·mm². */
+export function cylinderInertiaGMm2(massG: number, diameterMm: number, heightMm: number): [number, number, number] {
+  const r = diameterMm / 2;
+  const side = (massG * (3 * r * r + heightMm * heightMm)) / 12;
+  return [side, side, (massG * r * r) / 2];
 }
 
 /**
@@ -189,6 +216,8 @@ export type FrameModes = Readonly<{
   body: BodyResult | null;
   /** Separate-arm frames: bottom-plate twist with the arm loads brought in at the root bolts. */
   rootTwist: BodyTwist | null;
+  /** The assembled frame (plates, joints, standoffs, motors, components), free in space; null for a part subset or a drawing. */
+  assembled: FrameModalResult | null;
 }>;
 
 /**
@@ -199,7 +228,8 @@ export type FrameModes = Readonly<{
 export function frameModes(frame: Frame, options: ModeOptions = {}): FrameModes {
   const motorMassG = options.motorMassG ?? frame.design.motorMassG;
   const thrustN = options.thrustN ?? DEFAULT_THRUST_N;
-  const opts = { ...options, motorMassG, thrustN };
+  const motor = options.motor ?? { bellDiameterMm: frame.design.motor.bellDiameterMm, heightMm: motorHeightMm(frame.design) };
+  const opts = { ...options, motorMassG, thrustN, motor };
   const parts = frame.parts.map((p) => partModes(p, opts));
   const arms = frame.parts
     .filter((p) => p.role === 'arm')
@@ -214,5 +244,9 @@ export function frameModes(frame: Frame, options: ModeOptions = {}): FrameModes 
     };
   }
   const rootTwist = bottom && frame.design.arms.construction === 'separate' ? rootLoadedBodyTwist(bottom, frame.sites, thrustN, opts.meshSizeMm) : null;
-  return { frame: frame.name, motorMassG, thrustN, parts, arms, body, rootTwist };
+  const assembled =
+    options.assembled === false
+      ? null
+      : assembledFrameModes(buildAssembly(frame.design, frame), { modes: options.modes ?? 8, rotationBand: rotationBandFromTipSpeed(frame.propDiameterMm) });
+  return { frame: frame.name, motorMassG, thrustN, parts, arms, body, rootTwist, assembled };
 }

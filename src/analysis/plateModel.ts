@@ -1,15 +1,16 @@
+import { screwHead } from '../assembly/standards.js';
 import { partArea, type Feature, type FeaturePurpose, type Frame, type Part, type Vec2 } from '../geometry/index.js';
 import type { MotorOnPlate } from './describe.js';
 import { laminate, type Laminate } from './laminate.js';
-import { meshPart, nodeCount, type PlateMesh } from './mesh.js';
-import type { ShellModel } from './model.js';
+import { meshPart, nodeCount, type PlateMesh, type RingRequest } from './mesh.js';
+import type { FeModel } from './model.js';
 
 /** A part meshed and turned into a shell model lying in the x–y plane (part coordinates). */
 export type PlateModel = Readonly<{
   part: Part;
   mesh: PlateMesh;
   laminate: Laminate;
-  model: ShellModel;
+  model: FeModel;
 }>;
 
 /** Mass added to the plate: where it sits and how much, for the report. */
@@ -32,9 +33,10 @@ export function defaultMeshSizeMm(part: Part): number {
  * thickness and weave angle; masses and supports are added by the caller through `withMasses`
  * and `withFixed`.
  * @param sizeMm element size, mm (default `defaultMeshSizeMm`)
+ * @param rings circles of nodes to lay (screw-head footprints, see `footprintRings`)
  */
-export function plateModel(part: Part, sizeMm = defaultMeshSizeMm(part)): PlateModel {
-  const mesh = meshPart(part, sizeMm);
+export function plateModel(part: Part, sizeMm = defaultMeshSizeMm(part), rings: readonly RingRequest[] = []): PlateModel {
+  const mesh = meshPart(part, sizeMm, { rings });
   const lam = laminate(part.material, part.thicknessMm, part.weaveRad);
   const n = nodeCount(mesh);
   const xyz = new Float64Array(3 * n);
@@ -42,7 +44,7 @@ export function plateModel(part: Part, sizeMm = defaultMeshSizeMm(part)): PlateM
     xyz[3 * i] = mesh.xy[2 * i];
     xyz[3 * i + 1] = mesh.xy[2 * i + 1];
   }
-  const model: ShellModel = {
+  const model: FeModel = {
     xyz,
     triangles: mesh.triangles,
     laminates: [lam],
@@ -66,6 +68,31 @@ export function featureNodes(pm: PlateModel, purpose: FeaturePurpose): Array<{ f
 export function withMasses(pm: PlateModel, masses: readonly AddedMass[]): PlateModel {
   const extra = masses.flatMap((m) => (m.nodes.length && m.massG > 0 ? m.nodes.map((node) => ({ node, massT: (m.massG * G_TO_T) / m.nodes.length })) : []));
   return { ...pm, model: { ...pm.model, pointMasses: [...pm.model.pointMasses, ...extra] } };
+}
+
+/**
+ * The model with a rigid body: a new node at `atMm` (x, y in part coordinates, z above the plate's
+ * mid-plane) carrying the mass and principal inertia (about that point, part axes), with the given
+ * plate nodes following it rigidly in all six DOFs.
+ */
+export function withRigidMass(pm: PlateModel, atMm: readonly [number, number, number], massG: number, inertiaGMm2: readonly [number, number, number], nodes: readonly number[]): PlateModel {
+  const node = pm.model.xyz.length / 3;
+  const xyz = new Float64Array(pm.model.xyz.length + 3);
+  xyz.set(pm.model.xyz);
+  xyz.set(atMm, 3 * node);
+  const fixed = new Uint8Array(pm.model.fixed.length + 6);
+  fixed.set(pm.model.fixed);
+  const [ixx, iyy, izz] = inertiaGMm2.map((v) => v * G_TO_T);
+  return {
+    ...pm,
+    model: {
+      ...pm.model,
+      xyz,
+      fixed,
+      pointMasses: [...pm.model.pointMasses, { node, massT: massG * G_TO_T, inertiaTMm2: [ixx, iyy, izz, 0, 0, 0] }],
+      rigid: [...(pm.model.rigid ?? []), { master: node, slaves: [...nodes] }],
+    },
+  };
 }
 
 /** The model with the given DOFs (0..5: u, v, w, rx, ry, rz) held at zero on the given nodes. */
@@ -112,3 +139,29 @@ export function motorsOnPlate(pm: PlateModel, sites: Frame['sites']): MotorOnPla
   });
 }
 
+
+/**
+ * Radius of the plate area a screw through this hole clamps: half the head diameter (ISO 4762 socket
+ * head, or the countersunk head where the hole is countersunk), the joint idealisation of the frame
+ * model. mm; null for a feature without a screw.
+ */
+export function footprintRadiusMm(f: Feature): number | null {
+  if (!f.screw || !f.centerMm) return null;
+  return screwHead(f.screw, f.countersink ? 'countersunk' : 'socket').diameterMm / 2;
+}
+
+/** Footprint rings of the part's holes with the given purposes. */
+export function footprintRings(part: Part, purposes: readonly FeaturePurpose[]): RingRequest[] {
+  return part.features.flatMap((f) => {
+    const r = purposes.includes(f.purpose) ? footprintRadiusMm(f) : null;
+    return r === null ? [] : [{ centreMm: f.centerMm!, radiusMm: r }];
+  });
+}
+
+/** Mesh nodes within r of a point of the part (a footprint). */
+export function nodesWithin(pm: PlateModel, centre: Vec2, radiusMm: number): number[] {
+  const out: number[] = [];
+  const tol = 1e-6 * Math.max(1, radiusMm);
+  for (let i = 0; i < pm.mesh.xy.length / 2; i++) if (Math.hypot(pm.mesh.xy[2 * i] - centre[0], pm.mesh.xy[2 * i + 1] - centre[1]) <= radiusMm + tol) out.push(i);
+  return out;
+}

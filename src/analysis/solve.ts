@@ -1,5 +1,5 @@
 import { lowestEigenpairs } from './eigen.js';
-import { assemble, expand, rigidBodyModes } from './model.js';
+import { ALL_DOFS, assemble, expand, rigidBodyModes } from './model.js';
 import type { PlateModel } from './plateModel.js';
 import { BENDING_DOFS, MEMBRANE_DOFS } from './shellTriangle.js';
 
@@ -30,6 +30,7 @@ const RIGID_HZ = 1;
  */
 export function solvePlateModes(pm: PlateModel, count: number): PlateSolution {
   if (!Number.isInteger(count) || count < 1 || count > 200) throw new RangeError(`mode count must be a whole number from 1 to 200 (got ${count})`);
+  if (pm.model.rigid?.length) return solveCoupled(pm, count);
   const modes: RawMode[] = [];
   let dof = 0;
   let rigid = 0;
@@ -49,7 +50,7 @@ export function solvePlateModes(pm: PlateModel, count: number): PlateSolution {
         rigidBy.set(plane, (rigidBy.get(plane) ?? 0) + 1);
         return;
       }
-      out.push({ frequencyHz: f, plane, shape: normalise(expand(a, r.vectors[i])) });
+      out.push({ frequencyHz: f, plane, shape: normaliseShape(expand(a, r.vectors[i])) });
     });
     return out;
   };
@@ -72,8 +73,38 @@ export function solvePlateModes(pm: PlateModel, count: number): PlateSolution {
   return { modes: modes.slice(0, count), dof, rigidModes: rigid };
 }
 
+/**
+ * All six DOFs at once: a rigid body whose centre of mass lies off the plate's plane (a motor on the
+ * arm) couples bending and membrane motion. Each mode is called out-of-plane when the plate's w
+ * motion carries most of its translation.
+ */
+function solveCoupled(pm: PlateModel, count: number): PlateSolution {
+  const a = assemble(pm.model);
+  const free = !pm.model.fixed.some((f) => f === 1);
+  const r = lowestEigenpairs(a.k, a.m, count, { deflate: free ? rigidBodyModes(pm.model, a) : [] });
+  let rigid = r.deflated;
+  const plateNodes = pm.mesh.xy.length / 2;
+  const modes: RawMode[] = [];
+  r.values.forEach((lambda, i) => {
+    const f = Math.sqrt(Math.max(lambda, 0)) / (2 * Math.PI);
+    if (f < RIGID_HZ) {
+      rigid++;
+      return;
+    }
+    const shape = normaliseShape(expand(a, r.vectors[i]));
+    let w2 = 0;
+    let uv2 = 0;
+    for (let n = 0; n < plateNodes; n++) {
+      w2 += shape[6 * n + 2] ** 2;
+      uv2 += shape[6 * n] ** 2 + shape[6 * n + 1] ** 2;
+    }
+    modes.push({ frequencyHz: f, plane: w2 >= uv2 ? 'out-of-plane' : 'in-plane', shape });
+  });
+  return { modes, dof: a.k.n, rigidModes: rigid };
+}
+
 /** Scale so the largest nodal translation is 1 and the largest component is positive (a stable sign). */
-function normalise(s: Float64Array): Float64Array {
+export function normaliseShape(s: Float64Array): Float64Array {
   let big = 0;
   let signed = 0;
   for (let i = 0; i < s.length; i += 6) {

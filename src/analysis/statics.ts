@@ -1,5 +1,5 @@
 import type { Frame, Part } from '../geometry/index.js';
-import { cholesky, choleskySolve } from './envelope.js';
+import { cholesky, choleskySolve } from './sparse.js';
 import { assemble, expand, restrict } from './model.js';
 import { defaultMeshSizeMm, featureCentre, featureNodes, motorsOnPlate, plateModel, withFixed, type PlateModel } from './plateModel.js';
 import { BENDING_DOFS } from './shellTriangle.js';

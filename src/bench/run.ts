@@ -8,9 +8,11 @@ import { cases as checksCases, figures as checksFigures } from './checks.js';
 import { cases as variantCases } from './variant.js';
 import { cases as quoteCases, figures as quoteFigures } from './quote.js';
 import { figures as startupFigures } from './startup.js';
+import { cases as assemblyCases } from './assembly.js';
+import { cases as liveCases } from './live.js';
 
 /** Every area's benchmark cases; add one import per area. */
-const ALL: BenchCase[] = [...geometryCases, ...importCases, ...checksCases, ...variantCases, ...quoteCases, ...analysisCases];
+const ALL: BenchCase[] = [...geometryCases, ...importCases, ...checksCases, ...assemblyCases, ...variantCases, ...quoteCases, ...analysisCases, ...liveCases];
 
 /** The promised figures, each beside its peer (one table, `order` sorts rows from several files); add one import per file. */
 const FIGURES: BenchFigure[] = [...startupFigures, ...checksFigures, ...quoteFigures].sort((a, b) => a.order - b.order);

@@ -46,3 +46,24 @@ export function finding(
 export const mm = (x: number, d = 2): string => `${x.toFixed(d)} mm`;
 export const pt = (p: Vec2): string => `(${p[0].toFixed(2)}, ${p[1].toFixed(2)})`;
 export const mid = (a: Vec2, b: Vec2): Vec2 => [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
+
+/**
+ * A finding about two things of the assembled frame that meet: `part` is "frame", `atMm` the plan
+ * position, `parts` both names, `where` the 3D point (mm, rounded like every reported number).
+ */
+export function fitFinding(
+  rule: string,
+  severity: Severity,
+  measured: number | null,
+  limit: number | null,
+  unit: string,
+  parts: readonly [string, string],
+  where: readonly [number, number, number],
+  message: string,
+): Finding {
+  return {
+    ...finding(rule, severity, 'frame', measured, limit, unit, [where[0], where[1]], message),
+    parts: [parts[0], parts[1]],
+    where: [r4(where[0]), r4(where[1]), r4(where[2])],
+  };
+}

@@ -12,3 +12,6 @@ export * from './props.js';
 export * from './report.js';
 export * from './text.js';
 export * from './annotate.js';
+export * from './solids.js';
+export * from './fit.js';
+export * from './componentFit.js';

@@ -8,6 +8,11 @@ import { boltHoles, holeEdgeRule, holeStressRule } from './holes.js';
 import { optionsForDesign, type CheckOptions } from './options.js';
 import { indexPart } from './partIndex.js';
 import { cameraViewRule, propClearanceRule, propDiscs } from './props.js';
+import { buildAssembly } from '../assembly/build.js';
+import type { Assembly } from '../assembly/types.js';
+import { batteryFitRule, cameraFitRule, motorScrewRule, stackFitRule } from './componentFit.js';
+import { interferenceRule } from './fit.js';
+import { assemblyPrisms, type Prism } from './solids.js';
 import type { CheckReport, Finding, PartMetrics, Severity } from './types.js';
 import { webLimitMm, webRule } from './webs.js';
 import { weaveRule } from './weave.js';
@@ -84,16 +89,52 @@ export function checkParts(parts: readonly Part[], options: CheckOptions): Check
 }
 
 /**
- * Every rule for a built frame: the part rules for each distinct part plus the frame rules (prop
- * tip gaps, prop discs against the body, standoffs, camera plates and other plates in plan view,
- * props in the camera view). Options default from the design's `checks` section, its cutting tool
- * and props.minTipGapMm.
+ * Part results kept between checks of the same design as it is edited (the live page): a part whose
+ * geometry and options are unchanged is not checked again. Keyed by the part and options as JSON.
+ */
+export type PartCheckCache = Map<string, PartCheck>;
+
+/** Entries a cache keeps: a frame has a handful of distinct parts, a few edits' worth is plenty. */
+const CACHE_ENTRIES = 64;
+
+function checkPartCached(part: Part, o: CheckOptions, cache: PartCheckCache | undefined): PartCheck {
+  if (!cache) return checkPart(part, o);
+  const key = JSON.stringify([part, o]);
+  const hit = cache.get(key);
+  if (hit) return hit;
+  const result = checkPart(part, o);
+  if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value as string);
+  cache.set(key, result);
+  return result;
+}
+
+/**
+ * Every rule for a built frame: the part rules for each distinct part plus the frame rules on the
+ * assembled frame (prop tip gaps and prop discs against every solid, props in the camera view,
+ * interference, stack, camera and battery fit, motor screws). The assembly is built when not given. Options default from the design's `checks` section, its cutting tool
+ * and props.minTipGapMm. `cache` (optional) reuses the part results of earlier calls for parts that
+ * have not changed; the report is the same with or without it.
  * @example const report = checkFrame(buildFrame(design)); if (report.summary.errors) ...
  */
-export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}): CheckReport {
+export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}, assembly: Assembly = buildAssembly(frame.design, frame), cache?: PartCheckCache): CheckReport {
   const o = optionsForDesign(frame.design, options);
-  const results = frame.parts.map((p) => checkPart(p, o));
+  const results = frame.parts.map((p) => checkPartCached(p, o, cache));
   const discs = propDiscs(frame);
-  const frameFindings = [...propClearanceRule(frame, o, discs), ...cameraViewRule(frame, o, discs)];
+  const prisms = assemblyPrisms(assembly);
+  const frameFindings = [...propClearanceRule(frame, o, discs, assembly, prisms), ...cameraViewRule(frame, o, discs), ...fitFindings(frame, assembly, o, prisms)];
   return makeReport(results.map((r) => r.metrics), [...results.flatMap((r) => r.findings), ...frameFindings]);
+}
+
+/**
+ * The fit rules on the assembled frame (interference, stack, camera, battery, motor screws), sharing
+ * one set of prisms.
+ */
+export function fitFindings(frame: Frame, a: Assembly, o: CheckOptions, prisms: readonly Prism[] = assemblyPrisms(a)): Finding[] {
+  return [
+    ...interferenceRule(a, o, prisms),
+    ...stackFitRule(a, o, prisms),
+    ...cameraFitRule(a, o, prisms),
+    ...batteryFitRule(a, o, frame.design.topPlate.strapSlots.slotWidthMm),
+    ...motorScrewRule(a, o),
+  ];
 }

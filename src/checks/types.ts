@@ -16,6 +16,10 @@ export type Finding = Readonly<{
   /** Where, in part coordinates (mm); frame coordinates for frame-level findings. */
   atMm: readonly [number, number] | null;
   message: string;
+  /** Fit findings on the assembled frame: the two things that meet (plate copy, standoff, screw, component or prop ids). */
+  parts?: readonly [string, string];
+  /** Fit findings: where they meet, frame coordinates (x forward, y left, z up). mm. */
+  where?: readonly [number, number, number];
 }>;
 
 export type PartMetrics = Readonly<{

@@ -23,7 +23,7 @@ const ROLE_FILL: Record<Part['role'], string> = {
 };
 
 /** A plate copy as it lies in plan view (vertical plates as their footprint). */
-function planLoops(part: Part, pl: Placement): Loop[] {
+export function planLoops(part: Part, pl: Placement): Loop[] {
   if (pl.vertical) {
     const [x0, , x1] = loopBBox(part.outline);
     const y = pl.translateMm[1];

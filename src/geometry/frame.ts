@@ -20,7 +20,10 @@ export type Frame = Readonly<{
   parts: readonly Part[];
   sites: readonly MotorSite[];
   propDiameterMm: number;
-  /** Top face of the arms, the reference for prop height. mm above the bottom plate's lower face. */
+  /**
+   * Top face of the arms (where the motors sit), the reference for prop height. mm above the bottom
+   * plate's lower face; 0 when separate arms sit under the body.
+   */
   armTopZMm: number;
   /** The camera body seen from above (a square of the camera width about the pivot), for drawings. */
   cameraPlanMm: Loop | null;
@@ -40,8 +43,24 @@ export function buildFrame(d: Design): Frame {
   parts.push(topPlate(d));
   if (d.braces && !unibody) parts.push(...braces(d, sites));
   if (d.camera) parts.push(cameraSide(d));
-  const armTopZMm = d.body.thicknessMm + (unibody ? 0 : d.arms.thicknessMm);
+  const armTopZMm = armLayerZMm(d) + (unibody ? d.body.thicknessMm : d.arms.thicknessMm);
   return { name: d.name, revision: d.revision, parts, sites, propDiameterMm: d.props.diameterMm, armTopZMm, cameraPlanMm: cameraPlan(d), design: d };
+}
+
+/**
+ * Lower face of the arm layer (z, mm above the bottom plate's lower face). Separate arms follow
+ * `assembly.armStacking`: under the body (domain.md, from the bottom up: braces, arms, bottom plate)
+ * or on top of it; a unibody's arms are the bottom plate.
+ */
+export function armLayerZMm(d: Design): number {
+  if (d.arms.construction === 'unibody') return 0;
+  return d.assembly.armStacking === 'under-body' ? -d.arms.thicknessMm : d.body.thicknessMm;
+}
+
+/** Lower face of the brace plates: below the arms under the body, above them on top of it. mm. */
+export function braceZMm(d: Design): number {
+  const armZ = armLayerZMm(d);
+  return d.assembly.armStacking === 'under-body' ? armZ - (d.braces?.thicknessMm ?? 0) : armZ + d.arms.thicknessMm;
 }
 
 /** Where to point the designer when an outline cannot be built, by what went wrong. */
@@ -164,7 +183,7 @@ function arms(d: Design, sites: readonly MotorSite[]): Part[] {
       rotateRad: s.armDirRad,
       translateMm: alongArm(s, start),
       mirrorY: s.left,
-      zMm: d.body.thicknessMm,
+      zMm: armLayerZMm(d),
     }));
     return makePart({
       name: symmetric ? 'arm' : group[0].front ? 'arm-front' : 'arm-rear',
@@ -237,7 +256,7 @@ function braces(d: Design, sites: readonly MotorSite[]): Part[] {
         outline,
         features,
         members: [],
-        placements: [{ rotateRad: front ? 0 : Math.PI, translateMm: [cx, 0], mirrorY: false, zMm: -b.thicknessMm }],
+        placements: [{ rotateRad: front ? 0 : Math.PI, translateMm: [cx, 0], mirrorY: false, zMm: braceZMm(d) }],
         sourcePath: 'braces',
       },
     };

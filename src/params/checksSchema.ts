@@ -66,11 +66,9 @@ const propClearance = z
     enabled,
     minTipGapMm: num(0, 100, 'mm', 'smallest gap between adjacent prop tips (default: props.minTipGapMm)').optional(),
     // Common practice, no source.
-    minPartClearanceMm: num(0, 50, 'mm', 'smallest plan-view gap between a prop disc and a standoff or plate that reaches the prop plane').default(3),
+    minPartClearanceMm: num(0, 50, 'mm', 'smallest plan-view gap between a prop disc (its swept band) and any solid the band reaches: plates, standoffs, screws, motors, components, antennas').default(3),
     // Common practice, no source.
     maxVerticalGapMm: num(0, 100, 'mm', 'warn about a plate under or over a prop disc only when it is closer than this to the prop plane').default(10),
-    // Common practice, no source: M3 aluminium standoffs are about 5 mm across.
-    standoffDiameterMm: num(2, 15, 'mm', 'outside diameter of the standoffs').default(5),
   })
   .strict();
 
@@ -82,6 +80,39 @@ const cameraView = z
   })
   .strict();
 
+const interference = z.object({ enabled }).strict();
+
+const stackFit = z
+  .object({
+    enabled,
+    // domain.md: ≥ 1–2 mm between the stack's top and the top plate (common practice).
+    topClearanceMm: num(0, 20, 'mm', 'least gap between the top of a stack (nuts included) and the top plate').default(1.5),
+    // Common practice, no source: boards are not pressed against standoffs or screw heads.
+    sideClearanceMm: num(0, 20, 'mm', 'least plan gap between a board and a standoff, spacer or screw').default(0.5),
+  })
+  .strict();
+
+const cameraFit = z
+  .object({
+    enabled,
+    // Common practice, no source: side plates spring a few tenths of a millimetre to grip the body.
+    fitToleranceMm: num(0, 3, 'mm', 'a camera body up to this much wider than the side-plate spacing still fits (the plates spring)').default(0.3),
+    // Common practice, no source: a gap beyond this needs washers to clamp the camera.
+    looseMm: num(0, 10, 'mm', 'warn when the body is narrower than the spacing by more than this').default(1),
+    clearanceMm: num(0, 10, 'mm', 'least gap between the camera, swept through its tilt range, and plates, spacers, standoffs and screws').default(0.5),
+  })
+  .strict();
+
+const batteryFit = z
+  .object({
+    enabled,
+    // Common practice, no source: hook-and-loop straps need about this much overlap to hold.
+    strapOverlapMm: num(0, 200, 'mm', 'hook-and-loop overlap a strap needs beyond the loop round battery and plate').default(40),
+  })
+  .strict();
+
+const motorScrew = z.object({ enabled }).strict();
+
 export const ChecksSchema = z
   .object({
     'web-width': webWidth.prefault({}).describe('narrowest material between contours and inside one contour'),
@@ -91,6 +122,11 @@ export const ChecksSchema = z
     'hole-stress': holeStress.prefault({}).describe('stress concentration at bolt holes in struts (information)'),
     'prop-clearance': propClearance.prefault({}).describe('prop tip gaps and prop discs against plates and standoffs'),
     'camera-view': cameraView.prefault({}).describe('prop discs inside the camera view'),
+    interference: interference.prefault({}).describe('solids of the assembled frame that intersect beyond their contact faces'),
+    'stack-fit': stackFit.prefault({}).describe('stack boards inside the body, clear of standoffs and screws, and under the top plate'),
+    'camera-fit': cameraFit.prefault({}).describe('camera body between its side plates and clear of everything through its tilt range'),
+    'battery-fit': batteryFit.prefault({}).describe('battery between its strap slots and straps long enough'),
+    'motor-screw': motorScrew.prefault({}).describe('motor screws from the hardware list against the motor thread depth'),
   })
   .strict()
   .describe('design-rule limits; every key optional (see the README, "Design-rule checks")');

@@ -76,6 +76,7 @@ function resolve(d: DesignParsed): Design {
   if (d.camera && d.camera.uptiltMinDeg >= d.camera.uptiltMaxDeg) {
     issues.push({ path: 'camera.uptiltMaxDeg', value: d.camera.uptiltMaxDeg, message: `must be above camera.uptiltMinDeg (${d.camera.uptiltMinDeg})` });
   }
+  issues.push(...assemblyIssues(d));
   const stackBoltSizes = d.stacks.map((s, i) => {
     const sizes = Array.isArray(s.boltSize) ? s.boltSize : s.patternsMm.map(() => s.boltSize as ScrewSize);
     if (sizes.length !== s.patternsMm.length) {
@@ -94,4 +95,47 @@ function resolve(d: DesignParsed): Design {
     : undefined;
   const motorMassG = d.motor.massG ?? typicalMotorMassG(d.motor.bellDiameterMm);
   return { ...d, props: { ...d.props, diameterMm: diameterMm as number }, camera, materialFor, stackBoltSizes, motorMassG };
+}
+
+/** Largest bulk density of a flight battery pack, g/cm³ (lithium-polymer packs are ≈ 1.8–2.4; common practice, no source). */
+export const MAX_BATTERY_DENSITY_G_PER_CM3 = 3;
+
+/** Cross-field rules of the motor, props and components sections (references and plausibility). */
+function assemblyIssues(d: DesignParsed): DesignIssue[] {
+  const issues: DesignIssue[] = [];
+  const propBandLowMm = d.props.heightAboveArmMm - d.props.bandMm / 2;
+  if (d.motor.heightMm !== undefined && d.motor.heightMm > propBandLowMm) {
+    issues.push({ path: 'motor.heightMm', value: d.motor.heightMm, message: `reaches into the prop band, which starts ${propBandLowMm} mm above the arm (props.heightAboveArmMm − props.bandMm / 2); raise props.heightAboveArmMm or lower the motor height` });
+  }
+  if (d.motor.heightMm === undefined && propBandLowMm < 3) {
+    issues.push({ path: 'props.heightAboveArmMm', value: d.props.heightAboveArmMm, message: `leaves ${propBandLowMm} mm under the prop band for the motor (at least 3 mm); raise it or give motor.heightMm` });
+  }
+  d.components.forEach((c, i) => {
+    const at = `components.${i}`;
+    const stackIndex = c.kind === 'stack' || ((c.kind === 'video-transmitter' || c.kind === 'receiver') && c.on === 'stack') ? c.stack : null;
+    if (stackIndex !== null && stackIndex >= d.stacks.length) {
+      issues.push({ path: `${at}.stack`, value: stackIndex, message: d.stacks.length ? `names no stack mount (stacks has ${d.stacks.length}: 0 to ${d.stacks.length - 1})` : 'names a stack mount, but the design has no `stacks`' });
+    }
+    if (c.kind === 'stack' && c.patternMm !== undefined && stackIndex !== null && stackIndex < d.stacks.length && !d.stacks[stackIndex].patternsMm.some((p) => Math.abs(p - c.patternMm!) < 1e-9)) {
+      issues.push({ path: `${at}.patternMm`, value: c.patternMm, message: `is not a pattern of stack mount ${stackIndex} (${d.stacks[stackIndex].patternsMm.join(', ')} mm)` });
+    }
+    if ((c.kind === 'video-transmitter' || c.kind === 'receiver') && c.on !== 'stack' && c.atMm === undefined) {
+      issues.push({ path: `${at}.atMm`, value: undefined, message: `is required when on is ${c.on} (the centre in plan, mm)` });
+    }
+    if (c.kind === 'camera' && !d.camera) {
+      issues.push({ path: `${at}.kind`, value: 'camera', message: 'needs a `camera` section (side plates, pivot and tilt range)' });
+    }
+    if (c.kind === 'battery') {
+      const volumeCm3 = (c.sizeMm[0] * c.sizeMm[1] * c.sizeMm[2]) / 1000;
+      const density = c.massG / volumeCm3;
+      if (density > MAX_BATTERY_DENSITY_G_PER_CM3) {
+        issues.push({ path: `${at}.massG`, value: c.massG, message: `is heavier than a battery of ${c.sizeMm.join(' × ')} mm can be: ${density.toFixed(2)} g/cm³, above ${MAX_BATTERY_DENSITY_G_PER_CM3} g/cm³ (at most ${Math.floor(volumeCm3 * MAX_BATTERY_DENSITY_G_PER_CM3)} g)` });
+      }
+    }
+  });
+  const kinds = (k: string) => d.components.filter((c) => c.kind === k).length;
+  for (const k of ['battery', 'camera']) {
+    if (kinds(k) > 1) issues.push({ path: 'components', value: `${kinds(k)} × ${k}`, message: `takes at most one ${k}` });
+  }
+  return issues;
 }

@@ -40,6 +40,7 @@ function typeOf(n: Node): string {
   if (alts) return alts.map(typeOf).join(' or ');
   if (n.type === 'array') {
     if (n.prefixItems) return `[${n.prefixItems.map(typeOf).join(', ')}]`;
+    if (n.items && !Array.isArray(n.items) && n.items.oneOf?.every((a) => a.properties?.kind?.const !== undefined)) return 'list of entries by kind';
     return `list of ${n.items && !Array.isArray(n.items) ? typeOf(n.items) : 'values'}`;
   }
   if (n.type === 'object' && !n.properties) return 'mapping';
@@ -70,21 +71,23 @@ function walk(n: Node, path: string, required: boolean, rows: Row[]): void {
       required: true,
       text: alts.map((a) => `${String(a.properties!.kind.const)}: ${a.properties!.kind.description ?? ''}`).join('; '),
     });
-    // Fields shared by several kinds are listed once, tagged with the kinds that take them.
+    // Fields shared by several kinds (same meaning, type and default) are listed once, tagged with
+    // the kinds that take them; a field whose meaning differs by kind gets a row per meaning.
     const byPath = new Map<string, { row: Row; kinds: string[] }>();
     for (const alt of alts) {
       const kind = String(alt.properties!.kind.const);
       const sub: Row[] = [];
       for (const [k, v] of Object.entries(alt.properties!)) if (k !== 'kind') walk(v, `${path}.${k}`, (alt.required ?? []).includes(k), sub);
       for (const r of sub) {
-        const seen = byPath.get(r.path);
+        const key = [r.path, r.type, r.def, r.required, r.text].join('\u0000');
+        const seen = byPath.get(key);
         if (seen) seen.kinds.push(kind);
-        else byPath.set(r.path, { row: r, kinds: [kind] });
+        else byPath.set(key, { row: r, kinds: [kind] });
       }
     }
     for (const { row, kinds: ks } of byPath.values()) rows.push({ ...row, text: `(${ks.join(', ')}) ${row.text}` });
   }
-  if (n.type === 'array' && n.items && !Array.isArray(n.items) && n.items.properties) walk(n.items, `${path}[]`, false, rows.length ? rows : rows);
+  if (n.type === 'array' && n.items && !Array.isArray(n.items) && (n.items.properties || n.items.oneOf)) walk(n.items, `${path}[]`, false, rows);
   if (n.type === 'object' && n.additionalProperties && typeof n.additionalProperties === 'object' && n.additionalProperties.properties) {
     walk(n.additionalProperties, `${path}.<name>`, false, rows);
   }

@@ -2,27 +2,14 @@ import { z } from 'zod';
 import { ChecksSchema } from './checksSchema.js';
 import { SCREW_SIZES } from './screws.js';
 import { EIGHTH_INCH_MM } from './units.js';
+import { int, num } from './fields.js';
+import { AssemblySchema, ComponentsSchema } from './assemblySchema.js';
 
 /**
  * The design file. Every number carries its unit in its name (Mm, Deg, Gpa...) and its allowed range
  * in the schema, so the JSON Schema printed by `framewright schema` documents itself and every
  * error can name the range.
  */
-
-const num = (min: number, max: number, unit: string, what: string) =>
-  z
-    .number({ error: (iss) => (iss.input === undefined ? `is required (${what}, ${min} to ${max} ${unit})` : `must be a number (${unit}), ${min} to ${max}`) })
-    .min(min, { error: `is below the allowed range ${min} to ${max} ${unit}` })
-    .max(max, { error: `is above the allowed range ${min} to ${max} ${unit}` })
-    .describe(`${what} [${unit}, ${min} to ${max}]`);
-
-const int = (min: number, max: number, what: string) =>
-  z
-    .number({ error: `must be a whole number from ${min} to ${max}` })
-    .int({ error: `must be a whole number from ${min} to ${max}` })
-    .min(min, { error: `is below the allowed range ${min} to ${max}` })
-    .max(max, { error: `is above the allowed range ${min} to ${max}` })
-    .describe(`${what} [${min} to ${max}]`);
 
 const screw = z.enum(SCREW_SIZES, { error: `must be one of ${SCREW_SIZES.join(', ')}` }).describe('ISO metric screw size');
 
@@ -100,6 +87,9 @@ export const DesignSchema = z
         diameter: propDiameter,
         minTipGapMm: num(0, 100, 'mm', 'smallest allowed gap between adjacent prop tips').default(6),
         heightAboveArmMm: num(0, 80, 'mm', 'prop plane above the top face of the arm').default(14),
+        // common practice, no source: a prop's hub and pitched blades sweep a band a few mm thick.
+        bandMm: num(1, 40, 'mm', 'thickness of the band the blades sweep, centred on the prop plane').default(6),
+        spin: z.enum(['props-in', 'props-out'], { error: 'must be props-in or props-out' }).optional().describe('direction of rotation: props-in (front props turn towards the centre line at the front) or props-out'),
       })
       .strict(),
     motor: z
@@ -115,6 +105,9 @@ export const DesignSchema = z
         boreMm: num(0, 30, 'mm', 'centre bore for the shaft clip; 0 for none').default(7),
         bellDiameterMm: num(8, 80, 'mm', 'motor bell diameter, for the tip pad and guard').default(28),
         massG: num(1, 1000, 'g', 'mass of one motor, for stiffness and resonance; default: the typical mass of the motor class whose bell is nearest').optional(),
+        heightMm: num(3, 80, 'mm', 'motor height from its base to the top of the bell (default: up to the prop band)').optional(),
+        // domain.md: 3–5 mm of thread in the motor base (common practice).
+        threadDepthMm: num(1, 15, 'mm', 'depth of the threaded holes in the motor base; a longer screw reaches the windings').default(3.5),
       })
       .strict(),
     arms: z
@@ -160,6 +153,11 @@ export const DesignSchema = z
           .object({
             boltSize: screw.default('M3'),
             heightMm: num(5, 80, 'mm', 'standoff length (plate gap)').default(25),
+            // domain.md: aluminium, M3, 5 mm across flats hex or round (common practice).
+            shape: z.enum(['hex', 'round'], { error: 'must be hex or round' }).default('hex').describe('hex or round'),
+            acrossFlatsMm: num(2, 15, 'mm', 'across flats (hex) or outside diameter (round)').default(5),
+            material: z.enum(['aluminium-6061', 'aluminium-7075'], { error: 'must be aluminium-6061 or aluminium-7075' }).default('aluminium-7075').describe('standoff alloy (density from ASM handbook values)'),
+            ends: z.enum(['female-female', 'male-female'], { error: 'must be female-female or male-female' }).default('female-female').describe('threads: female both ends (a screw from each plate) or male at the bottom through the bottom plate into a nut'),
             positionsMm: z.array(point).min(3).max(16).describe('standoff centres'),
           })
           .strict(),
@@ -271,6 +269,8 @@ export const DesignSchema = z
       })
       .strict()
       .default({ toolDiameterMm: EIGHTH_INCH_MM, holeSeries: 'medium' }),
+    assembly: AssemblySchema.prefault({}).describe('how the plates stack and what fastens them'),
+    components: ComponentsSchema,
     checks: ChecksSchema.prefault({}),
   })
   .strict();

@@ -1,4 +1,5 @@
 import { partBBox, type BBox, type Part, type Vec2 } from '../geometry/index.js';
+import type { HardwareList } from '../assembly/types.js';
 import type { Quote } from './quote.js';
 
 /**
@@ -58,7 +59,10 @@ export type SummarySheet = Readonly<{
   lines: readonly string[];
 }>;
 
-export type DrawingSheet = PartSheet | SummarySheet;
+/** The hardware list of the assembled frame, counted for the quoted batch. */
+export type HardwareSheet = Readonly<{ kind: 'hardware'; title: string; table: Table; lines: readonly string[] }>;
+
+export type DrawingSheet = PartSheet | SummarySheet | HardwareSheet;
 
 export type DrawingSet = Readonly<{
   design: string;
@@ -85,6 +89,8 @@ export type DrawingOptions = Readonly<{
   date: string | null;
   generalTolerance?: string;
   checks: Readonly<{ errors: number; warnings: number }> | null;
+  /** The frame's hardware list; when given, a sheet lists it counted for the quoted batch. */
+  hardware?: HardwareList;
 }>;
 
 const mm = (x: number, d = 1): string => {
@@ -93,6 +99,19 @@ const mm = (x: number, d = 1): string => {
 };
 const money = (x: number): string => x.toFixed(2);
 const minutes = (x: number): string => x.toFixed(1);
+
+function hardwareSheet(list: HardwareList, frames: number): HardwareSheet {
+  return {
+    kind: 'hardware',
+    title: 'hardware',
+    table: {
+      title: `Hardware for ${frames} frame${frames === 1 ? '' : 's'}`,
+      header: ['item', 'standard', 'size', 'length mm', 'per frame', 'batch', 'use'],
+      rows: list.items.map((i) => [i.item, i.standard, i.size, i.lengthMm === null ? '-' : String(i.lengthMm), String(i.count), String(i.count * frames), i.use]),
+    },
+    lines: ['Screw lengths from the ISO 4762 preferred series; see hardware.csv from framewright build for the same list.'],
+  };
+}
 
 /**
  * The drawing sheets for a quote: one per part (view at a stated scale, overall dimensions, key
@@ -206,7 +225,7 @@ export function drawingSet(parts: readonly Part[], quote: Quote, options: Drawin
       ...quote.warnings.map((w) => `Note: ${w}`),
     ],
   };
-  const all: DrawingSheet[] = [summary, ...partSheets];
+  const all: DrawingSheet[] = [summary, ...(options.hardware ? [hardwareSheet(options.hardware, quote.frames)] : []), ...partSheets];
   return {
     design: options.design,
     revision: options.revision,

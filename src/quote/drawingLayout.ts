@@ -1,5 +1,5 @@
 import { arc, assertNever, line, type Loop, type Segment, type Vec2 } from '../geometry/index.js';
-import { DRAWING_VIEW_MM, type DrawingSet, type DrawingSheet, type PartSheet, type SummarySheet, type Table } from './drawing.js';
+import { DRAWING_VIEW_MM, type DrawingSet, type DrawingSheet, type HardwareSheet, type PartSheet, type SummarySheet, type Table } from './drawing.js';
 
 /**
  * Paper layout of the drawing sheets: A4 landscape, millimetres, origin at the lower-left corner,
@@ -42,6 +42,9 @@ function layoutSheet(set: DrawingSet, sheet: DrawingSheet, n: number, m: number)
       break;
     case 'summary':
       summaryView(sheet, items);
+      break;
+    case 'hardware':
+      hardwareView(sheet, items);
       break;
     default:
       assertNever(sheet);
@@ -199,6 +202,16 @@ function summaryView(sheet: SummarySheet, items: PaperItem[]): void {
   }
 }
 
+function hardwareView(sheet: HardwareSheet, items: PaperItem[]): void {
+  items.push(text([16, FRAME.y1 - 8], 'Hardware list', 5, 'start', true));
+  const y = table(sheet.table, 16, FRAME.y1 - 14, items, 2.3, 260);
+  let ly = y - 6;
+  for (const l of sheet.lines) {
+    items.push(text([16, ly], l, 2.3));
+    ly -= 3.6;
+  }
+}
+
 function notesBlock(set: DrawingSet, items: PaperItem[]): void {
   const x = 16;
   let y = 40;
@@ -229,7 +242,7 @@ function titleBlock(set: DrawingSet, sheet: DrawingSheet, n: number, m: number, 
   items.push({ kind: 'line', a: [x + w / 2, y], b: [x + w / 2, y + 20], stroke: 'thin' });
   items.push(text([x + 2, y + 23.5], `${set.design}`, 4, 'start', true));
   items.push(text([x + w - 2, y + 23.5], `rev ${set.revision}`, 3, 'end', true));
-  items.push(text([x + 2, y + 13.5], `part: ${sheet.kind === 'part' ? sheet.title : 'summary'}`, 2.6));
+  items.push(text([x + 2, y + 13.5], `part: ${sheet.kind === 'part' ? sheet.title : sheet.kind}`, 2.6));
   items.push(text([x + w / 2 + 2, y + 13.5], `scale: ${sheet.kind === 'part' ? sheet.scale.label : '-'}`, 2.6));
   items.push(text([x + 2, y + 3.5], `date: ${set.date ?? 'not given'}`, 2.6));
   items.push(text([x + w / 2 + 2, y + 3.5], `sheet ${n} of ${m}`, 2.6, 'start', true));

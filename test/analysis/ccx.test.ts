@@ -14,7 +14,16 @@ import { DEMOS, demoFrame, REPO } from './helpers.js';
 const SCRIPT = join(REPO, 'test', 'reference', 'ccx', 'plate_modes.py');
 const haveTools = () => requireTool(commandAvailable('ccx') && commandAvailable('gmsh') && pythonModuleAvailable('json'), 'calculix-ccx + gmsh');
 
-type Spec = { fixedLoops?: number[]; masses?: Array<{ loops: number[]; massG: number }> };
+type Footprint = { centre: readonly [number, number]; radiusMm: number } | { loop: number };
+type Spec = {
+  fixedLoops?: number[];
+  masses?: Array<{ loops: number[]; massG: number }>;
+  clampFootprints?: Footprint[];
+  rigidMasses?: Array<{ footprints: Footprint[]; massG: number; cgMm: number[]; diameterMm: number; heightMm: number }>;
+};
+
+/** ISO 4762 socket head diameters dk (reference-values.md, "Assembly hardware"; M5 from memory). */
+const ISO_4762_HEAD_MM: Record<string, number> = { M2: 3.8, 'M2.5': 4.5, M3: 5.5, M4: 7.0, M5: 8.5 };
 
 /**
  * Element size of the quadratic reference mesh: a twentieth of √area. The reference is itself
@@ -59,10 +68,22 @@ describe.each(DEMOS)('CalculiX S6 shell reference, %s', (file) => {
   }
 
   for (const arm of frame.parts.filter((p) => p.role === 'arm')) {
-    it(`${arm.name} clamped at its root bolts with a ${motorG} g motor: within 5 %`, () => {
+    it(`${arm.name} as built (root screw heads clamped in six DOFs, the motor a rigid cylinder on top): within 5 % including twist`, () => {
       if (!haveTools()) return;
-      const ref = ccxModes(arm, 0, { fixedLoops: loopsOf(arm, 'arm-root-bolt'), masses: [{ loops: loopsOf(arm, 'motor-bolt'), massG: motorG }] });
-      expectWithin5(armModes(arm, { modes: 3, motorMassG: motorG }), ref, `${file} ${arm.name} clamped + motor`);
+      const d = frame.design;
+      const footprints = (purpose: string): Array<{ centre: readonly [number, number]; radiusMm: number }> => arm.features.filter((f) => f.purpose === purpose && f.centerMm && f.screw).map((f) => ({ centre: f.centerMm!, radiusMm: ISO_4762_HEAD_MM[f.screw!] / 2 }));
+      // Round motor holes: the head's footprint; slotted ones: the slot's edge (its loop).
+      const motor: Footprint[] = [...footprints('motor-bolt'), ...loopsOf(arm, 'motor-bolt').filter((i) => !arm.features[i - 1].centerMm).map((loop) => ({ loop }))];
+      const bore = arm.features.find((f) => f.purpose === 'motor-bore')?.centerMm;
+      const round = footprints('motor-bolt');
+      const [cx, cy] = bore ?? [round.reduce((s, f) => s + f.centre[0], 0) / round.length, round.reduce((s, f) => s + f.centre[1], 0) / round.length];
+      // The motor's height: the design's, else up to the lower face of the prop band (the assembly's rule).
+      const heightMm = d.motor.heightMm ?? d.props.heightAboveArmMm - d.props.bandMm / 2;
+      const ref = ccxModes(arm, 0, {
+        clampFootprints: footprints('arm-root-bolt'),
+        rigidMasses: [{ footprints: motor, massG: motorG, cgMm: [cx, cy, arm.thicknessMm / 2 + heightMm / 2], diameterMm: d.motor.bellDiameterMm, heightMm }],
+      });
+      expectWithin5(armModes(arm, { modes: 3, motorMassG: motorG, motor: { bellDiameterMm: d.motor.bellDiameterMm, heightMm } }), ref, `${file} ${arm.name} as built + motor`);
     }, 120_000);
   }
 

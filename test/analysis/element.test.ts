@@ -86,6 +86,7 @@ describe('a plate placed in 3D', () => {
     const r = lowestEigenpairs(a.k, a.m, 5, { deflate: rigidBodyModes(model, a) });
     expect(r.deflated).toBe(6);
     const standing = r.values.map((v) => Math.sqrt(v) / (2 * Math.PI));
-    standing.forEach((f, i) => expect(f / flat[i]).toBeCloseTo(1, 8));
+    // Within what the Lanczos tolerance (1e-3 on the residual) leaves: frequencies to about 1e-6.
+    standing.forEach((f, i) => expect(f / flat[i]).toBeCloseTo(1, 5));
   });
 });

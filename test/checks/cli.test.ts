@@ -55,7 +55,7 @@ describe('framewright check (the built CLI)', () => {
   });
 
   it('a design with errors exits 1', () => {
-    const r = runCli(['check', writeDesign({ body: { standoffs: { positionsMm: [[50, 17], [50, -17], [-50, 17], [-50, -17]] } } })]);
+    const r = runCli(['check', writeDesign({ body: { standoffs: { shape: 'round', positionsMm: [[52, 21], [52, -21], [-52, 21], [-52, -21]] } } })]);
     expect(r.code).toBe(1);
     expect(r.stdout).toMatch(/ERROR +prop-clearance/);
   });

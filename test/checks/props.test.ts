@@ -43,10 +43,17 @@ describe('adjacent prop tip gaps', () => {
 
 describe('prop-clearance rule (planted designs)', () => {
   it('camera side plates pushed far forward into the front prop discs are an error', () => {
-    const r = checkFrame(frameWith({ camera: { forwardOffsetMm: 60 } }));
-    const f = r.findings.filter((x) => x.rule === 'prop-clearance' && x.message.includes('camera-side'));
-    expect(f.length).toBeGreaterThan(0);
-    expect(f.every((x) => x.severity === 'error' && x.measured! < 3)).toBe(true);
+    // A 30 mm camera: the right plate spans y −17 to −15 and, pushed 60 mm ahead, x 43 to 120; the
+    // front-right motor sits at (118 cos 45°, −118 sin 45°) = (83.4386, −83.4386), so the plate's
+    // nearest point is (83.4386, −17): 66.4386 mm − 64.77 mm prop radius = 1.6686 mm (by hand).
+    const r = checkFrame(frameWith({ camera: { forwardOffsetMm: 60, widthMm: 30 } }));
+    const f = r.findings.filter((x) => x.rule === 'prop-clearance' && x.parts?.[1]?.startsWith('camera-side'));
+    expect(f.length).toBe(2);
+    const byHand = 118 * Math.sin(Math.PI / 4) - 17 - 129.54 / 2;
+    for (const x of f) {
+      expect(x.severity).toBe('error');
+      expect(x.measured).toBeCloseTo(byHand, 3);
+    }
   });
 
   it('tip gap below props.minTipGapMm is an error between the two props', () => {
@@ -62,21 +69,21 @@ describe('prop-clearance rule (planted designs)', () => {
   });
 
   it('a standoff reaching the prop plane within 3 mm of a disc is an error', () => {
-    // Standoffs at (±50, ±17), 5 mm across: motor (79.196, 79.196) to (50, 17) is 68.733 mm;
-    // minus 2.5 and the 64.77 mm prop radius leaves 1.4377 mm.
-    const r = checkFrame(frameWith({ body: { standoffs: { positionsMm: [[50, 17], [50, -17], [-50, 17], [-50, -17]] } } }));
-    const f = r.findings.filter((x) => x.rule === 'prop-clearance' && x.message.includes('standoff'));
+    // Round standoffs 5 mm across at (±52, ±21): motor (83.4386, 83.4386) to (52, 21) is
+    // 69.9080 mm; minus 2.5 and the 64.77 mm prop radius leaves 2.6380 mm (by hand).
+    const r = checkFrame(frameWith({ body: { standoffs: { shape: 'round', positionsMm: [[52, 21], [52, -21], [-52, 21], [-52, -21]] } } }));
+    const f = r.findings.filter((x) => x.rule === 'prop-clearance' && x.parts?.[1]?.startsWith('standoff'));
     expect(f.length).toBe(4);
-    const byHand = Math.hypot(112 * Math.cos(Math.PI / 4) - 50, 112 * Math.sin(Math.PI / 4) - 17) - 2.5 - 129.54 / 2;
+    const byHand = Math.hypot(118 * Math.cos(Math.PI / 4) - 52, 118 * Math.sin(Math.PI / 4) - 21) - 2.5 - 129.54 / 2;
     for (const x of f) {
       expect(x.severity).toBe('error');
       expect(x.measured).toBeCloseTo(byHand, 4);
       // The marker is the disc edge point nearest the standoff: on the line from the motor to the
       // standoff centre, so its distance to the standoff edge is the clearance itself (by hand).
       const [px, py] = x.atMm!;
-      const s = [50 * Math.sign(px), 17 * Math.sign(py)];
+      const s = [52 * Math.sign(px), 21 * Math.sign(py)];
       expect(Math.hypot(px - s[0], py - s[1]) - 2.5).toBeCloseTo(byHand, 3); // atMm is rounded to 4 decimals
-      expect(Math.hypot(Math.abs(px) - 112 * Math.cos(Math.PI / 4), Math.abs(py) - 112 * Math.sin(Math.PI / 4))).toBeCloseTo(129.54 / 2, 3);
+      expect(Math.hypot(Math.abs(px) - 118 * Math.cos(Math.PI / 4), Math.abs(py) - 118 * Math.sin(Math.PI / 4))).toBeCloseTo(129.54 / 2, 3);
     }
   });
 });

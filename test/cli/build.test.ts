@@ -18,7 +18,8 @@ describe('framewright build (the built CLI)', () => {
       expect(r.code).toBe(0);
       const names = demoFrame(file).parts.map((p) => p.name);
       const written = outputNames(out);
-      expect(written).toEqual([...names.flatMap((n) => [`${n}.dxf`, `${n}.svg`]), 'overview.svg'].sort());
+      const assembly = ['assembly.json', 'front.svg', 'hardware.csv', 'hardware.json', 'side.svg'];
+      expect(written).toEqual([...names.flatMap((n) => [`${n}.dxf`, `${n}.svg`]), 'overview.svg', ...assembly].sort());
       expect(r.stdout).toMatch(/part\s+qty\s+thick mm\s+size mm\s+area mm²\s+mass g\s+cut mm/);
       for (const n of names) expect(r.stdout).toContain(n);
     });
@@ -46,7 +47,7 @@ describe('framewright build (the built CLI)', () => {
   const badCases: Array<[string, Record<string, unknown> | ((raw: Record<string, unknown>) => void), RegExp]> = [
     ['a missing field', (raw) => delete (raw.layout as Record<string, unknown>).wheelbaseMm, /layout\.wheelbaseMm: \(missing\) is required/],
     ['a negative width', { arms: { widthMm: -3 } }, /arms\.widthMm: -3 is below the allowed range 4 to 60 mm/],
-    ['a stack pattern that does not fit the body', { stacks: [{ place: 'front', patternsMm: [50], boltSize: 'M3' }] }, /stacks\.0\.patternsMm: "bottom-plate" puts a stack-bolt hole .* outside the bottom-plate outline/],
+    ['a stack pattern that does not fit the body', { stacks: [{ place: 'front', patternsMm: [50], boltSize: 'M3' }], components: undefined }, /stacks\.0\.patternsMm: "bottom-plate" puts a stack-bolt hole .* outside the bottom-plate outline/],
     ['an unknown key', { arms: { wdith: 3 } }, /arms: \["wdith"\] unknown key/],
   ];
   for (const [what, patch, message] of badCases) {
@@ -125,7 +126,9 @@ describe('build runs the checks first', () => {
     const out = join(dir, 'out');
     const r = runCli(['build', path, '--out', out, '--force']);
     expect(r.code).toBe(1);
-    for (const f of outputNames(out).filter((x) => x !== 'overview.svg')) {
+    // The cut files (DXF and part SVG); the views, hardware list and assembly are not cut.
+    const notCut = ['overview.svg', 'side.svg', 'front.svg', 'hardware.csv', 'hardware.json', 'assembly.json'];
+    for (const f of outputNames(out).filter((x) => !notCut.includes(x))) {
       expect(readFileSync(join(out, f), 'utf8')).toMatch(/written with --force although the design-rule checks found \d+ errors/);
     }
   });

@@ -198,7 +198,7 @@ describe('hardware does what the trade expects', () => {
 
 describe('bad designs are refused with the parameter named', () => {
   it('a stack pattern too big for the body names stacks.0.patternsMm', () => {
-    expect(() => buildFrame(validateDesign(designWith('tessel-5.yaml', { stacks: [{ place: 'front', patternsMm: [50], boltSize: 'M3' }] })))).toThrowError(
+    expect(() => buildFrame(validateDesign(designWith('tessel-5.yaml', { stacks: [{ place: 'front', patternsMm: [50], boltSize: 'M3' }], components: undefined })))).toThrowError(
       /stacks\.0\.patternsMm/,
     );
   });

@@ -21,7 +21,7 @@ describe('framewright variant (built CLI)', () => {
     const text = cli('designs/tessel-5.yaml', '--props', '7in', '--out', out);
     expect(text.stderr).toBe('');
     expect(text.stdout).toMatch(/parameter\s+old\s+new\s+why/);
-    expect(text.stdout).toMatch(/layout\.wheelbaseMm\s+224\s+\d+/);
+    expect(text.stdout).toMatch(/layout\.wheelbaseMm\s+236\s+\d+/);
     expect(text.stdout).toMatch(/Stiffness rule: keep the first bending frequency/);
     expect(text.stdout).toMatch(/Checks on the variant: \d+ errors, \d+ warnings/);
     expect(text.stdout).toMatch(/props off first/);

@@ -1,6 +1,6 @@
 import type { Command } from 'commander';
 import { basename, join } from 'node:path';
-import type { ArmResult, BodyResult, FrameModes, ModalResult } from '../../analysis/index.js';
+import type { ArmResult, BodyResult, FrameModalResult, FrameModes, ModalResult } from '../../analysis/index.js';
 import { DEFAULT_THRUST_N } from '../../analysis/defaults.js';
 import { fmt } from '../../export/format.js';
 import type { Part } from '../../geometry/index.js';
@@ -67,10 +67,12 @@ async function analyse(path: string, opts: ModesCliOptions): Promise<Loaded> {
       // A unibody's body model is the bottom plate; keep it only when that is the part asked for.
       frame = { ...frame, parts: keep, design: keep.some((p) => p.role === 'bottom') ? frame.design : { ...frame.design, arms: { ...frame.design.arms, construction: 'separate' } } };
     }
-    refuseLargeMeshes(frame.parts, (p) => options.meshSizeMm ?? defaultMeshSizeMm(p));
-    return { label: frame.name, result: frameModes(frame, options) };
+    refuseLargeMeshes(frame.parts, (p) => options.meshSizeMm ?? defaultMeshSizeMm(p), !opts.part);
+    return { label: frame.name, result: frameModes(frame, { ...options, assembled: !opts.part }) };
   } catch (e) {
     if (e instanceof RangeError) throw new UsageError(`${path}: ${e.message}`);
+    const { FloatingPartError } = await import('../../analysis/index.js');
+    if (e instanceof FloatingPartError) throw new UsageError(`${path}: ${e.message}; check its joints (arm root, standoff and motor holes) in the design`);
     throw e;
   }
 }
@@ -84,7 +86,7 @@ async function dxfModes(path: string, opts: ModesCliOptions, options: Record<str
     import('../../import/limits.js'),
   ]);
   // Every line and arc becomes at least one mesh node: a drawing beyond the mesh limit is refused while it is read.
-  const limits = { ...DEFAULT_LIMITS, maxSegments: MAX_MESH_NODES, reason: `modes meshes at most ${MAX_MESH_NODES} nodes in one run and every line and arc needs one` };
+  const limits = { ...DEFAULT_LIMITS, maxSegments: MAX_MESH_NODES, reason: `modes meshes at most ${MAX_MESH_NODES} nodes in one model and every line and arc of the drawing needs one` };
   const { imported } = importDxfFile(path, text, opts, 'modes depend on it', limits);
   let parts: Part[] = imported.parts;
   if (opts.part) parts = parts.filter((p) => p.name === opts.part);
@@ -100,7 +102,7 @@ async function dxfModes(path: string, opts: ModesCliOptions, options: Record<str
   const arms: ArmResult[] = parts
     .filter((p) => p.features.some((f) => f.purpose === 'arm-root-bolt') && p.features.some((f) => f.purpose === 'motor-bolt'))
     .map((p) => ({ modal: armModes(p, options), statics: armTipDeflection(p, options.thrustN ?? DEFAULT_THRUST_N, options.meshSizeMm) }));
-  return { frame: basename(path), motorMassG: options.motorMassG ?? 0, thrustN: options.thrustN ?? DEFAULT_THRUST_N, parts: results, arms, body: null, rootTwist: null };
+  return { frame: basename(path), motorMassG: options.motorMassG ?? 0, thrustN: options.thrustN ?? DEFAULT_THRUST_N, parts: results, arms, body: null, rootTwist: null, assembled: null };
 }
 
 const BOUNDARY_WORDS: Record<ModalResult['boundary'], string> = {
@@ -121,14 +123,63 @@ function modalJson(r: ModalResult) {
 function frameJson(input: string, r: FrameModes) {
   return {
     input,
-    frame: r.frame,
     motorMassG: r.motorMassG,
     thrustN: r.thrustN,
     parts: r.parts.map(modalJson),
     arms: r.arms.map((a) => ({ ...modalJson(a.modal), statics: a.statics })),
     body: r.body ? { ...modalJson(r.body.modal), twist: r.body.twist, tipDeflections: r.body.tipDeflections } : null,
     rootTwist: r.rootTwist,
+    // The assembled frame; a drawing or a single part has no frame model (modes empty).
+    frame: { name: r.frame, ...(r.assembled ? assembledJson(r.assembled) : { modes: [] }) },
   };
+}
+
+const round = (x: number, digits: number) => Number(x.toFixed(digits));
+
+/** The assembled frame's modes for JSON: what moves, where the energy is, what the gyro and camera feel. */
+function assembledJson(a: FrameModalResult) {
+  return {
+    nodes: a.nodes,
+    dof: a.dof,
+    massG: round(a.massG, 2),
+    motors: a.frame.motors.map((m) => m.site),
+    rotationBand: a.rotationBand,
+    modes: a.modes.map((m) => ({
+      index: m.index,
+      frequencyHz: round(m.frequencyHz, 2),
+      name: m.name,
+      kind: m.kind,
+      motorsZ: m.motorsZ.map((z) => round(z, 4)),
+      sharesByPart: Object.fromEntries(Object.entries(m.sharesByPart).map(([k, v]) => [k, round(v, 4)])),
+      flightController: m.flightController && { displacementRatio: round(m.flightController.displacementRatio, 4), rotationDegPerMm: round(m.flightController.rotationDegPerMm, 4) },
+      camera: m.camera && { displacementRatio: round(m.camera.displacementRatio, 4), rotationDegPerMm: round(m.camera.rotationDegPerMm, 4) },
+      inRotationBand: m.inRotationBand,
+    })),
+  };
+}
+
+/** The assembled frame's table: frequency, name, motor motion, gyro and camera, the part holding most energy, band flag. */
+function assembledText(a: FrameModalResult): string {
+  const sites = a.frame.motors.map((m) => m.site).join(', ');
+  const head = `assembled frame — free in space (${a.nodes} nodes, ${a.dof} DOF, ${fmt(a.massG, 1)} g)`;
+  const band = a.rotationBand ? `  motors' rotation band ${fmt(a.rotationBand.lowHz, 0)}–${fmt(a.rotationBand.highHz, 0)} Hz (${a.rotationBand.source}); * marks a mode inside it` : '';
+  const rows = a.modes.map((m) => {
+    const top = Object.entries(m.sharesByPart).sort((x, y) => y[1] - x[1] || x[0].localeCompare(y[0]))[0];
+    return [
+      `${m.index}${m.inRotationBand ? '*' : ''}`,
+      fmt(m.frequencyHz, 0),
+      m.name,
+      m.motorsZ.map((z) => fmt(z, 2)).join(' '),
+      m.flightController ? fmt(m.flightController.rotationDegPerMm, 3) : '',
+      m.camera ? fmt(m.camera.rotationDegPerMm, 3) : '',
+      top ? `${top[0]} ${fmt(100 * top[1], 0)} %` : '',
+    ];
+  });
+  const table = textTable(['#', 'Hz', 'mode', `motors z (${sites})`, 'FC tilt °/mm', 'camera °/mm', 'most strain energy'], rows);
+  return `${head}\n${table
+    .split('\n')
+    .map((l) => `  ${l}`)
+    .join('\n')}\n${band}\n`;
 }
 
 function modalText(r: ModalResult): string {
@@ -144,6 +195,7 @@ function modalText(r: ModalResult): string {
 
 function frameText(r: FrameModes): string {
   const out = [`framewright modes: ${r.frame} (motor ${fmt(r.motorMassG, 1)} g each, thrust ${fmt(r.thrustN, 1)} N per motor)`, ''];
+  if (r.assembled) out.push(assembledText(r.assembled));
   if (r.body) {
     out.push(modalText(r.body.modal));
     out.push(`  body twist under opposite thrusts (${r.body.twist.pattern}): ${fmt(r.body.twist.twistDeg, 3)}°`);
@@ -167,10 +219,28 @@ function comparisonText(items: readonly Loaded[]): string {
   const worstTip = (r: FrameModes) => (r.arms.length ? Math.max(...r.arms.map((a) => a.statics.tipDeflectionMm)) : r.body ? Math.max(...r.body.tipDeflections.map((t) => t.tipDeflectionMm)) : undefined);
   const alternate = (b: BodyResult | null) => b?.modal.modes.find((m) => /alternately/.test(m.description));
   const bottomFree = (r: FrameModes) => r.parts.find((p) => p.role === 'bottom')?.modes[0]?.frequencyHz;
-  const header = ['design', 'bottom plate 1st Hz', 'arm+motor 1st Hz', 'body+motors 1st Hz', 'alternating mode Hz', 'stack tilt °/mm', 'tip defl. mm', 'body twist °'];
+  const firstOf = (r: FrameModes, kinds: readonly string[]) => r.assembled?.modes.find((m) => kinds.includes(m.kind))?.frequencyHz;
+  const twist = (r: FrameModes) => firstOf(r, ['body twist']);
+  const bending = (r: FrameModes) => firstOf(r, ['pitch bending', 'roll bending']);
+  const base = items[0].result;
+  const change = (x: number | undefined, ref: number | undefined) => (x === undefined || ref === undefined || ref === 0 ? '' : `${x >= ref ? '+' : ''}${fmt((100 * (x - ref)) / ref, 1)} %`);
+  const header = ['design', 'frame twist Hz', 'vs first', 'frame bending Hz', 'vs first', 'bottom plate 1st Hz', 'arm+motor 1st Hz', 'body+motors 1st Hz', 'alternating mode Hz', 'stack tilt °/mm', 'tip defl. mm', 'body twist °'];
   const rows = items.map(({ label, result: r }) => {
     const alt = alternate(r.body);
-    return [label, cell(bottomFree(r), 0), cell(firstArm(r), 0), cell(r.body?.modal.modes[0]?.frequencyHz, 0), cell(alt?.frequencyHz, 0), cell(alt?.stack?.tiltDegPerMm, 3), cell(worstTip(r), 3), cell((r.body?.twist ?? r.rootTwist)?.twistDeg, 3)];
+    return [
+      label,
+      cell(twist(r), 0),
+      change(twist(r), twist(base)),
+      cell(bending(r), 0),
+      change(bending(r), bending(base)),
+      cell(bottomFree(r), 0),
+      cell(firstArm(r), 0),
+      cell(r.body?.modal.modes[0]?.frequencyHz, 0),
+      cell(alt?.frequencyHz, 0),
+      cell(alt?.stack?.tiltDegPerMm, 3),
+      cell(worstTip(r), 3),
+      cell((r.body?.twist ?? r.rootTwist)?.twistDeg, 3),
+    ];
   });
   return `framewright modes: comparison (thrust ${fmt(items[0].result.thrustN, 1)} N per motor; blank: not modelled for that design)\n${textTable(header, rows)}\n\n`;
 }

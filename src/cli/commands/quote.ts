@@ -74,13 +74,13 @@ export function registerQuote(program: Command): void {
       const design = await readDesign(designPath);
       const shopPath = opts.shop ?? DEFAULT_SHOP;
       const shopText = readText(shopPath, 'a shop profile (YAML)');
-      const [{ parseShopText }, { buildFrame }, { checkFrame }, { drawingSet, layoutDrawing, quoteParts, quoteReport }, { placedPartsToDxf }, { drawingToSvgs, sheetLayoutToSvg }] = await Promise.all([
+      const [{ parseShopText }, { buildFrame }, { checkFrame }, { quoteParts }, { DEFAULT_GENERAL_TOLERANCE, quotePackage }, { buildAssembly, hardwareList }] = await Promise.all([
         import('../../params/shop.js'),
         import('../../geometry/index.js'),
         import('../../checks/index.js'),
         import('../../quote/index.js'),
-        import('../../export/dxf.js'),
-        import('../../export/svgDrawing.js'),
+        import('../../export/quotePackage.js'),
+        import('../../assembly/index.js'),
       ]);
       const shop = parseShopText(shopText, shopPath);
       const frame = buildFrame(design);
@@ -98,29 +98,18 @@ export function registerQuote(program: Command): void {
       });
       bar?.clear();
       // The drawing carries the design-rule summary for the tool this quote uses.
-      const checks = checkFrame(frame, { toolDiameterMm: quote.toolDiameterMm }).summary;
-      const meta = { design: design.name, revision: design.revision, date, checks };
-      const set = drawingSet(frame.parts, quote, { ...meta, generalTolerance: opts.tolerance ?? 'ISO 2768-m unless stated' });
-      const files: OutputFile[] = [];
-      const report = quoteReport(quote, meta);
-      files.push({ path: join(outDir, 'quote.json'), data: `${JSON.stringify(report, null, 2)}\n` });
-      const sheets = layoutDrawing(set);
-      // The PDF writer (and its font machinery) loads only here, where a PDF is written.
-      const { drawingToPdf } = await import('../../export/pdfDrawing.js');
-      files.push({ path: join(outDir, 'drawing.pdf'), data: await drawingToPdf(set, sheets) });
-      drawingToSvgs(sheets).forEach((svg, i) => files.push({ path: join(outDir, `drawing-${pad(i + 1)}.svg`), data: svg }));
-      quote.nesting.sheets.forEach((s, i) => {
-        const name = `sheet-${pad(i + 1)}-${s.thicknessMm}mm`;
-        const note = `${design.name} rev ${design.revision}: sheet ${i + 1} of ${quote.nesting.sheets.length}, ${s.thicknessMm} mm ${s.material}, ${s.placements.length} parts, utilisation ${(s.utilisation * 100).toFixed(1)} %`;
-        files.push({
-          path: join(outDir, 'sheets', `${name}.dxf`),
-          data: placedPartsToDxf(
-            s.placements.map((p) => ({ part: frame.parts[p.item], transform: p.transform, label: `${p.partName} ${p.copy + 1}` })),
-            { version: opts.r2000 ? 'R2000' : 'R12', comment: note },
-          ),
-        });
-        files.push({ path: join(outDir, 'sheets', `${name}.svg`), data: sheetLayoutToSvg(s, frame.parts, { title: name, marginMm: quote.nesting.marginMm, note }) });
+      const assembly = buildAssembly(design, frame);
+      const checks = checkFrame(frame, { toolDiameterMm: quote.toolDiameterMm }, assembly).summary;
+      const { report, files: pkg } = await quotePackage(frame.parts, quote, {
+        design: design.name,
+        revision: design.revision,
+        date,
+        checks,
+        hardware: hardwareList(assembly, design),
+        generalTolerance: opts.tolerance ?? DEFAULT_GENERAL_TOLERANCE,
+        ...(opts.r2000 ? { r2000: true } : {}),
       });
+      const files: OutputFile[] = pkg.map((f) => ({ path: join(outDir, ...f.name.split('/')), data: f.data }));
       writeAllAtomically(files, outDir);
       if (opts.json) {
         process.stdout.write(`${JSON.stringify({ ...report, outDir, files: files.map((f) => f.path) }, null, 2)}\n`);
@@ -143,5 +132,3 @@ export function registerQuote(program: Command): void {
       process.stdout.write(`design-rule checks: ${checks.errors} error(s), ${checks.warnings} warning(s)${checks.errors ? ' - see `framewright check` before cutting' : ''}\nfiles in ${outDir}\n`);
     });
 }
-
-const pad = (n: number): string => String(n).padStart(2, '0');

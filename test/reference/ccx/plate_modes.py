@@ -10,6 +10,9 @@ stdin: JSON {
   "sizeMm": element size, "modes": number of modes,
   "fixedLoops": [loop index, ...]  nodes on these loops held in translation (ccx DOFs 1-3)
   "masses": [{"loops": [loop index, ...], "massG": g}]  spread evenly over the nodes on those loops
+  "clampFootprints": [{"centre": [x, y], "radiusMm": r}]  every node within r held in all six DOFs
+  "rigidMasses": [{"footprints": [{"centre", "radiusMm"} or {"loop": index}], "massG", "cgMm": [x, y, z], "diameterMm", "heightMm"}]
+                                   a solid cylinder's mass and inertia at cg, rigid with the footprint nodes
 }
 stdout: JSON {"frequenciesHz": [...], "nodes": n, "elements": m}
 Units in the deck: mm, N, tonne, s (so MPa and t/mm^3). Set FW_CCX_KEEP=DIR to keep the gmsh and ccx files.
@@ -24,6 +27,9 @@ import subprocess
 import sys
 import tempfile
 
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+from ccx_deck import Deck, cylinder_inertia, run_frequencies  # noqa: E402
+
 
 def arc_pieces(seg):
     """Split an arc into pieces of at most 90 degrees (gmsh circle arcs must be below 180)."""
@@ -36,7 +42,9 @@ def arc_pieces(seg):
     return out
 
 
-def write_geo(spec, path):
+def write_geo(spec, path, rings=()):
+    """rings: [(cx, cy, r)] circles of points embedded in the surface (a screw head's edge), only where
+    the point lies inside the material (tested by the caller through `inside`)."""
     lines = [f"Mesh.CharacteristicLengthMax = {spec['sizeMm']};", f"Mesh.CharacteristicLengthMin = {spec['sizeMm'] / 4};",
              "Mesh.ElementOrder = 2;", "Mesh.SecondOrderLinear = 0;", "Mesh.Algorithm = 6;",
              "Mesh.CharacteristicLengthExtendFromBoundary = 0;", "Mesh.MinimumCirclePoints = 8;"]
@@ -80,9 +88,58 @@ def write_geo(spec, path):
         lines.append(f"Curve Loop({li + 1}) = {{{', '.join(map(str, curves))}}};")
         loop_ids.append(li + 1)
     lines.append(f"Plane Surface(1) = {{{', '.join(map(str, loop_ids))}}};")
+    embedded = []
+    for cx, cy, r in rings:
+        n = max(12, math.ceil(2 * math.pi * r / spec["sizeMm"] - 1e-9))
+        for k in range(n):
+            x, y = cx + r * math.cos(2 * math.pi * k / n), cy + r * math.sin(2 * math.pi * k / n)
+            if inside(spec["loops"], (x, y)) and boundary_distance(spec["loops"], (x, y)) > 0.35 * 2 * math.pi * r / n:
+                embedded.append(point(x, y))
+    if embedded:
+        lines.append(f"Point{{{', '.join(map(str, embedded))}}} In Surface{{1}};")
     lines.append("Physical Surface(1) = {1};")
     with open(path, "w") as f:
         f.write("\n".join(lines) + "\n")
+
+
+def flatten(loop, step=0.05):
+    """Points along a loop (for inside tests), arcs at about `step` radians."""
+    pts = []
+    for seg in loop:
+        if seg["kind"] == "line":
+            pts.append(tuple(seg["start"]))
+        else:
+            n = max(2, math.ceil(abs(seg["sweepRad"]) / step))
+            for i in range(n):
+                a = seg["startRad"] + seg["sweepRad"] * i / n
+                pts.append((seg["center"][0] + seg["radius"] * math.cos(a), seg["center"][1] + seg["radius"] * math.sin(a)))
+    return pts
+
+
+def inside(loops, p):
+    """Even-odd rule over all loops: inside the outline and outside every hole."""
+    x, y = p
+    c = False
+    for loop in loops:
+        pts = flatten(loop)
+        for i in range(len(pts)):
+            (x1, y1), (x2, y2) = pts[i], pts[i - 1]
+            if (y1 > y) != (y2 > y) and x < (x2 - x1) * (y - y1) / (y2 - y1) + x1:
+                c = not c
+    return c
+
+
+def boundary_distance(loops, p):
+    return min(seg_distance(s, p) for loop in loops for s in loop)
+
+
+def mesh_plate(spec, workdir, name, rings=()):
+    """gmsh second-order triangles of one plate: ({node id: (x, y)}, [[6 node ids], ...])."""
+    geo = os.path.join(workdir, f"{name}.geo")
+    inp = os.path.join(workdir, f"{name}.inp")
+    write_geo(spec, geo, rings)
+    subprocess.run(["gmsh", "-2", "-order", "2", geo, "-format", "inp", "-o", inp], check=True, capture_output=True)
+    return read_inp(inp)
 
 
 def read_inp(path):
@@ -139,56 +196,48 @@ def nodes_on(spec, nodes, loop_indices):
     return out
 
 
+def within(nodes, centre, radius):
+    """Node ids within radius of a point (a screw head's footprint)."""
+    tol = 1e-6 * max(1.0, radius)
+    return [n for n, (x, y) in nodes.items() if math.hypot(x - centre[0], y - centre[1]) <= radius + tol]
+
+
 def main():
     spec = json.load(sys.stdin)
     m = spec["material"]
     with tempfile.TemporaryDirectory(prefix="fw-ccx-") as d:
         d = os.environ.get("FW_CCX_KEEP", d)
         os.makedirs(d, exist_ok=True)
-        geo = os.path.join(d, "plate.geo")
-        inp = os.path.join(d, "mesh.inp")
-        write_geo(spec, geo)
-        subprocess.run(["gmsh", "-2", "-order", "2", geo, "-format", "inp", "-o", inp], check=True, capture_output=True)
-        nodes, elems = read_inp(inp)
-        deck = ["*NODE"]
-        deck += [f"{n}, {x:.12g}, {y:.12g}, 0" for n, (x, y) in nodes.items()]
-        deck.append("*ELEMENT, TYPE=S6, ELSET=EPLATE")
-        deck += [f"{i + 1}, " + ", ".join(map(str, e)) for i, e in enumerate(elems)]
-        e1, e2, g12 = m["e1Gpa"] * 1000, m["e2Gpa"] * 1000, m["g12Gpa"] * 1000
-        deck += ["*MATERIAL, NAME=WOVEN", "*ELASTIC, TYPE=ENGINEERING CONSTANTS",
-                 f"{e1}, {e2}, 10000, {m['nu12']}, 0.3, 0.3, {g12}, {g12},", f"{g12}, 0",
-                 "*DENSITY", f"{m['densityGPerCm3'] * 1e-9:.10g}"]
+        rings = [(f["centre"][0], f["centre"][1], f["radiusMm"]) for f in spec.get("clampFootprints", [])]
+        rings += [(f["centre"][0], f["centre"][1], f["radiusMm"]) for b in spec.get("rigidMasses", []) for f in b["footprints"] if "centre" in f]
+        nodes, elems = mesh_plate(spec, d, "plate", rings)
+        deck = Deck()
+        deck.nodes = [(n, x, y, 0.0) for n, (x, y) in nodes.items()]
+        deck.next_node = max(nodes) + 1
+        deck.woven("WOVEN", m)
+        deck.woven("WOVENS", m, stiffen=1000.0)
         c, s = math.cos(spec["weaveRad"]), math.sin(spec["weaveRad"])
-        deck += ["*ORIENTATION, NAME=WEAVE", f"{c:.12g}, {s:.12g}, 0, {-s:.12g}, {c:.12g}, 0"]
-        deck += ["*SHELL SECTION, ELSET=EPLATE, MATERIAL=WOVEN, ORIENTATION=WEAVE", f"{spec['thicknessMm']}"]
+        tied_nodes = {n for b in spec.get("rigidMasses", []) for f in b["footprints"] if "centre" in f for n in within(nodes, f["centre"], f["radiusMm"])}
+        deck.shells_with_patches(elems, "WOVEN", spec["thicknessMm"], (c, s, 0), (-s, c, 0), tied_nodes)
         fixed = nodes_on(spec, nodes, spec.get("fixedLoops", []))
         if fixed:
-            deck.append("*BOUNDARY")
-            deck += [f"{n}, 1, 3" for n in fixed]
-        eid = len(elems)
-        for k, mass in enumerate(spec.get("masses", [])):
+            deck.lines.append("*BOUNDARY")
+            deck.lines += [f"{n}, 1, 3" for n in fixed]
+        clamped = sorted({n for f in spec.get("clampFootprints", []) for n in within(nodes, f["centre"], f["radiusMm"])})
+        if clamped:
+            deck.lines.append("*BOUNDARY")
+            deck.lines += [f"{n}, 1, 6" for n in clamped]
+        for mass in spec.get("masses", []):
             on = nodes_on(spec, nodes, mass["loops"])
             if not on:
                 raise SystemExit(f"no nodes on mass loops {mass['loops']}")
-            deck.append(f"*ELEMENT, TYPE=MASS, ELSET=EMASS{k}")
-            for n in on:
-                eid += 1
-                deck.append(f"{eid}, {n}")
-            deck += [f"*MASS, ELSET=EMASS{k}", f"{mass['massG'] * 1e-6 / len(on):.10g}"]
-        deck += ["*STEP", "*FREQUENCY", f"{spec['modes']}", "*END STEP"]
-        with open(os.path.join(d, "job.inp"), "w") as f:
-            f.write("\n".join(deck) + "\n")
-        subprocess.run(["ccx", "job"], cwd=d, check=True, capture_output=True, env={**os.environ, "OMP_NUM_THREADS": "1"})
-        with open(os.path.join(d, "job.dat")) as f:
-            dat = f.read()
-    block = dat.split("E I G E N V A L U E   O U T P U T")[1]
-    freqs = []
-    for line in block.splitlines():
-        mm = re.match(r"\s*(\d+)\s+(\S+)\s+(\S+)\s+(\S+)\s+(\S+)", line)
-        if mm:
-            freqs.append(float(mm.group(4)))
-        elif freqs and line.strip() == "":
-            break
+            deck.point_masses([(n, mass["massG"] * 1e-6 / len(on)) for n in on])
+        for body in spec.get("rigidMasses", []):
+            tied = sorted({n for f in body["footprints"] for n in (within(nodes, f["centre"], f["radiusMm"]) if "centre" in f else nodes_on(spec, nodes, [f["loop"]]))})
+            mt = body["massG"] * 1e-6
+            deck.rigid_mass(tied, mt, body["cgMm"], cylinder_inertia(mt, body["diameterMm"], body["heightMm"]))
+        deck.write(os.path.join(d, "job.inp"), spec["modes"])
+        freqs = run_frequencies(d)
     json.dump({"frequenciesHz": freqs, "nodes": len(nodes), "elements": len(elems)}, sys.stdout)
 
 

@@ -1,0 +1,249 @@
+import type { Assembly, Vec3 } from '../assembly/index.js';
+import { lowestEigenpairs } from './eigen.js';
+import { beamMatrices } from './beamElement.js';
+import { buildFrameModel, type FrameModel, type FrameModelOptions } from './frameModel.js';
+import { assemble, expand, rigidBodyModes } from './model.js';
+import { shellStiffness, toGlobal } from './shellTriangle.js';
+import { normaliseShape } from './solve.js';
+
+/** What a pilot calls a frame mode, from the four motors' motion and the parts' share of the strain energy. */
+export type FrameModeKind = 'bounce' | 'body twist' | 'pitch bending' | 'roll bending' | 'in-plane / yaw' | 'single-arm' | 'top-plate' | 'mixed';
+
+const KIND_WORDS: Record<FrameModeKind, string> = {
+  bounce: 'all motors in phase',
+  'body twist': 'diagonal motor pairs in opposition',
+  'pitch bending': 'front pair against rear pair',
+  'roll bending': 'left pair against right pair',
+  'in-plane / yaw': 'motors move sideways in plan',
+  'single-arm': 'one arm moves, the others nearly still',
+  'top-plate': 'the top plate moves, the motors nearly still',
+  mixed: 'no single pattern',
+};
+
+/** Motion of a rigid point (a motor base, a board, the camera) in a mode scaled to 1 mm largest translation. */
+export type BodyMotion = Readonly<{
+  /** Translation as a fraction of the mode's largest translation. */
+  displacementRatio: number;
+  /** Rotation per mm of the mode's largest translation. deg/mm. */
+  rotationDegPerMm: number;
+}>;
+
+export type FrameMode = Readonly<{
+  index: number;
+  frequencyHz: number;
+  kind: FrameModeKind;
+  /** Kind with its plain words, e.g. "body twist (diagonal motor pairs in opposition)". */
+  name: string;
+  /** Vertical motion of each motor's base (assembly motor order), as a fraction of the mode's largest translation, signed. */
+  motorsZ: readonly number[];
+  /** Share of the mode's strain energy per plate copy, and all standoffs and camera spacers together (sums to 1). */
+  sharesByPart: Readonly<Record<string, number>>;
+  /** The flight controller's mount (the stack board, else the bottom plate at the stack mount): what the gyro sees. */
+  flightController: BodyMotion | null;
+  /** The camera body's rotation: what the picture shows. */
+  camera: BodyMotion | null;
+  /** Inside the motors' rotation band. */
+  inRotationBand: boolean;
+  /** Six values per model node [u, v, w, rx, ry, rz], largest translation 1 mm. */
+  shape: Float64Array;
+}>;
+
+/** The motors' rotation frequencies, Hz, and how the top one was found. */
+export type RotationBand = Readonly<{ lowHz: number; highHz: number; source: string }>;
+
+export type FrameModalResult = Readonly<{
+  frame: FrameModel;
+  nodes: number;
+  dof: number;
+  massG: number;
+  rotationBand: RotationBand | null;
+  modes: readonly FrameMode[];
+}>;
+
+export type FrameModesOptions = FrameModelOptions &
+  Readonly<{
+    /** Elastic modes wanted (default 8). */
+    modes?: number;
+    rotationBand?: RotationBand | null;
+  }>;
+
+/**
+ * Blade tip speed taken as the top of the rotation band when the design states none, m/s: it puts
+ * the top rotation of a 5-inch prop near 590 Hz and of a 7-inch near 430 Hz, inside the ranges the
+ * trade quotes (domain.md: 500–650 Hz and 350–450 Hz). Common practice, no source.
+ */
+export const TOP_TIP_SPEED_MPS = 240;
+/** Bottom of the band as a fraction of the top rotation speed (idle to hover; common practice, no source). */
+export const BAND_LOW_FRACTION = 0.3;
+
+/**
+ * The motors' rotation band from the prop diameter and a top blade tip speed: top f = v / (π D).
+ * @param propDiameterMm prop diameter, mm (> 0)
+ */
+export function rotationBandFromTipSpeed(propDiameterMm: number, tipSpeedMps = TOP_TIP_SPEED_MPS): RotationBand {
+  const high = tipSpeedMps / (Math.PI * propDiameterMm * 1e-3);
+  return { lowHz: BAND_LOW_FRACTION * high, highHz: high, source: `blade tip speed ${tipSpeedMps} m/s on a ${propDiameterMm.toFixed(1)} mm prop (top), ${Math.round(BAND_LOW_FRACTION * 100)} % of it (bottom)` };
+}
+
+/** Below this a mode of the free frame is rigid-body motion (or a mechanism). Hz. */
+const RIGID_HZ = 1;
+
+/**
+ * Natural modes of the assembled frame, free in space: the lowest elastic modes, each named from the
+ * motors' motion and the strain energy per part, with what the flight controller and camera feel.
+ * @throws FloatingPartError when a part is held by nothing; NotPositiveDefiniteError for another mechanism
+ */
+export function assembledFrameModes(asm: Assembly, options: FrameModesOptions = {}): FrameModalResult {
+  const count = options.modes ?? 8;
+  if (!Number.isInteger(count) || count < 1 || count > 200) throw new RangeError(`mode count must be a whole number from 1 to 200 (got ${count})`);
+  const fm = buildFrameModel(asm, options);
+  const a = assemble(fm.model);
+  const r = lowestEigenpairs(a.k, a.m, count, { deflate: rigidBodyModes(fm.model, a) });
+  const shapes: Array<{ f: number; shape: Float64Array }> = [];
+  r.values.forEach((lambda, i) => {
+    const f = Math.sqrt(Math.max(lambda, 0)) / (2 * Math.PI);
+    if (f >= RIGID_HZ) shapes.push({ f, shape: normaliseShape(expand(a, r.vectors[i])) });
+  });
+  const energies = strainEnergyShares(fm, shapes.map((s) => s.shape));
+  const band = options.rotationBand ?? null;
+  const fcNode = flightControllerNode(fm, asm);
+  const camNode = fm.components.find((c) => c.componentKind === 'camera')?.node ?? null;
+  const modes = shapes.map(({ f, shape }, i) => {
+    const motorsZ = fm.motors.map((m) => pointMotion(fm, shape, m.node, m.baseMm)[2]);
+    const motorsH = fm.motors.map((m) => Math.hypot(...pointMotion(fm, shape, m.node, m.baseMm).slice(0, 2)));
+    const kind = classify(asm, motorsZ, motorsH, energies[i]);
+    return {
+      index: i + 1,
+      frequencyHz: f,
+      kind,
+      name: `${kind} (${KIND_WORDS[kind]})`,
+      motorsZ,
+      sharesByPart: energies[i],
+      flightController: fcNode === null ? null : bodyMotion(shape, fcNode),
+      camera: camNode === null ? null : bodyMotion(shape, camNode),
+      inRotationBand: band !== null && f >= band.lowHz && f <= band.highHz,
+      shape,
+    };
+  });
+  return { frame: fm, nodes: fm.model.xyz.length / 3, dof: a.k.n, massG: fm.massG, rotationBand: band, modes };
+}
+
+/** Translation of a point rigidly carried by node n (the motor base under its centre of mass). */
+function pointMotion(fm: FrameModel, s: Float64Array, n: number, p: readonly number[]): Vec3 {
+  const x = fm.model.xyz;
+  const r = [p[0] - x[3 * n], p[1] - x[3 * n + 1], p[2] - x[3 * n + 2]];
+  const [u, v, w, ax, ay, az] = s.subarray(6 * n, 6 * n + 6);
+  return [u + ay * r[2] - az * r[1], v + az * r[0] - ax * r[2], w + ax * r[1] - ay * r[0]];
+}
+
+const bodyMotion = (s: Float64Array, n: number): BodyMotion => ({
+  displacementRatio: Math.hypot(s[6 * n], s[6 * n + 1], s[6 * n + 2]),
+  rotationDegPerMm: (Math.hypot(s[6 * n + 3], s[6 * n + 4], s[6 * n + 5]) * 180) / Math.PI,
+});
+
+/** The stack board's node, else the bottom-plate node nearest the first stack mount's centre. */
+function flightControllerNode(fm: FrameModel, asm: Assembly): number | null {
+  const stack = fm.components.find((c) => c.componentKind === 'stack');
+  if (stack) return stack.node;
+  const bottom = fm.plates.find((p) => p.plate.part.role === 'bottom');
+  const holes = bottom?.plate.part.features.filter((f) => f.purpose === 'stack-bolt' && f.centerMm) ?? [];
+  if (!bottom || !holes.length) return null;
+  const c = holes.reduce((s, f) => [s[0] + f.centerMm![0] / holes.length, s[1] + f.centerMm![1] / holes.length], [0, 0]);
+  let best = bottom.firstNode;
+  let bestD = Infinity;
+  for (let i = 0; i < bottom.mesh.xy.length / 2; i++) {
+    const d = Math.hypot(bottom.mesh.xy[2 * i] - c[0], bottom.mesh.xy[2 * i + 1] - c[1]);
+    if (d < bestD) [best, bestD] = [bottom.firstNode + i, d];
+  }
+  void asm;
+  return best;
+}
+
+/**
+ * Strain energy ½ uᵀK u per plate copy and for the standoffs and spacers together, as shares of the
+ * total, for every mode at once (each element matrix is formed once).
+ */
+function strainEnergyShares(fm: FrameModel, shapes: readonly Float64Array[]): Array<Record<string, number>> {
+  const { model } = fm;
+  const per = shapes.map(() => new Map<string, number>());
+  const add = (i: number, key: string, e: number) => per[i].set(key, (per[i].get(key) ?? 0) + e);
+  const energy = (k: Float64Array, dofs: number[], s: Float64Array) => {
+    const n = dofs.length;
+    let e = 0;
+    for (let i = 0; i < n; i++) {
+      const ui = s[dofs[i]];
+      if (ui === 0) continue;
+      let row = 0;
+      for (let j = 0; j < n; j++) row += k[i * n + j] * s[dofs[j]];
+      e += ui * row;
+    }
+    return e / 2;
+  };
+  for (const pm of fm.plates) {
+    const lam = model.laminates[model.triangleLaminate[pm.firstTriangle]];
+    const r = Array.from(model.frames!.subarray(9 * pm.firstTriangle, 9 * pm.firstTriangle + 9));
+    const tris = pm.mesh.triangles;
+    for (let t = 0; t < tris.length; t += 3) {
+      const nodes = [tris[t], tris[t + 1], tris[t + 2]].map((v) => pm.firstNode + v);
+      const x = nodes.map((v) => r[0] * model.xyz[3 * v] + r[1] * model.xyz[3 * v + 1] + r[2] * model.xyz[3 * v + 2]) as [number, number, number];
+      const y = nodes.map((v) => r[3] * model.xyz[3 * v] + r[4] * model.xyz[3 * v + 1] + r[5] * model.xyz[3 * v + 2]) as [number, number, number];
+      const k = toGlobal(shellStiffness(x, y, lam.a, lam.d, lam.shearStiffnessNPerMm), r);
+      const dofs = nodes.flatMap((v) => [0, 1, 2, 3, 4, 5].map((d) => 6 * v + d));
+      shapes.forEach((s, i) => add(i, pm.plate.id, energy(k, dofs, s)));
+    }
+  }
+  for (const c of fm.connectors) {
+    for (let e = c.firstBeam; e < c.firstBeam + c.beams; e++) {
+      const bm = model.beams![e];
+      const [p, q] = bm.nodes.map((v) => Array.from(model.xyz.subarray(3 * v, 3 * v + 3)));
+      const { k } = beamMatrices(bm.section, p, q);
+      const dofs = bm.nodes.flatMap((v) => [0, 1, 2, 3, 4, 5].map((d) => 6 * v + d));
+      const key = c.kind === 'standoff' ? 'standoffs' : 'camera spacers';
+      shapes.forEach((s, i) => add(i, key, energy(k, dofs, s)));
+    }
+  }
+  return per.map((m) => {
+    const total = [...m.values()].reduce((a, b) => a + b, 0);
+    return Object.fromEntries([...m.entries()].map(([k, v]) => [k, total > 0 ? v / total : 0]));
+  });
+}
+
+/** A motor moving less than this fraction of the mode's largest motion counts as still (judgement, no standard). */
+const STILL = 0.25;
+/** A pattern must explain this much of the motors' vertical motion to name the mode (judgement). */
+const PATTERN_FIT = 0.8;
+
+/**
+ * Name a mode: sideways motor motion → in-plane / yaw; motors still and the top plate holding most of
+ * the energy → top-plate; one motor moving alone → single-arm; else the best of the four sign
+ * patterns of the motors' vertical motion (bounce, body twist, pitch and roll bending).
+ */
+function classify(asm: Assembly, z: readonly number[], h: readonly number[], shares: Readonly<Record<string, number>>): FrameModeKind {
+  const zMax = Math.max(0, ...z.map(Math.abs));
+  const hMax = Math.max(0, ...h);
+  const topShare = Object.entries(shares)
+    .filter(([k]) => asm.plates.some((p) => p.id === k && p.part.role === 'top'))
+    .reduce((s, [, v]) => s + v, 0);
+  if (zMax < STILL && hMax < STILL) return topShare > 0.4 ? 'top-plate' : 'mixed';
+  if (hMax > 1.5 * zMax) return 'in-plane / yaw';
+  if (z.length !== 4) return 'mixed';
+  const sorted = z.map(Math.abs).sort((a, b) => b - a);
+  if (sorted[1] < STILL * sorted[0]) return 'single-arm';
+  const sites = asm.motors.map((m) => m.site);
+  const front = sites.map((s) => (s.startsWith('front') ? 1 : -1));
+  const left = sites.map((s) => (s.endsWith('left') ? 1 : -1));
+  const patterns: Array<[FrameModeKind, number[]]> = [
+    ['bounce', [1, 1, 1, 1]],
+    ['body twist', front.map((f, i) => f * left[i])],
+    ['pitch bending', front],
+    ['roll bending', left],
+  ];
+  const norm = Math.hypot(...z);
+  let best: FrameModeKind = 'mixed';
+  let bestFit = PATTERN_FIT;
+  for (const [kind, p] of patterns) {
+    const fit = Math.abs(p.reduce((s, v, i) => s + v * z[i], 0)) / (2 * norm);
+    if (fit > bestFit) [best, bestFit] = [kind, fit];
+  }
+  return best;
+}

@@ -1,0 +1,357 @@
+#!/usr/bin/python3
+"""Independent CalculiX reference for the assembled frame's modes, written from the cut files and the
+design file alone (nothing from framewright's source): the plate DXFs that `framewright build` writes
+(read with ezdxf), the design YAML (read with PyYAML, the schema's defaults applied here), meshed with
+gmsh (second-order triangles), solved by ccx with S6 shells.
+
+The idealisation is the one framewright states (README, "Stiffness and resonance"):
+  - plates are shells at their mid-planes; stacking from the bottom up: braces, arms, bottom plate
+    (arms under the body, the default) or bottom plate, arms, braces; the top plate on the standoffs;
+    camera side plates stand either side of the camera between the bottom and top plate;
+  - a screw makes the material within its head radius rigid through every plate it passes (a rigid
+    body, and stiff patch elements so the footprint turns as one through the thickness)
+    (socket heads ISO 4762 dk from below; button heads ISO 7380-1 dk on the top plate and camera
+    plates, the hardware the assembly lists);
+  - standoffs and camera spacers: solid round rods of their outside size (ten-node tetrahedra; CalculiX's
+    beams are expanded to solids whose end rotations a rigid body does not hold), mid-plane to
+    mid-plane, end faces in the screws' rigid bodies; aluminium 6061 E 68.9 GPa, 7075 71.7 GPa, nu 0.33 (ASM handbook);
+  - each motor a solid cylinder (bell diameter, height from the design, else up to the prop band) on
+    the arm's top face, rigid with its screws' head footprints (a slotted hole: the slot end nearer
+    the motor axis);
+  - camera side plate edges resting on a plate are tied to its nearest node.
+
+stdin: JSON {"design": path, "dxfDir": dir, "sizeMm": element size, "modes": count, "subset": optional "body-and-arms"}
+stdout: JSON {"frequenciesHz": [...] (elastic modes above 1 Hz), "nodes": n}
+"""
+import json
+import math
+import os
+import sys
+import tempfile
+
+import ezdxf
+import yaml
+
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+from ccx_deck import Deck, cylinder_inertia, run_frequencies  # noqa: E402
+from plate_modes import mesh_plate  # noqa: E402
+
+# ISO 273 clearance holes (fine / medium / coarse), mm (reference-values.md).
+ISO_273 = {"M2": (2.2, 2.4, 2.6), "M2.5": (2.7, 2.9, 3.1), "M3": (3.2, 3.4, 3.6), "M4": (4.3, 4.5, 4.8), "M5": (5.3, 5.5, 5.8)}
+SERIES = {"fine": 0, "medium": 1, "coarse": 2}
+# Head diameters dk: ISO 4762 socket, ISO 7380-1 button (M2, M2.5: no button head, socket used).
+SOCKET_DK = {"M2": 3.8, "M2.5": 4.5, "M3": 5.5, "M4": 7.0, "M5": 8.5}
+BUTTON_DK = {"M2": 3.8, "M2.5": 4.5, "M3": 5.7, "M4": 7.6, "M5": 9.5}
+ALLOYS = {"aluminium-6061": (68900.0, 2.70), "aluminium-7075": (71700.0, 2.81)}
+CAMERA_WIDTH = {"nano": 14, "micro": 19, "mini": 21.5}
+COAXIAL = 0.05
+
+
+def bulge_segment(p, q, b):
+    if abs(b) < 1e-12:
+        return {"kind": "line", "start": p, "end": q}
+    theta = 4 * math.atan(b)
+    dx, dy = q[0] - p[0], q[1] - p[1]
+    c = math.hypot(dx, dy)
+    mid = ((p[0] + q[0]) / 2, (p[1] + q[1]) / 2)
+    off = (c / 2) / math.tan(theta / 2)
+    centre = (mid[0] - dy / c * off, mid[1] + dx / c * off)
+    r = math.hypot(p[0] - centre[0], p[1] - centre[1])
+    return {"kind": "arc", "center": centre, "radius": r, "startRad": math.atan2(p[1] - centre[1], p[0] - centre[0]), "sweepRad": theta}
+
+
+def read_plate(path):
+    """Outline loop, inner loops (slots, cut-outs) and round holes [(x, y, d)] of one part DXF."""
+    doc = ezdxf.readfile(path)
+    outline, inner, holes = None, [], []
+    for e in doc.modelspace():
+        if e.dxftype() == "CIRCLE":
+            c = e.dxf.center
+            holes.append((c[0], c[1], 2 * e.dxf.radius))
+        elif e.dxftype() in ("POLYLINE", "LWPOLYLINE"):
+            if e.dxftype() == "POLYLINE":
+                pts = [(v.dxf.location[0], v.dxf.location[1], v.dxf.bulge) for v in e.vertices]
+            else:
+                pts = [(x, y, b) for x, y, _s, _e, b in e.get_points("xyseb")]
+            loop = [bulge_segment(pts[i][:2], pts[(i + 1) % len(pts)][:2], pts[i][2]) for i in range(len(pts))]
+            loop = [s for s in loop if s["kind"] == "arc" or math.hypot(s["end"][0] - s["start"][0], s["end"][1] - s["start"][1]) > 1e-9]
+            if e.dxf.layer.upper().startswith("CUT_OUTSIDE"):
+                outline = loop
+            else:
+                inner.append(loop)
+    circles = [[{"kind": "arc", "center": (x, y), "radius": d / 2, "startRad": 0.0, "sweepRad": 2 * math.pi}] for x, y, d in holes]
+    return {"loops": [outline] + inner + circles, "holes": holes, "inner": inner}
+
+
+class Placed:
+    """A plate copy: part (u, v) -> frame, its thickness and z range (horizontal) or y range (vertical)."""
+
+    def __init__(self, name, plate, t, mat, weave, to_frame, vertical=False, z_low=0.0, y_mid=0.0):
+        self.name, self.plate, self.t, self.mat, self.weave = name, plate, t, mat, weave
+        self.to_frame, self.vertical, self.z_low, self.y_mid = to_frame, vertical, z_low, y_mid
+
+    def at(self, u, v):
+        """Mid-plane point of part point (u, v)."""
+        if self.vertical:
+            return (u, self.y_mid, v)
+        x, y = self.to_frame(u, v)
+        return (x, y, self.z_low + self.t / 2)
+
+    def holes_frame(self):
+        return [(self.to_frame(x, y) if not self.vertical else (x, y), d, (x, y)) for x, y, d in self.plate["holes"]]
+
+
+def rigid2d(theta, mirror, tx, ty):
+    c, s = math.cos(theta), math.sin(theta)
+
+    def f(u, v):
+        v = -v if mirror else v
+        return (c * u - s * v + tx, s * u + c * v + ty)
+    return f
+
+
+def main():
+    spec = json.load(sys.stdin)
+    with open(spec["design"]) as f:
+        d = yaml.safe_load(f)
+    size = spec["sizeMm"]
+    # "body-and-arms": only the bottom plate, the arms and the motors (no braces, top plate, standoffs, camera).
+    body_and_arms = spec.get("subset") == "body-and-arms"
+    mats = d.get("materials") or {"woven-cf": {"e1Gpa": 65, "e2Gpa": 65, "g12Gpa": 4, "nu12": 0.07, "densityGPerCm3": 1.57}}
+    first_mat = next(iter(mats))
+    sec = lambda k: d.get(k) or {}  # noqa: E731
+    mat_of = lambda k: sec(k).get("material", first_mat)  # noqa: E731
+    weave_of = lambda k: math.radians(sec(k).get("weaveDeg", 0))  # noqa: E731
+    body, arms, top = sec("body"), sec("arms"), sec("topPlate")
+    tb = body.get("thicknessMm", 2.5)
+    ta = arms["thicknessMm"]
+    tt = top.get("thicknessMm", 2)
+    so = body["standoffs"]
+    gap = so.get("heightMm", 25)
+    series = SERIES[(d.get("cutting") or {}).get("holeSeries", "medium")]
+    screw_of = lambda dia: min(ISO_273, key=lambda s: abs(ISO_273[s][series] - dia))  # noqa: E731
+    unibody = arms.get("construction", "separate") == "unibody"
+    stacking = (d.get("assembly") or {}).get("armStacking", "under-body")
+    lay = d["layout"]
+    if lay["kind"] != "x":
+        raise SystemExit("reference handles layout kind x only")
+    half = lay["wheelbaseMm"] / 2
+    ang = math.radians(lay.get("armAngleDeg", 45))
+    sites = {"front-right": (half * math.cos(ang), -half * math.sin(ang)), "front-left": (half * math.cos(ang), half * math.sin(ang)),
+             "rear-left": (-half * math.cos(ang), half * math.sin(ang)), "rear-right": (-half * math.cos(ang), -half * math.sin(ang))}
+    dxf = lambda name: read_plate(os.path.join(spec["dxfDir"], f"{name}.dxf"))  # noqa: E731
+    ident = rigid2d(0, False, 0, 0)
+    bottom = dxf("bottom-plate")
+    plates = [Placed("bottom-plate", bottom, tb, mat_of("body"), weave_of("body"), ident, z_low=0.0)]
+    if unibody:
+        arm_top = tb
+    else:
+        arm_z = -ta if stacking == "under-body" else tb
+        arm_top = arm_z + ta
+        motor_d = d["motor"].get("boreMm", 7)
+        for site, (mx, my) in sites.items():
+            name = "arm" if os.path.exists(os.path.join(spec["dxfDir"], "arm.dxf")) else ("arm-front" if site.startswith("front") else "arm-rear")
+            part = dxf(name)
+            bore = min(part["holes"], key=lambda h: abs(h[2] - motor_d))
+            mirror = my > 0
+            theta = math.atan2(my, mx)
+            f0 = rigid2d(theta, mirror, 0, 0)
+            bx, by = f0(bore[0], bore[1])
+            plates.append(Placed(f"arm {site}", part, ta, mat_of("arms"), weave_of("arms"), rigid2d(theta, mirror, mx - bx, my - by), z_low=arm_z))
+        if d.get("braces") and not body_and_arms:
+            tbr = d["braces"].get("thicknessMm", 1.5)
+            brace_z = arm_z - tbr if stacking == "under-body" else arm_z + ta
+            names = ["brace"] if os.path.exists(os.path.join(spec["dxfDir"], "brace.dxf")) else ["brace-front", "brace-rear"]
+            root = [(x, y) for x, y, _d in bottom["holes"]]
+            for front in (True, False):
+                part = dxf(names[0] if len(names) == 1 else names[0 if front else 1])
+                theta = 0.0 if front else math.pi
+                targets = [p for p in root if (p[0] > 0) == front]
+                f0 = rigid2d(theta, False, 0, 0)
+                pts = [f0(x, y) for x, y, _d in part["holes"]]
+                cx = sum(p[0] for p in pts) / len(pts)
+                cy = sum(p[1] for p in pts) / len(pts)
+                # Translate the brace so its holes land on bottom-plate holes of its half.
+                best = None
+                for t in targets:
+                    dx, dy = t[0] - pts[0][0], t[1] - pts[0][1]
+                    if all(any(math.hypot(p[0] + dx - q[0], p[1] + dy - q[1]) < COAXIAL for q in targets) for p in pts):
+                        best = (dx, dy)
+                        break
+                if best is None:
+                    raise SystemExit("brace holes do not meet the bottom plate's holes")
+                del cx, cy
+                plates.append(Placed(f"brace {'front' if front else 'rear'}", part, tbr, mat_of("braces"), weave_of("braces"), rigid2d(theta, False, *best), z_low=brace_z))
+    if not body_and_arms:
+        plates.append(Placed("top-plate", dxf("top-plate"), tt, mat_of("topPlate"), weave_of("topPlate"), ident, z_low=tb + gap))
+    cam = None if body_and_arms else d.get("camera")
+    if cam:
+        tc = cam.get("thicknessMm", 2)
+        w = cam.get("widthMm", "micro")
+        w = CAMERA_WIDTH[w] if isinstance(w, str) else w
+        part = dxf("camera-side")
+        plates.append(Placed("camera-side left", part, tc, mat_of("camera"), weave_of("camera"), None, vertical=True, y_mid=w / 2 + tc / 2))
+        plates.append(Placed("camera-side right", part, tc, mat_of("camera"), weave_of("camera"), None, vertical=True, y_mid=-w / 2 - tc / 2))
+    if d.get("components"):
+        raise SystemExit("reference does not model components")
+
+    standoff_xy = [tuple(p) for p in so["positionsMm"]]
+
+    def head_dk(pl, uv, screw):
+        """Button heads on the top plate's standoff screws and on the camera plates; socket heads elsewhere."""
+        if pl.vertical or (pl.name == "top-plate" and any(math.hypot(uv[0] - x, uv[1] - y) < COAXIAL for x, y in standoff_xy)):
+            return BUTTON_DK[screw]
+        return SOCKET_DK[screw]
+
+    deck = Deck()
+    for name, m in mats.items():
+        deck.woven(f"W{list(mats).index(name)}", m)
+        deck.woven(f"W{list(mats).index(name)}S", m, stiffen=1000.0)
+    pending_shells = []
+    meshes = {}
+    nodes_of = []  # per plate: {node id: (u, v)}
+    for k, pl in enumerate(plates):
+        # Rings at every head radius the plate will need (all round holes: cheap, and the same for both models' footprints).
+        rings = [(x, y, head_dk(pl, (x, y), screw_of(dd)) / 2) for x, y, dd in pl.plate["holes"] if dd < 6]
+        key = (id(pl.plate), tuple(rings))
+        with tempfile.TemporaryDirectory(prefix="fw-frame-") as tmp:
+            if key not in meshes:
+                meshes[key] = mesh_plate({"loops": pl.plate["loops"], "sizeMm": size}, tmp, f"p{k}", rings)
+        local, elems = meshes[key]
+        ids = {}
+        for n, (u, v) in local.items():
+            ids[n] = deck.node(pl.at(u, v))
+        uvs = {ids[n]: uv for n, uv in local.items()}
+        nodes_of.append(uvs)
+        if pl.vertical:
+            a1 = (math.cos(pl.weave), 0, math.sin(pl.weave))
+            a2 = (-math.sin(pl.weave), 0, math.cos(pl.weave))
+        else:
+            o = pl.to_frame(0, 0)
+            pu = pl.to_frame(math.cos(pl.weave), math.sin(pl.weave))
+            pv = pl.to_frame(-math.sin(pl.weave), math.cos(pl.weave))
+            a1 = (pu[0] - o[0], pu[1] - o[1], 0)
+            a2 = (pv[0] - o[0], pv[1] - o[1], 0)
+        pending_shells.append(([[ids[n] for n in e] for e in elems], f"W{list(mats).index(pl.mat)}", pl.t, a1, a2))
+        pl.ids = ids
+
+    rigid_nodes = set()
+
+    def footprint(k, u, v, r, patch=True):
+        tol = 1e-6 * max(1.0, r)
+        found = [n for n, (x, y) in nodes_of[k].items() if math.hypot(x - u, y - v) <= r + tol]
+        if patch:
+            rigid_nodes.update(found)
+        return found
+
+    horizontal = [k for k, pl in enumerate(plates) if not pl.vertical]
+    # Standoffs: rods between the bottom and top plate mid-planes, ends rigid with their screws' footprints.
+    young, rho = ALLOYS[so.get("material", "aluminium-7075")]
+    radius = so.get("acrossFlatsMm", 5) / 2
+    screw = so.get("boltSize", "M3")
+    work = tempfile.mkdtemp(prefix="fw-rods-")
+    rod_size = min(size, radius * 0.8)
+    for x, y in [] if body_and_arms else standoff_xy:
+        zb, zt = tb / 2, tb + gap + tt / 2
+        low, high = deck.rod(work, (x, y, zb), (x, y, zt), radius, young, 0.33, rho * 1e-9, rod_size)
+        for end, z_face, dk in ((low, tb, SOCKET_DK[screw]), (high, tb + gap, BUTTON_DK[screw])):
+            tied = []
+            for k in horizontal:
+                pl = plates[k]
+                below = pl.z_low + pl.t <= z_face + 1e-6 if end is low else pl.z_low >= z_face - 1e-6
+                for (fx, fy), dd, (u, v) in pl.holes_frame():
+                    if below and math.hypot(fx - x, fy - y) < COAXIAL:
+                        tied += footprint(k, u, v, dk / 2)
+            deck.rigid(tied + end, (x, y, zb if end is low else zt))
+    # Other screws: coaxial holes through two or more horizontal plates (arm roots), rigid through the stack.
+    groups = []
+    for k in horizontal:
+        for (fx, fy), dd, (u, v) in plates[k].holes_frame():
+            if any(math.hypot(fx - x, fy - y) < COAXIAL for x, y in standoff_xy):
+                continue
+            g = next((g for g in groups if math.hypot(g["xy"][0] - fx, g["xy"][1] - fy) < COAXIAL), None)
+            if g is None:
+                groups.append({"xy": (fx, fy), "members": [(k, u, v, dd)]})
+            else:
+                g["members"].append((k, u, v, dd))
+    for g in groups:
+        if len({k for k, *_ in g["members"]}) < 2:
+            continue
+        tied = [n for k, u, v, dd in g["members"] for n in footprint(k, u, v, SOCKET_DK[screw_of(dd)] / 2)]
+        zs = [plates[k].z_low + plates[k].t / 2 for k, *_ in g["members"]]
+        deck.rigid(tied, (g["xy"][0], g["xy"][1], sum(zs) / len(zs)))
+    # Motors: rigid cylinders on the arm top, tied over their screws' footprints.
+    motor = d["motor"]
+    props = d["props"]
+    height = motor.get("heightMm", props.get("heightAboveArmMm", 14) - props.get("bandMm", 6) / 2)
+    bell = motor.get("bellDiameterMm", 28)
+    mass_t = motor["massG"] * 1e-6
+    mscrew = motor.get("boltSize", "M3")
+    for site, (mx, my) in sites.items():
+        k = next(i for i, pl in enumerate(plates) if pl.name == (f"arm {site}" if not unibody else "bottom-plate"))
+        pl = plates[k]
+        tied = []
+        for (fx, fy), dd, (u, v) in pl.holes_frame():
+            if math.hypot(fx - mx, fy - my) <= bell / 2 and abs(dd - ISO_273[mscrew][series]) < 0.01:
+                tied += footprint(k, u, v, SOCKET_DK[mscrew] / 2)
+        for loop in pl.plate["inner"]:
+            arcs = [s for s in loop if s["kind"] == "arc"]
+            ends = [pl.to_frame(*s["center"]) + (s["center"],) for s in arcs]
+            ends = [e for e in ends if math.hypot(e[0] - mx, e[1] - my) <= bell / 2]
+            if len(ends) >= 2:
+                inner_end = min(ends, key=lambda e: math.hypot(e[0] - mx, e[1] - my))
+                tied += footprint(k, inner_end[2][0], inner_end[2][1], SOCKET_DK[mscrew] / 2)
+        if not tied:
+            raise SystemExit(f"no motor screws found for {site}")
+        deck.rigid_mass(tied, mass_t, (mx, my, arm_top + height / 2), cylinder_inertia(mass_t, bell, height))
+    if cam:
+        left = next(k for k, pl in enumerate(plates) if pl.name == "camera-side left")
+        right = next(k for k, pl in enumerate(plates) if pl.name == "camera-side right")
+        front_x = max(p[0] for p in standoff_xy)
+        pivot = (front_x + cam["forwardOffsetMm"], cam["pivotHeightMm"])
+        for x, z, dd in plates[left].plate["holes"]:
+            dk = BUTTON_DK[screw_of(dd)]
+            if math.hypot(x - pivot[0], z - pivot[1]) < COAXIAL:
+                for k in (left, right):
+                    deck.rigid(footprint(k, x, z, dk / 2), (x, plates[k].y_mid, z))
+            else:
+                # A spacer across the camera between the two plates' mount holes.
+                ends = deck.rod(work, (x, plates[right].y_mid, z), (x, plates[left].y_mid, z), radius, young, 0.33, rho * 1e-9, rod_size)
+                for k, end in zip((right, left), ends):
+                    deck.rigid(footprint(k, x, z, dk / 2) + end, (x, plates[k].y_mid, z))
+        # Side plate edges resting on the bottom and top plates follow the nearest node of that plate.
+        top_k = next(k for k, pl in enumerate(plates) if pl.name == "top-plate")
+        for k in (left, right):
+            pl = plates[k]
+            outline = pl.plate["loops"][0]
+            for n, (u, v) in nodes_of[k].items():
+                if min(seg_dist(s, (u, v)) for s in outline) > 1e-6:
+                    continue
+                for hk, face in ((0, tb), (top_k, tb + gap)):
+                    if abs(v - face) > pl.t / 2:
+                        continue
+                    p = deck_xyz(deck, n)
+                    best = min(nodes_of[hk], key=lambda m: math.dist(deck_xyz(deck, m), p))
+                    deck.rigid([n, best], deck_xyz(deck, best))
+    for elems, mat, t, a1, a2 in pending_shells:
+        deck.shells_with_patches(elems, mat, t, a1, a2, rigid_nodes)
+    with tempfile.TemporaryDirectory(prefix="fw-ccx-frame-") as tmp:
+        tmp = os.environ.get("FW_CCX_KEEP", tmp)
+        os.makedirs(tmp, exist_ok=True)
+        deck.write(os.path.join(tmp, "job.inp"), spec["modes"], lowest_hz=1.0)
+        freqs = run_frequencies(tmp)
+    json.dump({"frequenciesHz": freqs, "nodes": len(deck.nodes)}, sys.stdout)
+
+
+def deck_xyz(deck, n):
+    nid, x, y, z = deck.nodes[n - 1]
+    return (x, y, z)
+
+
+def seg_dist(seg, p):
+    from plate_modes import seg_distance
+    return seg_distance(seg, p)
+
+
+if __name__ == "__main__":
+    main()
