@@ -297,7 +297,13 @@ function transformOf(g: Group, p: Placed): Transform {
 type Score = (x: number, y: number, o: Orient, placedBox: IBox | null) => readonly [number, number, number];
 
 /** A placement rule: the order parts are tried in and where each goes. */
-type Strategy = Readonly<{ name: string; order: 'area' | 'longest' | 'smallest'; score: Score }>;
+type Strategy = Readonly<{
+  name: string;
+  order: 'area' | 'longest' | 'smallest';
+  score: Score;
+  /** Score for every kind but the largest (default `score`): big plates in rows, small ones in a grid round them. */
+  scoreSmall?: Score;
+}>;
 
 const boxAt = (x: number, y: number, o: Orient): IBox => [x + o.shape.box[0], y + o.shape.box[1], x + o.shape.box[2], y + o.shape.box[3]];
 const grownArea = (b: IBox | null, c: IBox): number => (b ? (Math.max(b[2], c[2]) - Math.min(b[0], c[0])) * (Math.max(b[3], c[3]) - Math.min(b[1], c[1])) : (c[2] - c[0]) * (c[3] - c[1]));
@@ -319,6 +325,13 @@ const STRATEGIES: readonly Strategy[] = [
   { name: 'longest first, bottom-left', order: 'longest', score: (x, y, o) => { const b = boxAt(x, y, o); return [0, b[1], b[0]]; } },
   // One turn for every copy where it fits: many small identical parts then form a regular grid.
   ...[0, 1, 2, 3].map((k): Strategy => ({ name: `turn ${90 * k}° first, left-bottom`, order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [o.turn === k ? 0 : 1, b[0], b[1]]; } })),
+  // Large parts bottom-left, the small ones each turned the same way into a grid in what is left.
+  ...[0, 1].map((k): Strategy => ({
+    name: `bottom-left, small parts turn ${90 * k}° first`,
+    order: 'area',
+    score: (x, y, o) => { const b = boxAt(x, y, o); return [0, b[1], b[0]]; },
+    scoreSmall: (x, y, o) => { const b = boxAt(x, y, o); return [o.turn === k ? 0 : 1, b[1], b[0]]; },
+  })),
   // Smallest parts first: a last sheet of mixed leftovers packs the many small ones in a grid.
   ...[0, 1].map((k): Strategy => ({ name: `smallest first, turn ${90 * k}° first`, order: 'smallest', score: (x, y, o) => { const b = boxAt(x, y, o); return [o.turn === k ? 0 : 1, b[0], b[1]]; } })),
 ];
@@ -409,6 +422,7 @@ function fillSheet(g: Group, counts: readonly number[], strategy: Strategy): Fil
   const key = (t: number) =>
     strategy.order === 'area' ? g.sizeOrder[t] : strategy.order === 'smallest' ? -g.sizeOrder[t] : Math.max(...g.orientsOf[t].map((o) => g.orients[o].shape.box[2] - g.orients[o].shape.box[0]));
   const order = [...Array(n).keys()].sort((a, b) => key(b) - key(a) || a - b);
+  const largest = [...Array(n).keys()].reduce((a, b) => (g.sizeOrder[b] > g.sizeOrder[a] ? b : a), 0);
   const placed: Array<Placed & { oi: number }> = [];
   const catchUp = (oj: number): FreeRegion | null => {
     const F = free[oj];
@@ -444,6 +458,7 @@ function fillSheet(g: Group, counts: readonly number[], strategy: Strategy): Fil
     const t = order.find((k) => remaining[k] > 0 && !full[k]);
     if (t === undefined) break;
     let best: { o: number; x: number; y: number; sc: readonly number[] } | null = null;
+    const score = t === largest ? strategy.score : (strategy.scoreSmall ?? strategy.score);
     for (const oi of g.orientsOf[t]) {
       const F = catchUp(oi);
       if (!F) continue;
@@ -451,7 +466,7 @@ function fillSheet(g: Group, counts: readonly number[], strategy: Strategy): Fil
       for (const tile of F.tiles) {
         for (const path of tile.paths) {
           for (const v of path) {
-            const sc = strategy.score(v.x, v.y, o, box);
+            const sc = score(v.x, v.y, o, box);
             if (!best || sc[0] < best.sc[0] || (sc[0] === best.sc[0] && (sc[1] < best.sc[1] || (sc[1] === best.sc[1] && sc[2] < best.sc[2])))) best = { o: oi, x: v.x, y: v.y, sc };
           }
         }
