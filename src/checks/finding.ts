@@ -44,6 +44,21 @@ export function finding(
 }
 
 export const mm = (x: number, d = 2): string => `${x.toFixed(d)} mm`;
+
+/**
+ * End mills a shop commonly stocks for carbon plate, largest first. mm. Common practice, no source
+ * (1/8" = 3.175 mm is the usual default; metric 1–3 mm for small features).
+ */
+export const COMMON_BITS_MM: readonly number[] = [6, 4, 3.175, 3, 2.5, 2, 1.5, 1, 0.8, 0.5];
+
+/** The largest common bit no wider than maxMm, or null when even the smallest is too wide. */
+export const largestBitMm = (maxMm: number): number | null => COMMON_BITS_MM.find((b) => b <= maxMm + 1e-9) ?? null;
+
+/** A width that clears a tool of diameter D with room to spare: D + 0.1 mm, rounded up to 0.1 mm. */
+export const clearWidthMm = (toolDiameterMm: number): number => Math.ceil((toolDiameterMm + 0.1) * 10 - 1e-9) / 10;
+
+/** A bit size as written in advice: "2 mm", "3.175 mm". */
+export const bitText = (d: number): string => `${Number(d.toFixed(3))} mm`;
 export const pt = (p: Vec2): string => `(${p[0].toFixed(2)}, ${p[1].toFixed(2)})`;
 export const mid = (a: Vec2, b: Vec2): Vec2 => [(a[0] + b[0]) / 2, (a[1] + b[1]) / 2];
 

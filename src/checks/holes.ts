@@ -15,6 +15,8 @@ import type { Finding } from './types.js';
 export const EDGE_RULE = 'hole-edge-distance';
 export const STRESS_RULE = 'hole-stress';
 
+const UNLOADED: ReadonlySet<Feature['purpose']> = new Set(['stack-bolt', 'accessory']);
+
 /**
  * A hole the edge-distance rule applies to: a round bolt hole (or any round hole of an imported
  * part), or a bolt slot (a slot with a screw size), whose bolt may sit anywhere along its centre
@@ -117,10 +119,12 @@ export function holeEdgeRule(ix: PartIndex, o: CheckOptions, holes: readonly Bol
     const lm = error ? lim.errorEdgeRatio : lim.warnEdgeRatio;
     findings.push(
       finding(EDGE_RULE, error ? 'error' : 'warning', name, ratio, lm, 'e/D', h.slot ? e.at : h.center,
-        `${ix.contours[h.contour].label}: e ${mm(e.eMm)} to the ${ix.contours[e.edge].label}, e/D ${ratio.toFixed(2)} below ${lm.toFixed(2)}, web ${mm(e.eMm - h.diameterMm / 2)}; move the hole inward or add material (needs e ≥ ${mm(lm * h.diameterMm)})`),
+        `${ix.contours[h.contour].label}: e/D ${ratio.toFixed(2)} is below ${lm.toFixed(2)} (e ${mm(e.eMm)} to the ${ix.contours[e.edge].label}, web ${mm(e.eMm - h.diameterMm / 2)}); move the ${h.slot ? 'slot' : 'hole'} ${mm(lm * h.diameterMm - e.eMm)} away from the ${ix.contours[e.edge].label} or add material there`),
     );
   }
-  const round = holes.filter((h) => !h.slot);
+  // Pitch matters where bolts share a load; stack and accessory screws carry none, and a stack's
+  // concentric patterns are alternatives (only one is used). FAA AC 43.13-1B spacing is for joints.
+  const round = holes.filter((h) => !h.slot && !UNLOADED.has(h.feature.purpose));
   if (lim.enabled && round.length > 1) {
     const grid = buildBoxGrid(round.map((h) => [h.center[0], h.center[1], h.center[0], h.center[1]] as const));
     const maxD = Math.max(...round.map((h) => h.diameterMm));
@@ -133,7 +137,7 @@ export function holeEdgeRule(ix: PartIndex, o: CheckOptions, holes: readonly Bol
         if (s === 0 || s / D >= lim.warnPitchRatio) continue;
         findings.push(
           finding(EDGE_RULE, 'warning', name, s / D, lim.warnPitchRatio, 'pitch/D', mid(h.center, g.center),
-            `bolt pitch ${mm(s)} between ${ix.contours[h.contour].label} and ${ix.contours[g.contour].label}: pitch/D ${(s / D).toFixed(2)} below ${lim.warnPitchRatio.toFixed(2)}; space the holes to ${mm(lim.warnPitchRatio * D)} if they carry load`),
+            `${ix.contours[h.contour].label} and ${ix.contours[g.contour].label}: pitch/D ${(s / D).toFixed(2)} is below ${lim.warnPitchRatio.toFixed(2)} (pitch ${mm(s)}); space the two holes ${mm(lim.warnPitchRatio * D)} apart`),
         );
       }
     });
@@ -220,7 +224,7 @@ export function holeStressRule(ix: PartIndex, o: CheckOptions, holes: readonly B
     const ktOrtho = lekhnitskiiKt(part.material, theta);
     out.push(
       finding(STRESS_RULE, 'info', part.name, ktn, null, 'Ktn', h.center,
-        `${ix.contours[h.contour].label} in ${m.name}: d/W ${(h.diameterMm / W).toFixed(3)} (W ${mm(W)}), net-section Ktn ${ktn.toFixed(3)} (Heywood); orthotropic Kt ${ktOrtho.toFixed(3)} at ${radToDeg(theta).toFixed(1)}° to the weave (Lekhnitskii, infinite plate)`),
+        `${ix.contours[h.contour].label} in the ${m.name}: net-section Ktn ${ktn.toFixed(3)} (Heywood, d/W ${(h.diameterMm / W).toFixed(3)}, W ${mm(W)}), orthotropic Kt ${ktOrtho.toFixed(3)} at ${radToDeg(theta).toFixed(1)}° to the weave (Lekhnitskii, infinite plate); information only, no limit: a wider strut round the hole lowers both`),
     );
   }
   return out;

@@ -1,6 +1,6 @@
 import { windingNumber } from '../geometry/inside.js';
 import { loopBBox } from '../geometry/loop.js';
-import type { Feature, Part } from '../geometry/part.js';
+import { featureLabel, type Feature, type Part } from '../geometry/part.js';
 import { closestPoint, segmentBBox } from '../geometry/segment.js';
 import type { BBox, Loop, Segment, Vec2 } from '../geometry/types.js';
 import { buildBoxGrid, queryBoxGrid, type BoxGrid } from './spatial.js';
@@ -23,10 +23,8 @@ export type PartIndex = Readonly<{
   spanMm: number;
 }>;
 
-export function contourLabel(f: Feature | null): string {
-  if (!f) return 'outline';
-  return `${f.purpose} ${f.kind}${f.diameterMm !== undefined ? ` Ø${f.diameterMm.toFixed(2)}` : ''}`;
-}
+/** A contour in words (see featureLabel). */
+export const contourLabel = (f: Feature | null): string => featureLabel(f);
 
 export function indexPart(part: Part): PartIndex {
   const loops: Array<{ loop: Loop; feature: Feature | null }> = [{ loop: part.outline, feature: null }, ...part.features.map((f) => ({ loop: f.loop, feature: f }))];

@@ -63,11 +63,70 @@ const SEVERITY_ORDER: Record<Severity, number> = { error: 0, warning: 1, info: 2
 /** Code-unit order: the same on every machine, unlike locale collation. */
 const cmp = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
 
-/** Assemble a report: findings in a stable order (part order, then severity, rule, position). */
+/**
+ * Findings of one rule closer than this on one part (or the frame) are one finding: the same neck
+ * or hole seen by several segment pairs or chords. mm.
+ */
+export const MERGE_DISTANCE_MM = 1;
+
+/** Rules whose measured value grows with the problem (the others measure a width, ratio or clearance). */
+const HIGHER_IS_WORSE: ReadonlySet<string> = new Set(['camera-view', 'hole-stress']);
+
+/** How bad a finding is, for choosing which of several at one place to keep: lower is worse. */
+function badness(f: Finding): [number, number] {
+  const m = f.measured ?? 0;
+  return [SEVERITY_ORDER[f.severity], HIGHER_IS_WORSE.has(f.rule) ? -m : m];
+}
+
+/**
+ * One finding per rule and place: of the findings of one rule on one part lying within
+ * MERGE_DISTANCE_MM of each other, the worst is kept (most severe, then furthest past its limit);
+ * findings without a place are kept once per message. Any two kept findings of one rule and part are
+ * at least MERGE_DISTANCE_MM apart. Uses a 1 mm grid, so it stays linear in the finding count.
+ */
+export function mergeFindings(findings: readonly Finding[]): Finding[] {
+  const ranked = [...findings].sort((a, b) => {
+    const [sa, ma] = badness(a);
+    const [sb, mb] = badness(b);
+    return sa - sb || ma - mb;
+  });
+  const cells = new Map<string, Finding[]>();
+  const seenMessages = new Set<string>();
+  const kept = new Set<Finding>();
+  const cellKey = (f: Finding, i: number, j: number): string => `${f.part}\u0000${f.rule}\u0000${i}\u0000${j}`;
+  for (const f of ranked) {
+    if (!f.atMm) {
+      const key = `${f.part}\u0000${f.rule}\u0000${f.message}`;
+      if (!seenMessages.has(key)) kept.add(f);
+      seenMessages.add(key);
+      continue;
+    }
+    const i = Math.floor(f.atMm[0] / MERGE_DISTANCE_MM);
+    const j = Math.floor(f.atMm[1] / MERGE_DISTANCE_MM);
+    let near = false;
+    for (let di = -1; di <= 1 && !near; di++) {
+      for (let dj = -1; dj <= 1 && !near; dj++) {
+        for (const g of cells.get(cellKey(f, i + di, j + dj)) ?? []) {
+          if (Math.hypot(g.atMm![0] - f.atMm[0], g.atMm![1] - f.atMm[1]) < MERGE_DISTANCE_MM) near = true;
+        }
+      }
+    }
+    if (near) continue;
+    kept.add(f);
+    const k = cellKey(f, i, j);
+    cells.set(k, [...(cells.get(k) ?? []), f]);
+  }
+  return findings.filter((f) => kept.has(f));
+}
+
+/**
+ * Assemble a report: findings merged (one per rule and place, `mergeFindings`) in a stable order
+ * (part order, then severity, rule, position).
+ */
 export function makeReport(parts: readonly PartMetrics[], findings: readonly Finding[]): CheckReport {
   const order = new Map(parts.map((p, i) => [p.name, i]));
   // Sort keys computed once per finding (thousands of findings on a drilled plate).
-  const keyed = findings.map((f) => ({ f, part: order.get(f.part) ?? parts.length, sev: SEVERITY_ORDER[f.severity], x: f.atMm?.[0] ?? 0, y: f.atMm?.[1] ?? 0 }));
+  const keyed = mergeFindings(findings).map((f) => ({ f, part: order.get(f.part) ?? parts.length, sev: SEVERITY_ORDER[f.severity], x: f.atMm?.[0] ?? 0, y: f.atMm?.[1] ?? 0 }));
   keyed.sort((a, b) => a.part - b.part || a.sev - b.sev || cmp(a.f.rule, b.f.rule) || a.x - b.x || a.y - b.y || cmp(a.f.message, b.f.message));
   const sorted = keyed.map((k) => k.f);
   return {

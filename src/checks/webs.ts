@@ -6,6 +6,7 @@ import type { CheckOptions } from './options.js';
 import { edgeFirst, type PartIndex, type SegRef } from './partIndex.js';
 import { buildBoxGrid, queryBoxGrid, type BoxGrid } from './spatial.js';
 import type { Finding } from './types.js';
+import { withArticle } from '../params/words.js';
 
 export const WEB_RULE = 'web-width';
 
@@ -103,24 +104,26 @@ export function webRule(ix: PartIndex, o: CheckOptions, chords: readonly Chord[]
   const warn = limit * o.limits['web-width'].warnFactor;
   const findings: Finding[] = [];
   const run = o.limits['web-width'].enabled;
-  const report = (width: number, at: Vec2, what: string): void => {
+  const plate = withArticle(`${Number(part.thicknessMm.toFixed(2))} mm plate`);
+  const report = (width: number, at: Vec2, what: string, fix: (moreMm: string) => string): void => {
     if (!run || width >= warn) return;
     const error = width < limit;
+    const need = error ? limit : warn;
     findings.push(
-      finding(WEB_RULE, error ? 'error' : 'warning', part.name, width, error ? limit : warn, 'mm', at,
-        `${what}: web ${mm(width)} is below ${error ? '' : 'the warning level '}${mm(error ? limit : warn)} (${mm(part.thicknessMm, 1)} plate); move the contours apart or widen the material`),
+      finding(WEB_RULE, error ? 'error' : 'warning', part.name, width, need, 'mm', at,
+        `${what}: web ${mm(width)} is below the ${error ? 'minimum' : 'warning level'} ${mm(need)} for ${plate}; ${fix(mm(need - width))}`),
     );
   };
   let holeHole: ContourPair | null = null;
   for (const p of contourPairsWithin(ix, warn)) {
-    report(p.distance, mid(p.p, p.q), `${ix.contours[p.a].label} to ${ix.contours[p.b].label}`);
+    report(p.distance, mid(p.p, p.q), `${ix.contours[p.a].label} to ${ix.contours[p.b].label}`, (more) => `move the two contours ${more} further apart`);
     if (p.b !== 0 && (!holeHole || p.distance < holeHole.distance)) holeHole = p;
   }
   let minNeck: number | null = null;
   for (const c of chords) {
     if (c.through !== 'material') continue;
     minNeck = minNeck === null ? c.widthMm : Math.min(minNeck, c.widthMm);
-    report(c.widthMm, mid(c.p, c.q), `narrow neck in the ${ix.contours[c.contour].label}`);
+    report(c.widthMm, mid(c.p, c.q), `narrow neck in the ${ix.contours[c.contour].label}`, (more) => `widen the material there by ${more}`);
   }
   const edge = nearestToOutline(ix, warn);
   // The pass above saw every pair nearer than the warning level; search further only when it found none.

@@ -2,6 +2,7 @@ import type { HardwareList } from '../assembly/types.js';
 import type { Part } from '../geometry/part.js';
 import { drawingSet, layoutDrawing, quoteReport, type Quote } from '../quote/index.js';
 import { placedPartsToDxf } from './dxf.js';
+import type { DrawingFonts } from './pdfDrawing.js';
 import { drawingToSvgs, sheetLayoutToSvg } from './svgDrawing.js';
 
 /** One file of a quote package: a path relative to the package folder, and its bytes. */
@@ -20,6 +21,8 @@ export type QuotePackageMeta = Readonly<{
   r2000?: boolean;
   /** The frame's hardware, listed on the summary sheet when given. */
   hardware?: HardwareList;
+  /** The font embedded in the PDF (read by the caller: src/cli/fonts.ts). */
+  fonts: DrawingFonts;
 }>;
 
 export const DEFAULT_GENERAL_TOLERANCE = 'ISO 2768-m unless stated';
@@ -31,7 +34,7 @@ const pad = (n: number): string => String(n).padStart(2, '0');
  * over the same parts: `quote.json` (the report), `drawing.pdf` and `drawing-NN.svg` (summary sheet,
  * then one sheet per part) and `sheets/sheet-NN-<t>mm.dxf|svg` (each nested sheet). Pure and
  * deterministic: the same parts, quote and meta give the same bytes.
- * @example const files = await quotePackage(frame.parts, quoteParts(frame.parts, { quantity: 20, shop }), { design: 'Tessel 5', revision: 'B', date: null, checks: null });
+ * @example const files = await quotePackage(frame.parts, quoteParts(frame.parts, { quantity: 20, shop }), { design: 'Tessel 5', revision: 'B', date: null, checks: null, fonts });
  */
 export async function quotePackage(parts: readonly Part[], quote: Quote, meta: QuotePackageMeta): Promise<{ report: ReturnType<typeof quoteReport>; files: PackageFile[] }> {
   const head = { design: meta.design, revision: meta.revision, date: meta.date, checks: meta.checks };
@@ -41,7 +44,7 @@ export async function quotePackage(parts: readonly Part[], quote: Quote, meta: Q
   const sheets = layoutDrawing(set);
   // The PDF writer (and its font machinery) loads only here, where a PDF is made.
   const { drawingToPdf } = await import('./pdfDrawing.js');
-  files.push({ name: 'drawing.pdf', data: await drawingToPdf(set, sheets) });
+  files.push({ name: 'drawing.pdf', data: await drawingToPdf(set, sheets, { fonts: meta.fonts }) });
   drawingToSvgs(sheets).forEach((svg, i) => files.push({ name: `drawing-${pad(i + 1)}.svg`, data: svg }));
   quote.nesting.sheets.forEach((s, i) => {
     const name = `sheet-${pad(i + 1)}-${s.thicknessMm}mm`;

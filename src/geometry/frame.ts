@@ -5,6 +5,7 @@ import { degToRad } from '../params/units.js';
 import { armRootWidthMm, armShape, filletedUnion, rootBlockLength } from './arm.js';
 import { BooleanGuardError } from './boolean.js';
 import { FilletError } from './fillet.js';
+import { relieveCorners, type CornerRelief } from './relief.js';
 import { cutout, roundedCutout, screwHole, squareHoles, type SourcedFeature } from './holes.js';
 import { alongArm, motorSites, type MotorSite } from './layout.js';
 import { transformLoop, transformPoint, type Transform } from './loop.js';
@@ -43,8 +44,19 @@ export function buildFrame(d: Design): Frame {
   parts.push(topPlate(d));
   if (d.braces && !unibody) parts.push(...braces(d, sites));
   if (d.camera) parts.push(cameraSide(d));
+  const relieved = parts.map((p) => withReliefs(d, p));
   const armTopZMm = armLayerZMm(d) + (unibody ? d.body.thicknessMm : d.arms.thicknessMm);
-  return { name: d.name, revision: d.revision, parts, sites, propDiameterMm: d.props.diameterMm, armTopZMm, cameraPlanMm: cameraPlan(d), design: d };
+  return { name: d.name, revision: d.revision, parts: relieved, sites, propDiameterMm: d.props.diameterMm, armTopZMm, cameraPlanMm: cameraPlan(d), design: d };
+}
+
+/**
+ * The part with the corner reliefs its design section asks for (`<section>.cornerRelief`, else
+ * `cutting.cornerRelief`), sized to the design's tool.
+ */
+function withReliefs(d: Design, part: Part): Part {
+  const section = (d as unknown as Record<string, { cornerRelief?: CornerRelief } | undefined>)[part.sourcePath];
+  const style = section?.cornerRelief ?? d.cutting.cornerRelief;
+  return style === 'none' ? part : relieveCorners(part, d.cutting.toolDiameterMm, style).part;
 }
 
 /**

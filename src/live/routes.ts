@@ -9,6 +9,7 @@ import type { ShopProfile } from '../params/shop.js';
 import { DesignError } from '../params/errors.js';
 import { VariantRequestError } from '../variant/errors.js';
 import { hardwareList } from '../assembly/hardware.js';
+import { drawingFonts } from '../cli/fonts.js';
 import type { ModesSummary } from './modesSummary.js';
 import { errorBody, send, sendJson, type Handler } from './server.js';
 import type { LiveSession } from './session.js';
@@ -105,7 +106,7 @@ export function liveRoutes(session: LiveSession, shop: ShopProfile): { routes: R
         const quote = quoteParts(built.frame.parts, { quantity, shop, toolDiameterMm: shop.toolDiameterMm ?? built.design.cutting.toolDiameterMm });
         const assembly = session.evaluation.assembly!;
         const checks = checkFrame(built.frame, { toolDiameterMm: quote.toolDiameterMm }, assembly).summary;
-        const pkg = await quotePackage(built.frame.parts, quote, { design: built.design.name, revision: built.design.revision, date: null, checks, hardware: hardwareList(assembly, built.design) });
+        const pkg = await quotePackage(built.frame.parts, quote, { design: built.design.name, revision: built.design.revision, date: null, checks, hardware: hardwareList(assembly, built.design), fonts: drawingFonts() });
         const pdf = pkg.files.find((f) => f.name === 'drawing.pdf')!;
         attachment(res, 'application/pdf', `${built.design.name}-drawing.pdf`, pdf.data);
       } catch (e) {
@@ -172,7 +173,7 @@ export function liveRoutes(session: LiveSession, shop: ShopProfile): { routes: R
       // Cut files of a design with check errors say so inside, as `build --force` does.
       const comment = buildGate(built.report, true).comment;
       if (m[2] === 'dxf') return attachment(res, 'application/dxf', `${part.name}.dxf`, partToDxf(part, comment ? { comment } : {}));
-      return attachment(res, 'image/svg+xml', `${part.name}.svg`, partToSvg(part, { marginMm: 0, ...(comment ? { comment } : {}) }));
+      return attachment(res, 'image/svg+xml', `${part.name}.svg`, partToSvg(part, comment ? { comment } : {}));
     },
   };
   return { routes, prefixRoutes };

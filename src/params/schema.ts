@@ -15,9 +15,13 @@ const screw = z.enum(SCREW_SIZES, { error: `must be one of ${SCREW_SIZES.join(',
 
 const point = z.tuple([num(-500, 500, 'mm', 'x'), num(-500, 500, 'mm', 'y')]).describe('[x, y] in mm: x forward, y left, origin at the frame centre');
 
+const CORNER_RELIEFS = ['none', 'dogbone', 'tbone'] as const;
+const cornerRelief = z.enum(CORNER_RELIEFS, { error: `must be one of ${CORNER_RELIEFS.join(', ')}` });
+
 const partCommon = {
   material: z.string().min(1).optional().describe('name of an entry in `materials` (default: the first one)'),
   weaveDeg: num(-90, 90, 'deg', "angle of the sheet's 0° fibre direction in the part's own frame").default(0),
+  cornerRelief: cornerRelief.optional().describe("reliefs at the sharp inside corners of this part's slots and cut-outs, so a square tab seats fully (default: cutting.cornerRelief)"),
 };
 
 export const MaterialSchema = z
@@ -266,9 +270,12 @@ export const DesignSchema = z
       .object({
         toolDiameterMm: num(0.3, 12, 'mm', 'end mill diameter').default(EIGHTH_INCH_MM),
         holeSeries: z.enum(['fine', 'medium', 'coarse']).default('medium').describe('ISO 273 clearance hole series'),
+        cornerRelief: cornerRelief
+          .default('none')
+          .describe('reliefs sized to the tool at sharp inside corners of slots and cut-outs: none; dogbone (a disc on the corner bisector); tbone (a disc on the shorter side, running along the longer)'),
       })
       .strict()
-      .default({ toolDiameterMm: EIGHTH_INCH_MM, holeSeries: 'medium' }),
+      .default({ toolDiameterMm: EIGHTH_INCH_MM, holeSeries: 'medium', cornerRelief: 'none' }),
     assembly: AssemblySchema.prefault({}).describe('how the plates stack and what fastens them'),
     components: ComponentsSchema,
     checks: ChecksSchema.prefault({}),

@@ -6,6 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { DEMO_FILES, DESIGNS_DIR, demoFrame, designWith } from '../helpers/demo.js';
 import { partBBox } from '../../src/geometry/index.js';
 import { outputNames, runCli, STACK_LINE } from '../helpers/cli.js';
+import { viewBoxOf } from '../helpers/render.js';
 
 const tmp = () => mkdtempSync(join(tmpdir(), 'fw-build-'));
 
@@ -47,7 +48,7 @@ describe('framewright build (the built CLI)', () => {
   const badCases: Array<[string, Record<string, unknown> | ((raw: Record<string, unknown>) => void), RegExp]> = [
     ['a missing field', (raw) => delete (raw.layout as Record<string, unknown>).wheelbaseMm, /layout\.wheelbaseMm: \(missing\) is required/],
     ['a negative width', { arms: { widthMm: -3 } }, /arms\.widthMm: -3 is below the allowed range 4 to 60 mm/],
-    ['a stack pattern that does not fit the body', { stacks: [{ place: 'front', patternsMm: [50], boltSize: 'M3' }], components: undefined }, /stacks\.0\.patternsMm: "bottom-plate" puts a stack-bolt hole .* outside the bottom-plate outline/],
+    ['a stack pattern that does not fit the body', { stacks: [{ place: 'front', patternsMm: [50], boltSize: 'M3' }], components: undefined }, /stacks\.0\.patternsMm: "bottom-plate" puts a stack bolt hole Ø3\.40 .* outside the bottom-plate outline/],
     ['an unknown key', { arms: { wdith: 3 } }, /arms: \["wdith"\] unknown key/],
   ];
   for (const [what, patch, message] of badCases) {
@@ -162,14 +163,20 @@ describe('output folders that cannot be written', () => {
 });
 
 describe('the SVG files build writes', () => {
-  it('are as large in mm as each part bounding box', () => {
+  it('hold the whole part front up (+x up) at 1 mm per unit, in a viewBox of the width and height given in mm', () => {
     const out = join(tmp(), 'svg');
     expect(runCli(['build', 'designs/tessel-5.yaml', '--out', out]).code).toBe(0);
     for (const p of demoFrame('tessel-5.yaml').parts) {
       const svg = readFileSync(join(out, `${p.name}.svg`), 'utf8');
       const b = partBBox(p);
-      expect(Number(/width="([0-9.]+)mm"/.exec(svg)![1])).toBeCloseTo(b[2] - b[0], 3);
-      expect(Number(/height="([0-9.]+)mm"/.exec(svg)![1])).toBeCloseTo(b[3] - b[1], 3);
+      const vb = viewBoxOf(svg);
+      expect(Number(/width="([0-9.]+)mm"/.exec(svg)![1])).toBeCloseTo(vb.w, 3);
+      expect(Number(/height="([0-9.]+)mm"/.exec(svg)![1])).toBeCloseTo(vb.h, 3);
+      // The part's extent turned front up (screen x = −y, y = −x) lies inside the viewBox.
+      expect(vb.x).toBeLessThan(-b[3]);
+      expect(vb.x + vb.w).toBeGreaterThan(-b[1]);
+      expect(vb.y).toBeLessThan(-b[2]);
+      expect(vb.y + vb.h).toBeGreaterThan(-b[0]);
     }
   });
 });

@@ -7,9 +7,10 @@ import { describe, expect, it } from 'vitest';
 import { checkFrame, frameAnnotation, optionsForDesign, partMarkers } from '../../src/checks/index.js';
 import { frameOverviewSvg, partToDxf, partToSvg, placedPartsToDxf, plainLine, printable, xmlEscape } from '../../src/export/index.js';
 import { drawingToPdf } from '../../src/export/pdfDrawing.js';
+import { drawingFonts } from '../../src/cli/fonts.js';
 import { drawingToSvgs, sheetLayoutToSvg } from '../../src/export/svgDrawing.js';
 import { familySheetSvg } from '../../src/export/svgFamily.js';
-import { frameFindingsOverlay, markersOverlay } from '../../src/export/svgFindings.js';
+import { frameFindingsAnnotation, markersAnnotation } from '../../src/export/svgFindings.js';
 import { modeShapeSvg } from '../../src/export/svgModes.js';
 import type { Frame } from '../../src/geometry/index.js';
 import { drawingSet, layoutDrawing, quoteParts } from '../../src/quote/index.js';
@@ -52,13 +53,13 @@ describe('every writer keeps its output well-formed whatever text reaches it (XM
   it('part SVGs (with a forced-build note and finding markers) and the overview', () => {
     const report = checkFrame(frame);
     for (const p of frame.parts) {
-      const svg = partToSvg(p, { marginMm: 4, comment: `written with --force -- ${HOSTILE}`, overlay: markersOverlay(partMarkers(report, p.name)) });
+      const svg = partToSvg(p, { comment: `written with --force -- ${HOSTILE}`, annotation: markersAnnotation(partMarkers(report, p.name)) });
       expect(xmlProblem(svg), p.name).toBeNull();
       expect(svg).toContain('written with --force');
     }
     const a = frameAnnotation(frame, report, optionsForDesign(frame.design));
     expect(xmlProblem(frameOverviewSvg(frame))).toBeNull();
-    expect(xmlProblem(frameOverviewSvg(frame, { overlay: frameFindingsOverlay(a), extraBBox: a.bbox }))).toBeNull();
+    expect(xmlProblem(frameOverviewSvg(frame, { annotation: frameFindingsAnnotation(a) }))).toBeNull();
   });
 
   it('DXF R12 and R2000: comments and labels are single printable lines that an independent reader takes', () => {
@@ -103,7 +104,7 @@ describe('every writer keeps its output well-formed whatever text reaches it (XM
     const quote = quoteParts(frame.parts, { quantity: 1, shop: exampleShop(), toolDiameterMm: 3.175 });
     const set = drawingSet(frame.parts, quote, { design: HOSTILE, revision: HOSTILE, date: null, checks: { errors: 0, warnings: 0 }, generalTolerance: HOSTILE });
     const dir = mkdtempSync(join(tmpdir(), 'fw-xml-'));
-    writeFileSync(join(dir, 'd.pdf'), await drawingToPdf(set, layoutDrawing(set)));
+    writeFileSync(join(dir, 'd.pdf'), await drawingToPdf(set, layoutDrawing(set), { fonts: drawingFonts() }));
     const r = spawnSync('pdftotext', [join(dir, 'd.pdf'), '-'], { encoding: 'utf8' });
     expect(r.status).toBe(0);
     expect(r.stdout).toContain('--> H I');

@@ -33,7 +33,7 @@ export async function buildOutputs(frame: Frame, outDir: string, opts: BuildOpti
     const dxfPath = join(outDir, `${part.name}.dxf`);
     const svgPath = join(outDir, `${part.name}.svg`);
     files.push({ path: dxfPath, data: partToDxf(part, { version: opts.r2000 ? 'R2000' : 'R12', contours: opts.entities ? 'entities' : 'polyline', ...(comment ? { comment } : {}) }) });
-    files.push({ path: svgPath, data: partToSvg(part, { marginMm: 0, ...(comment ? { comment } : {}) }) });
+    files.push({ path: svgPath, data: partToSvg(part, comment ? { comment } : {}) });
     const b = partBBox(part);
     summary.push({
       name: part.name,

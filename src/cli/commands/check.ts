@@ -5,6 +5,7 @@ import type { Frame } from '../../geometry/index.js';
 import { DesignError } from '../../params/errors.js';
 import type { Design } from '../../params/design.js';
 import { errorJson, readDesign, readDxfText, reportError, STDIN_PATH, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
+import { reliefLine, reliefStyle } from '../reliefFlag.js';
 import { watchAndRun } from '../watch.js';
 import type { CheckRun, DxfCheckFlags } from './checkDxf.js';
 
@@ -56,17 +57,17 @@ export async function mergedOptions(design: Design, opts: CheckCliOptions): Prom
 
 /** Annotated SVG files: one per part with its findings marked, and the overview with props and camera view. */
 export async function annotatedFiles(frame: Frame, report: CheckReport, dir: string, o: CheckOptions): Promise<OutputFile[]> {
-  const [{ CHECK_CAUTIONS, frameAnnotation, partMarkers }, { frameFindingsOverlay, markersOverlay }, { partToSvg, frameOverviewSvg }] = await Promise.all([
+  const [{ CHECK_CAUTIONS, frameAnnotation, partMarkers }, { frameFindingsAnnotation, markersAnnotation }, { partToSvg, frameOverviewSvg }] = await Promise.all([
     import('../../checks/index.js'),
     import('../../export/svgFindings.js'),
     import('../../export/index.js'),
   ]);
   const files: OutputFile[] = frame.parts.map((p) => ({
     path: join(dir, `${p.name}.check.svg`),
-    data: partToSvg(p, { marginMm: 4, overlay: markersOverlay(partMarkers(report, p.name)), comment: `${p.name}: numbered markers follow the order of the check report. ${CHECK_CAUTIONS.join(' ')}` }),
+    data: partToSvg(p, { annotation: { ...markersAnnotation(partMarkers(report, p.name)), notes: CHECK_CAUTIONS } }),
   }));
   const a = frameAnnotation(frame, report, o);
-  files.push({ path: join(dir, 'overview.check.svg'), data: frameOverviewSvg(frame, { overlay: frameFindingsOverlay(a), extraBBox: a.bbox }) });
+  files.push({ path: join(dir, 'overview.check.svg'), data: frameOverviewSvg(frame, { annotation: frameFindingsAnnotation(a) }) });
   return files;
 }
 
@@ -75,7 +76,7 @@ async function runDesignCheck(path: string, opts: CheckCliOptions): Promise<Chec
   const input = await loadCheckInput(path);
   // Limits are judged before the (slower) geometry is built, so bad input fails fast.
   const o = await mergedOptions(input.design, opts);
-  const [{ buildFrame }, { checkFrame, formatCheckReport, relieveFrame }, { buildAssembly, massBalance, massBalanceText }] = await Promise.all([
+  const [{ buildFrame, relieveFrame }, { checkFrame, formatCheckReport }, { buildAssembly, massBalance, massBalanceText }] = await Promise.all([
     import('../../geometry/index.js'),
     import('../../checks/index.js'),
     import('../../assembly/index.js'),
@@ -83,9 +84,10 @@ async function runDesignCheck(path: string, opts: CheckCliOptions): Promise<Chec
   let frame = buildFrame(input.design);
   let reliefNote = '';
   if (opts.relieveCorners) {
-    const r = relieveFrame(frame, o.toolDiameterMm);
+    const style = reliefStyle(opts.relieveCorners);
+    const r = relieveFrame(frame, o.toolDiameterMm, style);
     frame = r.frame;
-    reliefNote = `Corner relief: ${r.added} dogbone${r.added === 1 ? '' : 's'} added${r.skipped ? `, ${r.skipped} corner${r.skipped === 1 ? '' : 's'} too tight to relieve` : ''}; the report below is for the relieved parts.\n`;
+    reliefNote = reliefLine(style, r.added, r.skipped);
   }
   const assembly = buildAssembly(frame.design, frame);
   const report = checkFrame(frame, o, assembly);
@@ -149,7 +151,7 @@ export function registerCheck(program: Command): void {
     .argument('<inputs...>', 'design files (YAML or JSON; - reads one from standard input), or DXF cut files drawn elsewhere (.dxf)')
     .option('--json', 'print the report as JSON (the report contract in the README; an array of reports for several inputs)')
     .option('--annotate <dir>', 'write an SVG per part with each finding marked, and an overview with prop discs and the camera view (a folder per input when several)')
-    .option('--relieve-corners', 'add dogbone reliefs to sharp inside corners of slots and cut-outs, then check the edited parts')
+    .option('--relieve-corners [style]', 'add reliefs sized to the tool at sharp inside corners of slots and cut-outs (dogbone, the default, or tbone), then check the edited parts')
     .option('--tool <mm>', 'router bit diameter in mm (default: cutting.toolDiameterMm of the design)')
     .option('--limit <rule.key=value>', 'override a limit of the checks section, e.g. --limit web-width.minMm=2 (repeat for more)', (v: string, acc: string[]) => [...acc, v], [] as string[])
     .option('--thickness <mm>', 'DXF only: plate thickness in mm (else the sidecar FILE.dxf.yaml, else 2 mm with a warning)')

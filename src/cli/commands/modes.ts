@@ -248,7 +248,7 @@ function comparisonText(items: readonly Loaded[]): string {
 const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '');
 
 async function plotFiles(dir: string, prefix: string, r: FrameModes, parts: ReadonlyMap<string, Part>): Promise<OutputFile[]> {
-  const { modeShapeSvg } = await import('../../export/svgModes.js');
+  const [{ modeShapeSvg }, { frontWord }] = await Promise.all([import('../../export/svgModes.js'), import('../../export/svgPart.js')]);
   const all: ModalResult[] = [...r.parts, ...r.arms.map((a) => a.modal), ...(r.body ? [r.body.modal] : [])];
   return all.flatMap((m) => {
     const part = parts.get(m.part);
@@ -268,6 +268,7 @@ async function plotFiles(dir: string, prefix: string, r: FrameModes, parts: Read
           triangles: m.mesh.triangles,
           w,
           loops,
+          ...(part ? { front: frontWord(part) } : {}),
           ...(m.stackAtMm ? { markerMm: m.stackAtMm } : {}),
           ...(inPlane ? { legend: ['', 'still', 'moving'] as const, legendCaption: 'in-plane displacement, relative to the largest' } : {}),
         }),

@@ -1,6 +1,7 @@
 import type { Command } from 'commander';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { drawingFonts } from '../fonts.js';
 import { readDesign, readText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 import { slug } from './build.js';
@@ -108,6 +109,7 @@ export function registerQuote(program: Command): void {
         hardware: hardwareList(assembly, design),
         generalTolerance: opts.tolerance ?? DEFAULT_GENERAL_TOLERANCE,
         ...(opts.r2000 ? { r2000: true } : {}),
+        fonts: drawingFonts(),
       });
       const files: OutputFile[] = pkg.map((f) => ({ path: join(outDir, ...f.name.split('/')), data: f.data }));
       writeAllAtomically(files, outDir);
