@@ -8,8 +8,10 @@ and computes what the web-width and hole-edge-distance rules report for such a p
 - hole-to-hole webs (centre distance minus both radii) below the web warning level,
 - e (hole centre to the nearest outline segment), e/D against the warning and error ratios,
 - pitch/D between holes (D the larger diameter) below the pitch warning ratio,
-- holes smaller than the router bit (drill them),
-- the part metrics minWebMm, minHoleEdgeWebMm, minHoleHoleWebMm, minEdgeRatio.
+- holes smaller than the router bit (drill them: a note),
+- the part metrics minWebMm, minHoleEdgeWebMm, minHoleHoleWebMm, minEdgeRatio,
+then reports one finding per rule and place as the check report does: of the findings of one rule
+within 1 mm of each other, the worst (most severe, then lowest measured) is kept.
 
 usage: holes_numpy.py PLATE.dxf [--repeat N] [--findings]   (limits as JSON on stdin, or {} for the defaults)
 stdout: {"metrics": {...}, "counts": {"rule/severity": n, ...}, "holes": n, "seconds": best of N,
@@ -18,6 +20,7 @@ The time covers reading and parsing the file, every computation, one record per 
 text of the result; not the interpreter start.
 """
 import json
+import math
 import sys
 import time
 
@@ -90,6 +93,32 @@ def point_to_arcs(p, arcs):
     return np.min(d, axis=1)
 
 
+SEVERITY = {"error": 0, "warning": 1, "info": 2}
+MERGE_MM = 1.0
+
+
+def merged(records):
+    """One finding per rule and place: worst first, dropped when a kept one of its rule lies within 1 mm."""
+    ranked = sorted(range(len(records)), key=lambda i: (SEVERITY[records[i]["severity"]], records[i]["measured"], i))
+    cells = {}
+    keep = set()
+    for i in ranked:
+        f = records[i]
+        x, y = f["atMm"]
+        ci, cj = math.floor(x / MERGE_MM), math.floor(y / MERGE_MM)
+        near = False
+        for di in (-1, 0, 1):
+            for dj in (-1, 0, 1):
+                for (u, v) in cells.get((f["rule"], ci + di, cj + dj), ()):
+                    if math.hypot(u - x, v - y) < MERGE_MM:
+                        near = True
+        if near:
+            continue
+        keep.add(i)
+        cells.setdefault((f["rule"], ci, cj), []).append((x, y))
+    return [records[i] for i in sorted(keep)]
+
+
 def check(path, lim):
     lines, arcs, circles = read_entities(path)
     c = circles[:, 0:2]
@@ -129,7 +158,12 @@ def check(path, lim):
     ratio = e / dia
     add("hole-edge-distance/error", ratio < lim["errorEdgeRatio"], ratio, lim["errorEdgeRatio"], c)
     add("hole-edge-distance/warning", (ratio >= lim["errorEdgeRatio"]) & (ratio < lim["warnEdgeRatio"]), ratio, lim["warnEdgeRatio"], c)
-    add("bit-reach/warning", dia < lim["toolDiameterMm"] - 1e-6, dia, lim["toolDiameterMm"], c)
+    add("bit-reach/info", dia < lim["toolDiameterMm"] - 1e-6, dia, lim["toolDiameterMm"], c)
+    records = merged(records)
+    counts = {}
+    for f in records:
+        k = f"{f['rule']}/{f['severity']}"
+        counts[k] = counts.get(k, 0) + 1
     # The nearest hole-hole web may lie beyond the reach of the pairs above: ask the tree.
     dd, nn = cKDTree(c).query(c, k=2)
     hole_hole = float(np.min(dd[:, 1] - r - r[nn[:, 1]])) if len(c) > 1 else None
