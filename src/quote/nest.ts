@@ -320,6 +320,9 @@ const STRATEGIES: readonly Strategy[] = [
   { name: 'lowest top edge', order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [0, b[3], b[0]]; } },
   { name: 'leftmost right edge', order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [0, b[2], b[1]]; } },
   { name: 'compact', order: 'area', score: (x, y, o, pb) => { const b = boxAt(x, y, o); return [grownArea(pb, b), b[1], b[0]]; } },
+  // Diagonal fronts: rows that step, so tapered parts lean into the ones before them.
+  { name: 'diagonal, rows', order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [0, b[0] + 2 * b[1], b[1]]; } },
+  { name: 'diagonal, columns', order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [0, 2 * b[0] + b[1], b[0]]; } },
   { name: 'upright first', order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [o.turn % 2, b[3], b[0]]; } },
   { name: 'quarter-turned first', order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [1 - (o.turn % 2), b[3], b[0]]; } },
   { name: 'longest first, bottom-left', order: 'longest', score: (x, y, o) => { const b = boxAt(x, y, o); return [0, b[1], b[0]]; } },
