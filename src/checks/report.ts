@@ -1,5 +1,5 @@
 import type { Frame } from '../geometry/frame.js';
-import { partArea, partBBox, partCutLength } from '../geometry/metrics.js';
+import { partArea, partCutLength } from '../geometry/metrics.js';
 import type { Part } from '../geometry/part.js';
 import { bitReachRule } from './bitReach.js';
 import { loopChords } from './chords.js';
@@ -35,7 +35,8 @@ export function checkPart(part: Part, o: CheckOptions): PartCheck {
   const holes = boltHoles(ix);
   const edge = holeEdgeRule(ix, o, holes);
   const findings = [...webs.findings, ...edge.findings, ...holeStressRule(ix, o, holes), ...bitReachRule(ix, o, chords), ...weaveRule(part, o)];
-  const bb = partBBox(part);
+  // The outline's box is the part's (every inner contour lies inside it), already computed by the index.
+  const bb = ix.contours[0].bbox;
   const num = (x: number | null): number | null => (x === null ? null : r4(x));
   return {
     findings,
@@ -124,15 +125,10 @@ export function mergeFindings(findings: readonly Finding[]): Finding[] {
  */
 export function makeReport(parts: readonly PartMetrics[], findings: readonly Finding[]): CheckReport {
   const order = new Map(parts.map((p, i) => [p.name, i]));
-  const sorted = mergeFindings(findings).sort(
-    (a, b) =>
-      (order.get(a.part) ?? parts.length) - (order.get(b.part) ?? parts.length) ||
-      SEVERITY_ORDER[a.severity] - SEVERITY_ORDER[b.severity] ||
-      cmp(a.rule, b.rule) ||
-      (a.atMm?.[0] ?? 0) - (b.atMm?.[0] ?? 0) ||
-      (a.atMm?.[1] ?? 0) - (b.atMm?.[1] ?? 0) ||
-      cmp(a.message, b.message),
-  );
+  // Sort keys computed once per finding (thousands of findings on a drilled plate).
+  const keyed = mergeFindings(findings).map((f) => ({ f, part: order.get(f.part) ?? parts.length, sev: SEVERITY_ORDER[f.severity], x: f.atMm?.[0] ?? 0, y: f.atMm?.[1] ?? 0 }));
+  keyed.sort((a, b) => a.part - b.part || a.sev - b.sev || cmp(a.f.rule, b.f.rule) || a.x - b.x || a.y - b.y || cmp(a.f.message, b.f.message));
+  const sorted = keyed.map((k) => k.f);
   return {
     units: 'mm',
     parts,
