@@ -11,8 +11,9 @@
  * const dxf = partToDxf(frame.parts[0]);
  *
  * Bad input throws `DesignError` (each issue names the parameter path, the value and the allowed
- * range); an impossible variant request throws `VariantRequestError`; an unreadable DXF throws
- * `DxfReadError`. Everything else thrown is a defect.
+ * range); an impossible variant request throws `VariantRequestError`, a variant that cannot pass every
+ * check throws `VariantRefusal` (the unmet constraint and the nearest valid alternative); an
+ * unreadable DXF throws `DxfReadError`. Everything else thrown is a defect.
  */
 
 // ── Design: parse, validate, schema, edit ─────────────────────────────────────────────────────
@@ -51,8 +52,10 @@ export { frameModes, partModes, armModes, bodyModes, type FrameModes, type Modal
 export { assembledFrameModes, type FrameModalResult, type FrameMode, type FrameModeKind, type FrameModesOptions } from './analysis/frameModes.js';
 
 // ── Size variants ─────────────────────────────────────────────────────────────────────────────
-export { makeVariant, type VariantRequest, type VariantResult } from './variant/variant.js';
-export { VariantRequestError } from './variant/errors.js';
+export { makeVariant, planVariant, type VariantRequest, type VariantResult, type VariantPlan } from './variant/variant.js';
+export { VariantRefusal, VariantRequestError } from './variant/errors.js';
+export { rangeRow, variantRow, sourceRow, bandSamples, type RangeRow } from './variant/sizeRange.js';
+export { rotationBandFromTipSpeed, fullThrustN, type RotationBand } from './analysis/rotation.js';
 
 // ── Quotes: cut data, nesting, time and price ─────────────────────────────────────────────────
 export { quoteParts, type Quote, type QuoteOptions } from './quote/quote.js';

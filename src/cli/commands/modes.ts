@@ -64,8 +64,8 @@ async function analyse(path: string, opts: ModesCliOptions): Promise<Loaded> {
     if (opts.part) {
       const keep = frame.parts.filter((p) => p.name === opts.part);
       if (!keep.length) throw new UsageError(`--part ${JSON.stringify(opts.part)}: no such part in ${path} (parts: ${frame.parts.map((p) => p.name).join(', ')})`);
-      // A unibody's body model is the bottom plate; keep it only when that is the part asked for.
-      frame = { ...frame, parts: keep, design: keep.some((p) => p.role === 'bottom') ? frame.design : { ...frame.design, arms: { ...frame.design.arms, construction: 'separate' } } };
+      // A unibody's body model is the bottom plate: it runs only when that is the part asked for.
+      frame = { ...frame, parts: keep };
     }
     refuseLargeMeshes(frame.parts, (p) => options.meshSizeMm ?? defaultMeshSizeMm(p), !opts.part);
     return { label: frame.name, result: frameModes(frame, { ...options, assembled: !opts.part }) };
