@@ -1,6 +1,7 @@
 import type { Frame } from '../geometry/frame.js';
 import { partArea, partCutLength } from '../geometry/metrics.js';
 import type { Part } from '../geometry/part.js';
+import type { Vec2 } from '../geometry/types.js';
 import { bitReachRule } from './bitReach.js';
 import { loopChords } from './chords.js';
 import { r4 } from './finding.js';
@@ -85,36 +86,41 @@ function badness(f: Finding): [number, number] {
  * at least MERGE_DISTANCE_MM apart. Uses a 1 mm grid, so it stays linear in the finding count.
  */
 export function mergeFindings(findings: readonly Finding[]): Finding[] {
-  const ranked = [...findings].sort((a, b) => {
-    const [sa, ma] = badness(a);
-    const [sb, mb] = badness(b);
-    return sa - sb || ma - mb;
-  });
-  const cells = new Map<string, Finding[]>();
+  // Badness computed once per finding; the sort is stable, so ties keep the findings' order.
+  const ranked = findings.map((f) => ({ f, b: badness(f) })).sort((x, y) => x.b[0] - y.b[0] || x.b[1] - y.b[1]);
+  // Per part and rule, kept places by grid cell (a number: thousands of findings build no strings).
+  const groups = new Map<string, Map<number, Vec2[]>>();
   const seenMessages = new Set<string>();
   const kept = new Set<Finding>();
-  const cellKey = (f: Finding, i: number, j: number): string => `${f.part}\u0000${f.rule}\u0000${i}\u0000${j}`;
-  for (const f of ranked) {
+  const CELL_SPAN = 2 ** 22;
+  const cellKey = (i: number, j: number): number => (i + CELL_SPAN / 2) * CELL_SPAN + (j + CELL_SPAN / 2);
+  for (const { f } of ranked) {
+    const group = `${f.part}\u0000${f.rule}`;
     if (!f.atMm) {
-      const key = `${f.part}\u0000${f.rule}\u0000${f.message}`;
+      const key = `${group}\u0000${f.message}`;
       if (!seenMessages.has(key)) kept.add(f);
       seenMessages.add(key);
       continue;
     }
-    const i = Math.floor(f.atMm[0] / MERGE_DISTANCE_MM);
-    const j = Math.floor(f.atMm[1] / MERGE_DISTANCE_MM);
+    let cells = groups.get(group);
+    if (!cells) groups.set(group, (cells = new Map()));
+    const [x, y] = f.atMm;
+    const i = Math.floor(x / MERGE_DISTANCE_MM);
+    const j = Math.floor(y / MERGE_DISTANCE_MM);
     let near = false;
     for (let di = -1; di <= 1 && !near; di++) {
       for (let dj = -1; dj <= 1 && !near; dj++) {
-        for (const g of cells.get(cellKey(f, i + di, j + dj)) ?? []) {
-          if (Math.hypot(g.atMm![0] - f.atMm[0], g.atMm![1] - f.atMm[1]) < MERGE_DISTANCE_MM) near = true;
+        for (const g of cells.get(cellKey(i + di, j + dj)) ?? []) {
+          if (Math.hypot(g[0] - x, g[1] - y) < MERGE_DISTANCE_MM) near = true;
         }
       }
     }
     if (near) continue;
     kept.add(f);
-    const k = cellKey(f, i, j);
-    cells.set(k, [...(cells.get(k) ?? []), f]);
+    const k = cellKey(i, j);
+    const list = cells.get(k);
+    if (list) list.push(f.atMm);
+    else cells.set(k, [f.atMm]);
   }
   return findings.filter((f) => kept.has(f));
 }

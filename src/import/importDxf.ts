@@ -68,6 +68,7 @@ const MAX_PER_RULE = 50;
 export function importDxf(text: string, options: ImportOptions): ImportResult {
   const limits = options.limits ?? DEFAULT_LIMITS;
   const gapTolMm = options.gapTolMm ?? 0.01;
+  refuseByCount(text, limits);
   const doc = parseDocument(text, limits.maxPairs);
   const findings: Finding[] = [];
   const units = resolveUnits(doc, options.units, findings);
@@ -108,6 +109,31 @@ export function importDxf(text: string, options: ImportOptions): ImportResult {
   findings.push(...farFromOrigin(parts, options.farFromOriginMm ?? 1000));
   findings.push(...unitDoubt(cleaned.segments.map((d) => segmentBBox(d.seg)), units));
   return { parts, findings: cap(attachParts(findings, parts)), units, cutLayers: [...exploded.layersUsed].sort() };
+}
+
+/** Entity types that each give at least one line or arc of cut geometry. */
+const DRAWN = /\n[ \t]*0\r?\n(LINE|ARC|CIRCLE|LWPOLYLINE|POLYLINE|SPLINE|ELLIPSE)\r?\n/g;
+
+/**
+ * Before parsing anything, count the drawn entities of the ENTITIES section in the text (a scan far
+ * cheaper than reading the file's group codes): more CIRCLEs than the contour limit, or more drawn
+ * entities than the line-and-arc limit, is refused at once. Blocks are not expanded here; entities on
+ * layers that are not cut (frozen, annotation) are counted too, which only matters for a drawing with
+ * tens of thousands of them.
+ */
+function refuseByCount(text: string, limits: ImportLimits): void {
+  const start = text.search(/\n[ \t]*2\r?\nENTITIES\r?\n/);
+  if (start < 0) return;
+  const end = text.indexOf('ENDSEC', start);
+  const section = text.slice(start, end < 0 ? text.length : end);
+  let drawn = 0;
+  let circles = 0;
+  for (const m of section.matchAll(DRAWN)) {
+    drawn++;
+    if (m[1] === 'CIRCLE') circles++;
+  }
+  refuseContours(circles, limits, true);
+  if (drawn > limits.maxSegments) throw new DxfReadError(`the drawing has ${drawn} drawn entities: more than ${limits.maxSegments} lines and arcs${limitWords(limits)}`);
 }
 
 function refuseContours(n: number, limits: ImportLimits, atLeast = false): void {

@@ -116,14 +116,12 @@ export function nestParts(items: readonly NestItem[], options: NestOptions): Nes
     const g = prepareGroup(items, members, options, turns);
     const progress = (done: number) => options.onProgress?.(Math.min(total, placedBefore + done), total);
     const layout = fillGroup(g, clock, progress);
+    // Every distinct sheet measured again on the exact geometry (a copied sheet shares its layout).
     let minGap: number | null = null;
-    const checked = new Map<Placed[], number | null>();
-    layout.forEach((sheet, k) => {
-      if (!checked.has(sheet.placed)) checked.set(sheet.placed, verifySheet(sheet.placed.map((p) => ({ part: items[g.items[p.o.item]].part, transform: transformOf(g, p) })), { spacingMm: s, marginMm: m, widthMm: W, heightMm: H }));
-      const gap = checked.get(sheet.placed) ?? null;
+    for (const placed of new Set(layout.map((sheet) => sheet.placed))) {
+      const gap = verifySheet(placed.map((p) => ({ part: items[g.items[p.o.item]].part, transform: transformOf(g, p) })), { spacingMm: s, marginMm: m, widthMm: W, heightMm: H });
       if (gap !== null) minGap = minGap === null ? gap : Math.min(minGap, gap);
-      void k;
-    });
+    }
     const copies = new Map<number, number>();
     let area = 0;
     let occupied = 0;

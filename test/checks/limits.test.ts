@@ -35,8 +35,8 @@ describe('input limits: refused with the limit named, exit 2, nothing written', 
   });
 
   it(`modes: every line and arc needs a mesh node, and one model has at most ${MAX_MESH_NODES}`, () => {
-    expectRefused(runCli(['modes', metre, '--thickness', '2']), /more than 20000 lines and arcs, the limit here: modes meshes at most 20000 nodes in one model/);
-    expectRefused(runCli(['modes', squares, '--thickness', '2']), /more than 20000 lines and arcs/);
+    expectRefused(runCli(['modes', metre, '--thickness', '2']), /at least 99999 closed contours/);
+    expectRefused(runCli(['modes', squares, '--thickness', '2']), /the drawing has 100008 drawn entities: more than 20000 lines and arcs, the limit here: modes meshes at most 20000 nodes in one model/);
   });
 
   it('modes: a design meshed finer than the node limit allows is refused before meshing, with what to change', () => {
