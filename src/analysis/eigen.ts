@@ -164,14 +164,15 @@ const axpy = (y: Float64Array, c: number, x: Float64Array): void => {
  * from being missed. Deterministic: the start block comes from a fixed-seed generator.
  * @throws NotPositiveDefiniteError when K − σM is not positive definite (a mechanism)
  */
-export function lowestEigenpairs(k: SparseSymmetric, m: SparseSymmetric, count: number, options: EigenOptions = {}): EigenResult {
+export function lowestEigenpairs(k: SparseSymmetric, mFull: SparseSymmetric, count: number, options: EigenOptions = {}): EigenResult {
   const n = k.n;
+  const m = mFull.compressed();
   const want = Math.min(count, n - (options.deflate?.length ?? 0));
   if (want <= 0) return { values: [], vectors: [], basisSize: 0, deflated: 0 };
   const sigma = options.shift ?? -((2 * Math.PI * 10) ** 2);
   const p = Math.max(1, Math.min(options.blockSize ?? 3, n));
   const tol = options.tolerance ?? 1e-3;
-  const factor = cholesky(k.plus(m, -sigma));
+  const factor = cholesky(k.plus(mFull, -sigma));
   const lockedQ: Float64Array[] = [];
   const lockedMQ: Float64Array[] = [];
   const q: Float64Array[] = [];

@@ -130,6 +130,9 @@ export function buildFrameModel(asm: Assembly, options: FrameModelOptions = {}):
   }
   const sizeOf = frameMeshSizes(asm);
   const meshes = new Map<string, PlateMesh>();
+  /** First triangle of the first copy of each shared mesh (copies reuse its element matrices). */
+  const firstOfMesh = new Map<PlateMesh, number>();
+  const source: number[] = [];
   const lamIndex = new Map<number, number>();
   const plates: PlateInModel[] = asm.plates.map((pl) => {
     const rings = ringsOf.get(pl.id) ?? [];
@@ -149,6 +152,9 @@ export function buildFrameModel(asm: Assembly, options: FrameModelOptions = {}):
     for (let i = 0; i < mesh.xy.length / 2; i++) b.node(midPlane(pl, mesh.xy[2 * i], mesh.xy[2 * i + 1]));
     const e3 = cross(pl.pose.uAxis, pl.pose.vAxis);
     for (let t = 0; t < mesh.triangles.length; t++) b.triangles.push(firstNode + mesh.triangles[t]);
+    const first = firstOfMesh.get(mesh) ?? firstTriangle;
+    firstOfMesh.set(mesh, first);
+    for (let t = 0; t < mesh.triangles.length / 3; t++) source.push(first + t);
     for (let t = 0; t < mesh.triangles.length / 3; t++) {
       b.frames.push(...pl.pose.uAxis, ...pl.pose.vAxis, ...e3);
       b.triLam.push(lamIndex.get(pl.partIndex)!);
@@ -288,6 +294,7 @@ export function buildFrameModel(asm: Assembly, options: FrameModelOptions = {}):
     fixed: new Uint8Array(6 * nNodes),
     beams: b.beams,
     rigid: b.rigid,
+    triangleSource: Uint32Array.from(source),
   };
   const fm: FrameModel = {
     model,

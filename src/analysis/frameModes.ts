@@ -3,7 +3,8 @@ import { lowestEigenpairs } from './eigen.js';
 import { beamMatrices } from './beamElement.js';
 import { buildFrameModel, type FrameModel, type FrameModelOptions } from './frameModel.js';
 import { assemble, expand, rigidBodyModes } from './model.js';
-import { shellStiffness, toGlobal } from './shellTriangle.js';
+import { BENDING_DOFS, MEMBRANE_DOFS, shellBlocksInto } from './shellTriangle.js';
+import type { PlateMesh } from './mesh.js';
 import { normaliseShape } from './solve.js';
 
 /** What a pilot calls a frame mode, from the four motors' motion and the parts' share of the strain energy. */
@@ -161,12 +162,69 @@ function flightControllerNode(fm: FrameModel, asm: Assembly): number | null {
 
 /**
  * Strain energy ½ uᵀK u per plate copy and for the standoffs and spacers together, as shares of the
- * total, for every mode at once (each element matrix is formed once).
+ * total, for every mode at once. Each distinct triangle's matrices are formed once (copies of a
+ * plate share them) and the mode shapes turned into element axes instead.
  */
 function strainEnergyShares(fm: FrameModel, shapes: readonly Float64Array[]): Array<Record<string, number>> {
   const { model } = fm;
   const per = shapes.map(() => new Map<string, number>());
   const add = (i: number, key: string, e: number) => per[i].set(key, (per[i].get(key) ?? 0) + e);
+  const bend = new Float64Array(81);
+  const mem = new Float64Array(81);
+  const u = new Float64Array(18);
+  const x: [number, number, number] = [0, 0, 0];
+  const y: [number, number, number] = [0, 0, 0];
+  const quad = (k: Float64Array, dofs: readonly number[]): number => {
+    let e = 0;
+    for (let i = 0; i < 9; i++) {
+      const ui = u[6 * Math.floor(i / 3) + dofs[i % 3]];
+      if (ui === 0) continue;
+      let row = 0;
+      for (let j = 0; j < 9; j++) row += k[i * 9 + j] * u[6 * Math.floor(j / 3) + dofs[j % 3]];
+      e += ui * row;
+    }
+    return e;
+  };
+  const blocksOf = new Map<PlateMesh, Float64Array[]>();
+  for (const pm of fm.plates) {
+    const lam = model.laminates[model.triangleLaminate[pm.firstTriangle]];
+    const r = model.frames!.subarray(9 * pm.firstTriangle, 9 * pm.firstTriangle + 9);
+    const tris = pm.mesh.triangles;
+    let blocks = blocksOf.get(pm.mesh);
+    if (!blocks) {
+      blocks = [];
+      for (let t = 0; t < tris.length; t += 3) {
+        for (let a = 0; a < 3; a++) {
+          x[a] = pm.mesh.xy[2 * tris[t + a]];
+          y[a] = pm.mesh.xy[2 * tris[t + a] + 1];
+        }
+        bend.fill(0);
+        mem.fill(0);
+        shellBlocksInto(x, y, lam.a, lam.d, lam.shearStiffnessNPerMm, bend, mem);
+        const both = new Float64Array(162);
+        both.set(bend, 0);
+        both.set(mem, 81);
+        blocks.push(both);
+      }
+      blocksOf.set(pm.mesh, blocks);
+    }
+    shapes.forEach((s, i) => {
+      let e = 0;
+      for (let t = 0; t < tris.length; t += 3) {
+        // The corners' six values in element axes: u_local = r · u_global for translations and rotations.
+        for (let a = 0; a < 3; a++) {
+          const g = 6 * (pm.firstNode + tris[t + a]);
+          for (let h = 0; h < 2; h++) {
+            const o = g + 3 * h;
+            for (let c = 0; c < 3; c++) u[6 * a + 3 * h + c] = r[3 * c] * s[o] + r[3 * c + 1] * s[o + 1] + r[3 * c + 2] * s[o + 2];
+          }
+        }
+        const kb = blocks![t / 3];
+        e += quad(kb.subarray(0, 81), BENDING_DOFS) + quad(kb.subarray(81, 162), MEMBRANE_DOFS);
+      }
+      add(i, pm.plate.id, e / 2);
+    });
+  }
   const energy = (k: Float64Array, dofs: number[], s: Float64Array) => {
     const n = dofs.length;
     let e = 0;
@@ -179,19 +237,6 @@ function strainEnergyShares(fm: FrameModel, shapes: readonly Float64Array[]): Ar
     }
     return e / 2;
   };
-  for (const pm of fm.plates) {
-    const lam = model.laminates[model.triangleLaminate[pm.firstTriangle]];
-    const r = Array.from(model.frames!.subarray(9 * pm.firstTriangle, 9 * pm.firstTriangle + 9));
-    const tris = pm.mesh.triangles;
-    for (let t = 0; t < tris.length; t += 3) {
-      const nodes = [tris[t], tris[t + 1], tris[t + 2]].map((v) => pm.firstNode + v);
-      const x = nodes.map((v) => r[0] * model.xyz[3 * v] + r[1] * model.xyz[3 * v + 1] + r[2] * model.xyz[3 * v + 2]) as [number, number, number];
-      const y = nodes.map((v) => r[3] * model.xyz[3 * v] + r[4] * model.xyz[3 * v + 1] + r[5] * model.xyz[3 * v + 2]) as [number, number, number];
-      const k = toGlobal(shellStiffness(x, y, lam.a, lam.d, lam.shearStiffnessNPerMm), r);
-      const dofs = nodes.flatMap((v) => [0, 1, 2, 3, 4, 5].map((d) => 6 * v + d));
-      shapes.forEach((s, i) => add(i, pm.plate.id, energy(k, dofs, s)));
-    }
-  }
   for (const c of fm.connectors) {
     for (let e = c.firstBeam; e < c.firstBeam + c.beams; e++) {
       const bm = model.beams![e];

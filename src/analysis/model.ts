@@ -1,7 +1,7 @@
 import { beamMatrices, type BeamSection } from './beamElement.js';
 import type { Laminate } from './laminate.js';
 import { blockGraph, fillReducingOrder, SparseSymmetric } from './sparse.js';
-import { BENDING_DOFS, DOF_PER_NODE, MEMBRANE_DOFS, shellLumpedMass, shellStiffness, toGlobal } from './shellTriangle.js';
+import { BENDING_DOFS, DOF_PER_NODE, MEMBRANE_DOFS, scatterBlock, shellBlocksInto, toGlobalInto, twiceArea } from './shellTriangle.js';
 
 /** A concentrated mass at a node: on its translations, and optionally a rotary inertia about the node. */
 export type PointMass = Readonly<{
@@ -20,6 +20,18 @@ export type Beam = Readonly<{ nodes: readonly [number, number]; section: BeamSec
  * stiffness and no ill-conditioning. Groups that share a node act as one body.
  */
 export type RigidGroup = Readonly<{ master: number; slaves: readonly number[] }>;
+
+/**
+ * A mass carried by its mounts without stiffening them (a distributing coupling, the RBE3 element of
+ * general-purpose finite-element programs): the node's six DOFs are the least-squares rigid motion of
+ * the translations of the `from` nodes, equal weights. The node may carry point masses only; it is
+ * eliminated, its mass carried to the `from` nodes as Tᵀ M T. `from` must hold three or more points
+ * not on one line.
+ */
+export type MassCoupling = Readonly<{ node: number; from: readonly number[] }>;
+
+/** A translational spring between two nodes, one stiffness per global axis (a soft mount's grommet). N/mm. */
+export type Spring = Readonly<{ nodes: readonly [number, number]; stiffnessNPerMm: readonly [number, number, number] }>;
 
 /**
  * A finite-element model in 3D, in consistent units (mm, N, tonne, s): flat shell triangles,
@@ -42,6 +54,13 @@ export type FeModel = Readonly<{
   fixed: Uint8Array;
   beams?: readonly Beam[];
   rigid?: readonly RigidGroup[];
+  couplings?: readonly MassCoupling[];
+  springs?: readonly Spring[];
+  /**
+   * Optional, per triangle: an earlier triangle with the same corners in its own axes and the same
+   * laminate (copies of one plate mesh), whose element matrices it reuses.
+   */
+  triangleSource?: Uint32Array;
 }>;
 
 export const modelNodeCount = (m: FeModel): number => m.xyz.length / 3;
@@ -60,6 +79,8 @@ export type Assembly = Readonly<{
   /** Master node of each node that is part of a rigid body (−1 otherwise). */
   masterOf: Int32Array;
   xyz: Float64Array;
+  /** Each mass coupling with its 6 × 3n map from the translations of its `from` nodes. */
+  couplings: readonly (MassCoupling & { t: Float64Array })[];
 }>;
 
 /**
@@ -121,12 +142,21 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
   const tris = model.triangles;
   const beams = model.beams ?? [];
   // Blocks: independent nodes with at least one free active DOF.
+  const couplings = (model.couplings ?? []).map((c) => ({ ...c, t: couplingMap(model.xyz, c.node, c.from) }));
+  const coupled = new Uint8Array(nNodes);
+  for (const c of couplings) {
+    if (masterOf[c.node] >= 0 || (model.rigid ?? []).some((g) => g.master === c.node)) throw new RangeError(`node ${c.node} carries a mass coupling and cannot also be in a rigid body`);
+    coupled[c.node] = 1;
+  }
+  const springs = model.springs ?? [];
   const width = new Int32Array(nNodes);
-  for (let v = 0; v < nNodes; v++) if (masterOf[v] < 0) for (const d of dofs) if (!model.fixed[6 * v + d]) width[v]++;
+  for (let v = 0; v < nNodes; v++) if (masterOf[v] < 0 && !coupled[v]) for (const d of dofs) if (!model.fixed[6 * v + d]) width[v]++;
   const used = new Uint8Array(nNodes);
   for (const v of tris) used[rep(v)] = 1;
   for (const b of beams) for (const v of b.nodes) used[rep(v)] = 1;
-  for (const pm of model.pointMasses) used[rep(pm.node)] = 1;
+  for (const s of springs) for (const v of s.nodes) used[rep(v)] = 1;
+  for (const pm of model.pointMasses) if (!coupled[pm.node]) used[rep(pm.node)] = 1;
+  for (const c of couplings) for (const v of c.from) used[rep(v)] = 1;
   for (const g of model.rigid ?? []) used[rep(g.master)] = 1;
   const blockOfNode = new Int32Array(nNodes).fill(-1);
   const blockNode: number[] = [];
@@ -148,6 +178,8 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
   };
   for (let t = 0; t < tris.length; t += 3) cliques.push(cliqueOf(tris.subarray(t, t + 3)));
   for (const b of beams) cliques.push(cliqueOf(b.nodes));
+  for (const sp of springs) cliques.push(cliqueOf(sp.nodes));
+  for (const c of couplings) cliques.push(cliqueOf(c.from));
   for (let b = 0; b < nb; b++) cliques.push([b]);
   const graph = blockGraph(nb, cliques);
   const order = fillReducingOrder(graph, Int32Array.from(blockNode, (v) => width[v]));
@@ -213,18 +245,30 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
     for (let d = 0; d < 6; d++) if (eq[6 * v + d] >= 0) local[6 * v + d] = eq[6 * v + d] - s;
   }
   const scatter = new Scatter(model.xyz, masterOf, blockOfNode, posOf, blockStart, local, colPtr, blockOffset);
-  // Shells.
+  // Shells: element matrices in element axes once per distinct triangle (copies of a plate share
+  // them), turned to global axes only where the element's axes are not the global ones.
   const parts = model.frames
     ? { bending: true, membrane: true }
     : { bending: dofs.some((d) => BENDING_DOFS.includes(d as 2 | 3 | 4)), membrane: dofs.some((d) => MEMBRANE_DOFS.includes(d as 0 | 1 | 5)) };
   const xyz = model.xyz;
   const nodes3 = [0, 0, 0];
-  for (let t = 0; t < tris.length; t += 3) {
-    const tri = t / 3;
+  const x: [number, number, number] = [0, 0, 0];
+  const y: [number, number, number] = [0, 0, 0];
+  const source = model.triangleSource;
+  const nTri = tris.length / 3;
+  const cacheSlot = source ? new Int32Array(nTri).fill(-1) : null;
+  const cache: Float64Array[] = [];
+  const ke = new Float64Array(324);
+  const keG = new Float64Array(324);
+  const tmp = new Float64Array(324);
+  const bend = new Float64Array(81);
+  const mem = new Float64Array(81);
+  const me = new Float64Array(6);
+  for (let tri = 0; tri < nTri; tri++) {
+    const t = 3 * tri;
     const lam = model.laminates[model.triangleLaminate[tri]];
-    const r = model.frames ? Array.from(model.frames.subarray(9 * tri, 9 * tri + 9)) : null;
-    const x: [number, number, number] = [0, 0, 0];
-    const y: [number, number, number] = [0, 0, 0];
+    const f = model.frames;
+    const r = f ? f.subarray(9 * tri, 9 * tri + 9) : null;
     for (let a = 0; a < 3; a++) {
       const n = tris[t + a];
       nodes3[a] = n;
@@ -234,13 +278,36 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
       x[a] = r ? r[0] * p0 + r[1] * p1 + r[2] * p2 : p0;
       y[a] = r ? r[3] * p0 + r[4] * p1 + r[5] * p2 : p1;
     }
-    let ke = shellStiffness(x, y, lam.a, lam.d, lam.shearStiffnessNPerMm, parts);
-    if (r) ke = toGlobal(ke, r);
-    scatter.element(k.val, nodes3, ke);
+    const src = source ? source[tri] : tri;
+    let blocks: Float64Array | null = cacheSlot && src !== tri && cacheSlot[src] >= 0 ? cache[cacheSlot[src]] : null;
+    if (!blocks) {
+      bend.fill(0);
+      mem.fill(0);
+      shellBlocksInto(x, y, lam.a, lam.d, lam.shearStiffnessNPerMm, parts.bending ? bend : null, parts.membrane ? mem : null);
+      if (cacheSlot && src === tri) {
+        blocks = new Float64Array(162);
+        blocks.set(bend, 0);
+        blocks.set(mem, 81);
+        cacheSlot[tri] = cache.length;
+        cache.push(blocks);
+      }
+    }
+    ke.fill(0);
+    if (parts.bending) scatterBlock(ke, blocks ? blocks.subarray(0, 81) : bend, BENDING_DOFS);
+    if (parts.membrane) scatterBlock(ke, blocks ? blocks.subarray(81, 162) : mem, MEMBRANE_DOFS);
+    const turned = r !== null && !isIdentity(r);
+    if (turned) toGlobalInto(ke, r, tmp, keG);
+    scatter.element(k.val, nodes3, turned ? keG : ke);
     // Lumped mass in element axes; for a plate placed in 3D its rotary part is carried to global
     // axes by the diagonal of RᵀJR (exact when the element axes line up with the global ones).
-    const lm = shellLumpedMass(x, y, lam.arealMassTPerMm2, lam.rotaryInertiaT);
-    const me = r ? rotateRotaryMass(lm, r) : lm;
+    const area = twiceArea(x, y) / 2;
+    const mt = (lam.arealMassTPerMm2 * area) / 3;
+    const j = (lam.rotaryInertiaT * area) / 3;
+    me[0] = me[1] = me[2] = mt;
+    me[3] = j;
+    me[4] = j;
+    me[5] = (mt * area) / 12;
+    if (turned) rotateRotaryMassInPlace(me, r);
     for (let a = 0; a < 3; a++) scatter.nodeDiagonal(m.val, nodes3[a], me);
   }
   for (const b of beams) {
@@ -250,17 +317,23 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
     scatter.element(k.val, b.nodes, kb);
     scatter.element(m.val, b.nodes, mb);
   }
-  for (const pm of model.pointMasses) {
-    const me = new Float64Array(36);
-    me[0] = me[7] = me[14] = pm.massT;
-    if (pm.inertiaTMm2) {
-      const [ixx, iyy, izz, ixy, iyz, izx] = pm.inertiaTMm2;
-      const j = [ixx, ixy, izx, ixy, iyy, iyz, izx, iyz, izz];
-      for (let a = 0; a < 3; a++) for (let c = 0; c < 3; c++) me[(3 + a) * 6 + 3 + c] = j[3 * a + c];
+  for (const sp of springs) {
+    const ks = new Float64Array(144);
+    for (let d = 0; d < 3; d++) {
+      const kd = sp.stiffnessNPerMm[d];
+      ks[d * 12 + d] = ks[(6 + d) * 12 + 6 + d] = kd;
+      ks[d * 12 + 6 + d] = ks[(6 + d) * 12 + d] = -kd;
     }
-    scatter.element(m.val, [pm.node], me);
+    scatter.element(k.val, sp.nodes, ks);
   }
-  return { k, m, eq, dofs, masterOf, xyz: model.xyz };
+  const couplingOf = new Map(couplings.map((c) => [c.node, c]));
+  for (const pm of model.pointMasses) {
+    const m6 = pointMassMatrix(pm);
+    const c = couplingOf.get(pm.node);
+    if (c) scatter.element(m.val, c.from, carryThroughCoupling(m6, c.t, c.from.length));
+    else scatter.element(m.val, [pm.node], m6);
+  }
+  return { k, m, eq, dofs, masterOf, xyz: model.xyz, couplings };
 }
 
 /** Adds element matrices (node-major, six DOFs per node, global axes) into a block-ordered pattern. */
@@ -277,19 +350,27 @@ class Scatter {
   ) {}
 
   /** ke is (6·nodes)² row-major; slave nodes are carried onto their masters (Tᵀ ke T). */
+  private copy = new Float64Array(324);
+  private target = new Int32Array(3);
+
   element(val: Float64Array, nodes: ArrayLike<number>, ke0: Float64Array): void {
     const nn = nodes.length;
     const size = 6 * nn;
     let ke = ke0;
-    const target: number[] = [];
+    if (this.target.length < nn) this.target = new Int32Array(nn);
+    const target = this.target;
     for (let a = 0; a < nn; a++) {
       const v = nodes[a];
       const ms = this.masterOf[v];
       if (ms >= 0) {
-        if (ke === ke0) ke = Float64Array.from(ke0);
+        if (ke === ke0) {
+          if (this.copy.length < ke0.length) this.copy = new Float64Array(ke0.length);
+          ke = this.copy.subarray(0, ke0.length);
+          ke.set(ke0);
+        }
         carryToMaster(ke, size, a, this.offset(v, ms));
-        target.push(ms);
-      } else target.push(v);
+        target[a] = ms;
+      } else target[a] = v;
     }
     for (let a = 0; a < nn; a++) {
       const ra = target[a];
@@ -317,12 +398,17 @@ class Scatter {
     }
   }
 
+  private diag = new Float64Array(36);
+  private one = [0];
+
   /** A diagonal 6×6 node matrix (lumped mass). */
   nodeDiagonal(val: Float64Array, node: number, d: Float64Array): void {
     if (this.masterOf[node] >= 0) {
-      const me = new Float64Array(36);
+      const me = this.diag;
+      me.fill(0);
       for (let i = 0; i < 6; i++) me[7 * i] = d[i];
-      this.element(val, [node], me);
+      this.one[0] = node;
+      this.element(val, this.one, me);
       return;
     }
     const b = this.blockOfNode[node];
@@ -359,12 +445,99 @@ function carryToMaster(k: Float64Array, size: number, a: number, r: readonly num
   }
 }
 
-function rotateRotaryMass(local: Float64Array, r: readonly number[]): Float64Array {
-  const out = Float64Array.from(local);
-  for (let d = 0; d < 3; d++) {
-    let v = 0;
-    for (let a = 0; a < 3; a++) v += r[a * 3 + d] * r[a * 3 + d] * local[3 + a];
-    out[3 + d] = v;
+function rotateRotaryMassInPlace(m: Float64Array, r: ArrayLike<number>): void {
+  const j0 = m[3];
+  const j1 = m[4];
+  const j2 = m[5];
+  for (let d = 0; d < 3; d++) m[3 + d] = r[d] * r[d] * j0 + r[3 + d] * r[3 + d] * j1 + r[6 + d] * r[6 + d] * j2;
+}
+
+const isIdentity = (r: ArrayLike<number>): boolean => r[0] === 1 && r[4] === 1 && r[8] === 1 && r[1] === 0 && r[2] === 0 && r[3] === 0 && r[5] === 0 && r[6] === 0 && r[7] === 0;
+
+/** The 6×6 mass matrix of a point mass with its optional rotary inertia. */
+function pointMassMatrix(pm: PointMass): Float64Array {
+  const me = new Float64Array(36);
+  me[0] = me[7] = me[14] = pm.massT;
+  if (pm.inertiaTMm2) {
+    const [ixx, iyy, izz, ixy, iyz, izx] = pm.inertiaTMm2;
+    const j = [ixx, ixy, izx, ixy, iyy, iyz, izx, iyz, izz];
+    for (let a = 0; a < 3; a++) for (let c = 0; c < 3; c++) me[(3 + a) * 6 + 3 + c] = j[3 * a + c];
+  }
+  return me;
+}
+
+/**
+ * The 6 × 3n map of a mass coupling: the reference node's [u, θ] from the translations of its n
+ * points by a least-squares rigid fit. With c the points' centroid, d_i = x_i − c and
+ * J = Σ (|d_i|² I − d_i d_iᵀ): u_c = mean u_i, θ = J⁻¹ Σ d_i × u_i, u_ref = u_c + θ × (x_ref − c).
+ * @throws RangeError when the points are fewer than three or lie on one line (θ undetermined)
+ */
+export function couplingMap(xyz: Float64Array, node: number, from: readonly number[]): Float64Array {
+  const n = from.length;
+  const c = [0, 0, 0];
+  for (const v of from) for (let e = 0; e < 3; e++) c[e] += xyz[3 * v + e] / n;
+  const jm = new Float64Array(9);
+  for (const v of from) {
+    const d = [xyz[3 * v] - c[0], xyz[3 * v + 1] - c[1], xyz[3 * v + 2] - c[2]];
+    const dd = d[0] * d[0] + d[1] * d[1] + d[2] * d[2];
+    for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) jm[3 * a + b] += (a === b ? dd : 0) - d[a] * d[b];
+  }
+  const tr = jm[0] + jm[4] + jm[8];
+  const det = jm[0] * (jm[4] * jm[8] - jm[5] * jm[7]) - jm[1] * (jm[3] * jm[8] - jm[5] * jm[6]) + jm[2] * (jm[3] * jm[7] - jm[4] * jm[6]);
+  if (n < 3 || !(det > 1e-9 * (tr / 3) ** 3)) throw new RangeError(`mass coupling of node ${node}: its ${n} points lie on one line (at least three not in line are needed)`);
+  const ji = invertSymmetric3(jm, det);
+  const t = new Float64Array(6 * 3 * n);
+  const rr = [xyz[3 * node] - c[0], xyz[3 * node + 1] - c[1], xyz[3 * node + 2] - c[2]];
+  from.forEach((v, i) => {
+    const d = [xyz[3 * v] - c[0], xyz[3 * v + 1] - c[1], xyz[3 * v + 2] - c[2]];
+    // [d×] maps u_i to d × u_i; θ rows = J⁻¹ [d×].
+    const dx = [0, -d[2], d[1], d[2], 0, -d[0], -d[1], d[0], 0];
+    for (let a = 0; a < 3; a++) {
+      for (let e = 0; e < 3; e++) {
+        let th = 0;
+        for (let b = 0; b < 3; b++) th += ji[3 * a + b] * dx[3 * b + e];
+        t[(3 + a) * 3 * n + 3 * i + e] = th;
+      }
+    }
+    // u_ref = u_c + θ × r = u_c − [r×] θ.
+    const rx = [0, -rr[2], rr[1], rr[2], 0, -rr[0], -rr[1], rr[0], 0];
+    for (let a = 0; a < 3; a++) {
+      for (let e = 0; e < 3; e++) {
+        let u = a === e ? 1 / n : 0;
+        for (let b = 0; b < 3; b++) u -= rx[3 * a + b] * t[(3 + b) * 3 * n + 3 * i + e];
+        t[a * 3 * n + 3 * i + e] = u;
+      }
+    }
+  });
+  return t;
+}
+
+function invertSymmetric3(m: Float64Array, det: number): Float64Array {
+  const [a, b, c, , e, f, , , i] = m;
+  const d = m[3];
+  const g = m[6];
+  const h = m[7];
+  return Float64Array.of((e * i - f * h) / det, -(b * i - c * h) / det, (b * f - c * e) / det, -(d * i - f * g) / det, (a * i - c * g) / det, -(a * f - c * d) / det, (d * h - e * g) / det, -(a * h - b * g) / det, (a * e - b * d) / det);
+}
+
+/** Tᵀ M T for a coupling (M 6×6 at the reference node) as a 6n × 6n element over its points' DOFs (translations only). */
+function carryThroughCoupling(m6: Float64Array, t: Float64Array, n: number): Float64Array {
+  const cols = 3 * n;
+  const mt = new Float64Array(6 * cols);
+  for (let a = 0; a < 6; a++) for (let j = 0; j < cols; j++) {
+    let s = 0;
+    for (let b = 0; b < 6; b++) s += m6[6 * a + b] * t[b * cols + j];
+    mt[a * cols + j] = s;
+  }
+  const size = 6 * n;
+  const out = new Float64Array(size * size);
+  for (let i = 0; i < cols; i++) {
+    const gi = 6 * Math.floor(i / 3) + (i % 3);
+    for (let j = 0; j < cols; j++) {
+      let s = 0;
+      for (let a = 0; a < 6; a++) s += t[a * cols + i] * mt[a * cols + j];
+      out[gi * size + 6 * Math.floor(j / 3) + (j % 3)] = s;
+    }
   }
   return out;
 }
@@ -388,6 +561,16 @@ export function expand(a: Assembly, x: Float64Array): Float64Array {
   for (let i = 0; i < a.eq.length; i++) if (a.eq[i] >= 0) out[i] = x[a.eq[i]];
   const n = a.masterOf.length;
   for (let v = 0; v < n; v++) if (a.masterOf[v] >= 0) slaveValues(a, v, (i) => (a.eq[i] >= 0 ? x[a.eq[i]] : 0), out);
+  for (const c of a.couplings) {
+    const cols = 3 * c.from.length;
+    for (let d = 0; d < 6; d++) {
+      let s = 0;
+      c.from.forEach((v, i) => {
+        for (let e = 0; e < 3; e++) s += c.t[d * cols + 3 * i + e] * out[6 * v + e];
+      });
+      out[6 * c.node + d] = s;
+    }
+  }
   return out;
 }
 
@@ -412,6 +595,7 @@ export function restrict(a: Assembly, f: Float64Array): Float64Array {
     add(6 * m + 4, f[6 * v + 4] + r[2] * fx - r[0] * fz);
     add(6 * m + 5, f[6 * v + 5] + r[0] * fy - r[1] * fx);
   }
+  if (a.couplings.some((c) => f.subarray(6 * c.node, 6 * c.node + 6).some((x) => x !== 0))) throw new RangeError('a load on a mass-coupled node is not supported; load the points it couples');
   return out;
 }
 

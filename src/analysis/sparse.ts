@@ -99,6 +99,35 @@ export class SparseSymmetric {
     return new SparseSymmetric(this.colPtr, this.rowIdx, this.blockStart);
   }
 
+  /**
+   * The same matrix without its stored zeros, for fast products (a lumped mass matrix on a stiffness
+   * pattern is mostly zeros). Its pattern differs from this one: use it for `multiply` only.
+   */
+  compressed(): SparseSymmetric {
+    const { colPtr, rowIdx, val, n } = this;
+    const ptr = new Int32Array(n + 1);
+    let count = 0;
+    for (let j = 0; j < n; j++) {
+      // Keep the diagonal (first entry) even when zero: `multiply` reads it first.
+      count++;
+      for (let p = colPtr[j] + 1; p < colPtr[j + 1]; p++) if (val[p] !== 0) count++;
+      ptr[j + 1] = count;
+    }
+    const rows = new Int32Array(count);
+    const vals = new Float64Array(count);
+    let q = 0;
+    for (let j = 0; j < n; j++) {
+      rows[q] = j;
+      vals[q++] = val[colPtr[j]];
+      for (let p = colPtr[j] + 1; p < colPtr[j + 1]; p++) {
+        if (val[p] === 0) continue;
+        rows[q] = rowIdx[p];
+        vals[q++] = val[p];
+      }
+    }
+    return new SparseSymmetric(ptr, rows, this.blockStart, vals);
+  }
+
   /** The diagonal. */
   diagonal(): Float64Array {
     const d = new Float64Array(this.n);

@@ -106,6 +106,13 @@ class Deck:
             rot = self.node(g["p"])
             self.lines += [f"*RIGID BODY, NSET={self.nset(sorted(g['nodes']))}, REF NODE={ref}, ROT NODE={rot}"]
 
+    def equation(self, terms):
+        """A linear constraint sum c * u(node, dof) = 0 (*EQUATION); the first term's DOF is the dependent one."""
+        self.lines += ["*EQUATION", str(len(terms))]
+        flat = [f"{n}, {d}, {c:.12g}" for n, d, c in terms]
+        for i in range(0, len(flat), 4):
+            self.lines.append(", ".join(flat[i:i + 4]) + ("," if i + 4 < len(flat) else ""))
+
     def point_masses(self, nodes_masses):
         for n, m in nodes_masses:
             (eid,) = self.elem_ids(1)
@@ -123,6 +130,20 @@ class Deck:
                 p = list(cg)
                 p[axis] += sign * arms[axis]
                 pts.append(self.node(p))
+        self.point_masses([(n, mass_t / 6) for n in pts])
+        self.rigid(list(tied_nodes) + pts, cg)
+
+    def rigid_mass_tensor(self, tied_nodes, mass_t, cg, inertia):
+        """Like rigid_mass with a full inertia tensor (3x3, frame axes, t mm^2, about cg): six point
+        masses on its principal axes."""
+        import numpy as np
+        values, vectors = np.linalg.eigh(np.asarray(inertia, dtype=float))
+        half = [(values[1] + values[2] - values[0]) / 2, (values[2] + values[0] - values[1]) / 2, (values[0] + values[1] - values[2]) / 2]
+        pts = []
+        for axis in range(3):
+            arm = math.sqrt(max(3 * half[axis] / mass_t, 0.0))
+            for sign in (1, -1):
+                pts.append(self.node([cg[i] + sign * arm * vectors[i, axis] for i in range(3)]))
         self.point_masses([(n, mass_t / 6) for n in pts])
         self.rigid(list(tied_nodes) + pts, cg)
 

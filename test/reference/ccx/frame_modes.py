@@ -45,6 +45,8 @@ BUTTON_DK = {"M2": 3.8, "M2.5": 4.5, "M3": 5.7, "M4": 7.6, "M5": 9.5}
 ALLOYS = {"aluminium-6061": (68900.0, 2.70), "aluminium-7075": (71700.0, 2.81)}
 CAMERA_WIDTH = {"nano": 14, "micro": 19, "mini": 21.5}
 COAXIAL = 0.05
+# Strapped or stuck components hold the plate nodes this close to their mount points (the idealisation's figure). mm.
+MOUNT_RADIUS_MM = 3
 
 
 def bulge_segment(p, q, b):
@@ -192,8 +194,12 @@ def main():
         part = dxf("camera-side")
         plates.append(Placed("camera-side left", part, tc, mat_of("camera"), weave_of("camera"), None, vertical=True, y_mid=w / 2 + tc / 2))
         plates.append(Placed("camera-side right", part, tc, mat_of("camera"), weave_of("camera"), None, vertical=True, y_mid=-w / 2 - tc / 2))
-    if d.get("components"):
-        raise SystemExit("reference does not model components")
+    # Components (stack, boards, battery, camera) as placed by `framewright build` (assembly.json: mass,
+    # boxes, what carries them and where); how they are tied is decided here.
+    components = []
+    if d.get("components") and not body_and_arms:
+        with open(os.path.join(spec["dxfDir"], "assembly.json")) as f:
+            components = json.load(f)["components"]
 
     standoff_xy = [tuple(p) for p in so["positionsMm"]]
 
@@ -319,7 +325,7 @@ def main():
                 ends = deck.rod(work, (x, plates[right].y_mid, z), (x, plates[left].y_mid, z), radius, young, 0.33, rho * 1e-9, rod_size)
                 for k, end in zip((right, left), ends):
                     deck.rigid(footprint(k, x, z, dk / 2) + end, (x, plates[k].y_mid, z))
-        # Side plate edges resting on the bottom and top plates follow the nearest node of that plate.
+        # Side plate edges resting on the bottom and top plates follow the plate under them.
         top_k = next(k for k, pl in enumerate(plates) if pl.name == "top-plate")
         for k in (left, right):
             pl = plates[k]
@@ -330,9 +336,33 @@ def main():
                 for hk, face in ((0, tb), (top_k, tb + gap)):
                     if abs(v - face) > pl.t / 2:
                         continue
-                    p = deck_xyz(deck, n)
-                    best = min(nodes_of[hk], key=lambda m: math.dist(deck_xyz(deck, m), p))
-                    deck.rigid([n, best], deck_xyz(deck, best))
+                    rest_on(deck, n, pending_shells[hk][0])
+    by_name = {pl.name: k for k, pl in enumerate(plates)}
+    stack_ties = {}
+    for c in components:
+        on = [by_name[n] for n in c["mountedOn"] if n in by_name]
+        stack = next((n for n in c["mountedOn"] if n.startswith("stack mount")), None)
+        tied = []
+        for p in c["mountPointsMm"]:
+            hit = []
+            for k in on if c["kind"] != "stack" else [by_name["bottom-plate"]]:
+                pl = plates[k]
+                q = (p[0], p[2]) if pl.vertical else (p[0], p[1])
+                for (fx, fy), dd, (u, v) in pl.holes_frame():
+                    if dd < 6 and math.hypot(fx - q[0], fy - q[1]) < 0.5:
+                        hit += footprint(k, u, v, head_dk(pl, (u, v), screw_of(dd)) / 2)
+            if not hit and stack in stack_ties:
+                hit = stack_ties[stack]
+            if not hit:
+                hit = [n for k in on for n in near_plan(plates[k], nodes_of[k], p, MOUNT_RADIUS_MM)]
+                rigid_nodes.update(hit)
+            if not hit:
+                hit = [min((n for k in on for n in nodes_of[k]), key=lambda n: math.dist(deck_xyz(deck, n), p))]
+            tied += hit
+        if c["kind"] == "stack" and stack:
+            stack_ties.setdefault(stack, tied)
+        mass_t = c["massG"] * 1e-6
+        deck.rigid_mass_tensor(tied, mass_t, c["cgMm"], boxes_inertia(c["boxes"], mass_t, c["cgMm"]))
     for elems, mat, t, a1, a2 in pending_shells:
         deck.shells_with_patches(elems, mat, t, a1, a2, rigid_nodes)
     with tempfile.TemporaryDirectory(prefix="fw-ccx-frame-") as tmp:
@@ -341,6 +371,57 @@ def main():
         deck.write(os.path.join(tmp, "job.inp"), spec["modes"], lowest_hz=1.0)
         freqs = run_frequencies(tmp)
     json.dump({"frequenciesHz": freqs, "nodes": len(deck.nodes)}, sys.stdout)
+
+
+def rest_on(deck, n, elems):
+    """Node n (on a vertical plate's edge) follows the point of a horizontal plate below or above it as
+    if rigidly attached: u_n = u_P + theta x r, with u_P and the tilt theta from the linear field over the
+    corners of the plate's element under n, and r the vertical offset from the plate's mid-plane. A linear
+    constraint that rigid motion satisfies exactly (a translation-only tie would resist rigid rotation; a
+    two-node CalculiX rigid body leaves its rotation node free about the line through the nodes)."""
+    x, y, z = deck_xyz(deck, n)
+    best = None
+    for e in elems:
+        a, b, c = (deck_xyz(deck, m) for m in e[:3])
+        det = (b[0] - a[0]) * (c[1] - a[1]) - (c[0] - a[0]) * (b[1] - a[1])
+        l1 = ((b[0] - x) * (c[1] - y) - (c[0] - x) * (b[1] - y)) / det
+        l2 = ((c[0] - x) * (a[1] - y) - (a[0] - x) * (c[1] - y)) / det
+        lam = (l1, l2, 1 - l1 - l2)
+        outside = -min(lam)
+        if best is None or outside < best[0]:
+            bx = [(b[1] - c[1]) / det, (c[1] - a[1]) / det, (a[1] - b[1]) / det]
+            by = [(c[0] - b[0]) / det, (a[0] - c[0]) / det, (b[0] - a[0]) / det]
+            best = (outside, e[:3], lam, bx, by, z - a[2])
+    _, corners, lam, bx, by, rz = best
+    # u_n = sum lam u_k - rz sum bx_k w_k ; v_n = sum lam v_k - rz sum by_k w_k ; w_n = sum lam w_k
+    rows = {1: [(m, 1, lam[k]) for k, m in enumerate(corners)] + [(m, 3, -rz * bx[k]) for k, m in enumerate(corners)],
+            2: [(m, 2, lam[k]) for k, m in enumerate(corners)] + [(m, 3, -rz * by[k]) for k, m in enumerate(corners)],
+            3: [(m, 3, lam[k]) for k, m in enumerate(corners)]}
+    for dof, terms in rows.items():
+        deck.equation([(n, dof, 1.0)] + [(m, d, -c) for m, d, c in terms if abs(c) > 1e-12])
+
+
+def near_plan(pl, uvs, p, r):
+    """Nodes of a plate within r of point p, measured in the plate's plane."""
+    if pl.vertical:
+        q = (p[0], p[2])
+        return [n for n, (u, v) in uvs.items() if math.hypot(u - q[0], v - q[1]) <= r + 1e-6]
+    return [n for n, (u, v) in uvs.items() if math.hypot(*(a - b for a, b in zip(pl.to_frame(u, v), p[:2]))) <= r + 1e-6]
+
+
+def boxes_inertia(boxes, mass_t, cg):
+    """Inertia tensor (t mm^2, about cg, frame axes) of uniform boxes sharing the mass by volume."""
+    import numpy as np
+    vols = [b["sizeMm"][0] * b["sizeMm"][1] * b["sizeMm"][2] for b in boxes]
+    total = np.zeros((3, 3))
+    for b, vol in zip(boxes, vols):
+        m = mass_t * vol / sum(vols)
+        a, w, h = b["sizeMm"]
+        local = np.diag([m * (w * w + h * h) / 12, m * (a * a + h * h) / 12, m * (a * a + w * w) / 12])
+        rot = np.array(b["axes"]).T  # columns: the box's length, width and height directions
+        dvec = np.array(b["centreMm"]) - np.array(cg)
+        total += rot @ local @ rot.T + m * (dvec @ dvec * np.eye(3) - np.outer(dvec, dvec))
+    return total
 
 
 def deck_xyz(deck, n):
