@@ -8,7 +8,10 @@ import type { PlateMesh } from './mesh.js';
 import { normaliseShape } from './solve.js';
 
 /** What a pilot calls a frame mode, from the four motors' motion and the parts' share of the strain energy. */
-export type FrameModeKind = 'bounce' | 'body twist' | 'pitch bending' | 'roll bending' | 'in-plane / yaw' | 'single-arm' | 'top-plate' | 'mixed';
+export type FrameModeKind = 'bounce' | 'body twist' | 'pitch bending' | 'roll bending' | 'in-plane / yaw' | 'single-arm' | 'top-plate' | 'soft-mounted board' | 'mixed';
+
+/** The key of `sharesByPart` for the springs of soft-mounted boards. */
+export const SOFT_MOUNTS = 'soft mounts';
 
 const KIND_WORDS: Record<FrameModeKind, string> = {
   bounce: 'all motors in phase',
@@ -18,6 +21,7 @@ const KIND_WORDS: Record<FrameModeKind, string> = {
   'in-plane / yaw': 'motors move sideways in plan',
   'single-arm': 'one arm moves, the others nearly still',
   'top-plate': 'the top plate moves, the motors nearly still',
+  'soft-mounted board': 'a board rocks or bounces on its soft mounts',
   mixed: 'no single pattern',
 };
 
@@ -37,7 +41,7 @@ export type FrameMode = Readonly<{
   name: string;
   /** Vertical motion of each motor's base (assembly motor order), as a fraction of the mode's largest translation, signed. */
   motorsZ: readonly number[];
-  /** Share of the mode's strain energy per plate copy, and all standoffs and camera spacers together (sums to 1). */
+  /** Share of the mode's strain energy per plate copy, all standoffs, all camera spacers and all soft mounts together (sums to 1). */
   sharesByPart: Readonly<Record<string, number>>;
   /** The flight controller's mount (the stack board, else the bottom plate at the stack mount): what the gyro sees. */
   flightController: BodyMotion | null;
@@ -247,6 +251,14 @@ function strainEnergyShares(fm: FrameModel, shapes: readonly Float64Array[]): Ar
       shapes.forEach((s, i) => add(i, key, energy(k, dofs, s)));
     }
   }
+  for (const sp of model.springs ?? []) {
+    const [p, q] = sp.nodes;
+    shapes.forEach((s, i) => {
+      let e = 0;
+      for (let d = 0; d < 3; d++) e += sp.stiffnessNPerMm[d] * (s[6 * p + d] - s[6 * q + d]) ** 2;
+      add(i, SOFT_MOUNTS, e / 2);
+    });
+  }
   return per.map((m) => {
     const total = [...m.values()].reduce((a, b) => a + b, 0);
     return Object.fromEntries([...m.entries()].map(([k, v]) => [k, total > 0 ? v / total : 0]));
@@ -264,6 +276,7 @@ const PATTERN_FIT = 0.8;
  * patterns of the motors' vertical motion (bounce, body twist, pitch and roll bending).
  */
 function classify(asm: Assembly, z: readonly number[], h: readonly number[], shares: Readonly<Record<string, number>>): FrameModeKind {
+  if ((shares[SOFT_MOUNTS] ?? 0) > 0.5) return 'soft-mounted board';
   const zMax = Math.max(0, ...z.map(Math.abs));
   const hMax = Math.max(0, ...h);
   const topShare = Object.entries(shares)

@@ -21,15 +21,6 @@ export type Beam = Readonly<{ nodes: readonly [number, number]; section: BeamSec
  */
 export type RigidGroup = Readonly<{ master: number; slaves: readonly number[] }>;
 
-/**
- * A mass carried by its mounts without stiffening them (a distributing coupling, the RBE3 element of
- * general-purpose finite-element programs): the node's six DOFs are the least-squares rigid motion of
- * the translations of the `from` nodes, equal weights. The node may carry point masses only; it is
- * eliminated, its mass carried to the `from` nodes as Tᵀ M T. `from` must hold three or more points
- * not on one line.
- */
-export type MassCoupling = Readonly<{ node: number; from: readonly number[] }>;
-
 /** A translational spring between two nodes, one stiffness per global axis (a soft mount's grommet). N/mm. */
 export type Spring = Readonly<{ nodes: readonly [number, number]; stiffnessNPerMm: readonly [number, number, number] }>;
 
@@ -54,7 +45,6 @@ export type FeModel = Readonly<{
   fixed: Uint8Array;
   beams?: readonly Beam[];
   rigid?: readonly RigidGroup[];
-  couplings?: readonly MassCoupling[];
   springs?: readonly Spring[];
   /**
    * Optional, per triangle: an earlier triangle with the same corners in its own axes and the same
@@ -79,8 +69,6 @@ export type Assembly = Readonly<{
   /** Master node of each node that is part of a rigid body (−1 otherwise). */
   masterOf: Int32Array;
   xyz: Float64Array;
-  /** Each mass coupling with its 6 × 3n map from the translations of its `from` nodes. */
-  couplings: readonly (MassCoupling & { t: Float64Array })[];
 }>;
 
 /**
@@ -142,21 +130,14 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
   const tris = model.triangles;
   const beams = model.beams ?? [];
   // Blocks: independent nodes with at least one free active DOF.
-  const couplings = (model.couplings ?? []).map((c) => ({ ...c, t: couplingMap(model.xyz, c.node, c.from) }));
-  const coupled = new Uint8Array(nNodes);
-  for (const c of couplings) {
-    if (masterOf[c.node] >= 0 || (model.rigid ?? []).some((g) => g.master === c.node)) throw new RangeError(`node ${c.node} carries a mass coupling and cannot also be in a rigid body`);
-    coupled[c.node] = 1;
-  }
   const springs = model.springs ?? [];
   const width = new Int32Array(nNodes);
-  for (let v = 0; v < nNodes; v++) if (masterOf[v] < 0 && !coupled[v]) for (const d of dofs) if (!model.fixed[6 * v + d]) width[v]++;
+  for (let v = 0; v < nNodes; v++) if (masterOf[v] < 0) for (const d of dofs) if (!model.fixed[6 * v + d]) width[v]++;
   const used = new Uint8Array(nNodes);
   for (const v of tris) used[rep(v)] = 1;
   for (const b of beams) for (const v of b.nodes) used[rep(v)] = 1;
   for (const s of springs) for (const v of s.nodes) used[rep(v)] = 1;
-  for (const pm of model.pointMasses) if (!coupled[pm.node]) used[rep(pm.node)] = 1;
-  for (const c of couplings) for (const v of c.from) used[rep(v)] = 1;
+  for (const pm of model.pointMasses) used[rep(pm.node)] = 1;
   for (const g of model.rigid ?? []) used[rep(g.master)] = 1;
   const blockOfNode = new Int32Array(nNodes).fill(-1);
   const blockNode: number[] = [];
@@ -179,7 +160,6 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
   for (let t = 0; t < tris.length; t += 3) cliques.push(cliqueOf(tris.subarray(t, t + 3)));
   for (const b of beams) cliques.push(cliqueOf(b.nodes));
   for (const sp of springs) cliques.push(cliqueOf(sp.nodes));
-  for (const c of couplings) cliques.push(cliqueOf(c.from));
   for (let b = 0; b < nb; b++) cliques.push([b]);
   const graph = blockGraph(nb, cliques);
   const order = fillReducingOrder(graph, Int32Array.from(blockNode, (v) => width[v]));
@@ -326,14 +306,8 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
     }
     scatter.element(k.val, sp.nodes, ks);
   }
-  const couplingOf = new Map(couplings.map((c) => [c.node, c]));
-  for (const pm of model.pointMasses) {
-    const m6 = pointMassMatrix(pm);
-    const c = couplingOf.get(pm.node);
-    if (c) scatter.element(m.val, c.from, carryThroughCoupling(m6, c.t, c.from.length));
-    else scatter.element(m.val, [pm.node], m6);
-  }
-  return { k, m, eq, dofs, masterOf, xyz: model.xyz, couplings };
+  for (const pm of model.pointMasses) scatter.element(m.val, [pm.node], pointMassMatrix(pm));
+  return { k, m, eq, dofs, masterOf, xyz: model.xyz };
 }
 
 /** Adds element matrices (node-major, six DOFs per node, global axes) into a block-ordered pattern. */
@@ -466,82 +440,6 @@ function pointMassMatrix(pm: PointMass): Float64Array {
   return me;
 }
 
-/**
- * The 6 × 3n map of a mass coupling: the reference node's [u, θ] from the translations of its n
- * points by a least-squares rigid fit. With c the points' centroid, d_i = x_i − c and
- * J = Σ (|d_i|² I − d_i d_iᵀ): u_c = mean u_i, θ = J⁻¹ Σ d_i × u_i, u_ref = u_c + θ × (x_ref − c).
- * @throws RangeError when the points are fewer than three or lie on one line (θ undetermined)
- */
-export function couplingMap(xyz: Float64Array, node: number, from: readonly number[]): Float64Array {
-  const n = from.length;
-  const c = [0, 0, 0];
-  for (const v of from) for (let e = 0; e < 3; e++) c[e] += xyz[3 * v + e] / n;
-  const jm = new Float64Array(9);
-  for (const v of from) {
-    const d = [xyz[3 * v] - c[0], xyz[3 * v + 1] - c[1], xyz[3 * v + 2] - c[2]];
-    const dd = d[0] * d[0] + d[1] * d[1] + d[2] * d[2];
-    for (let a = 0; a < 3; a++) for (let b = 0; b < 3; b++) jm[3 * a + b] += (a === b ? dd : 0) - d[a] * d[b];
-  }
-  const tr = jm[0] + jm[4] + jm[8];
-  const det = jm[0] * (jm[4] * jm[8] - jm[5] * jm[7]) - jm[1] * (jm[3] * jm[8] - jm[5] * jm[6]) + jm[2] * (jm[3] * jm[7] - jm[4] * jm[6]);
-  if (n < 3 || !(det > 1e-9 * (tr / 3) ** 3)) throw new RangeError(`mass coupling of node ${node}: its ${n} points lie on one line (at least three not in line are needed)`);
-  const ji = invertSymmetric3(jm, det);
-  const t = new Float64Array(6 * 3 * n);
-  const rr = [xyz[3 * node] - c[0], xyz[3 * node + 1] - c[1], xyz[3 * node + 2] - c[2]];
-  from.forEach((v, i) => {
-    const d = [xyz[3 * v] - c[0], xyz[3 * v + 1] - c[1], xyz[3 * v + 2] - c[2]];
-    // [d×] maps u_i to d × u_i; θ rows = J⁻¹ [d×].
-    const dx = [0, -d[2], d[1], d[2], 0, -d[0], -d[1], d[0], 0];
-    for (let a = 0; a < 3; a++) {
-      for (let e = 0; e < 3; e++) {
-        let th = 0;
-        for (let b = 0; b < 3; b++) th += ji[3 * a + b] * dx[3 * b + e];
-        t[(3 + a) * 3 * n + 3 * i + e] = th;
-      }
-    }
-    // u_ref = u_c + θ × r = u_c − [r×] θ.
-    const rx = [0, -rr[2], rr[1], rr[2], 0, -rr[0], -rr[1], rr[0], 0];
-    for (let a = 0; a < 3; a++) {
-      for (let e = 0; e < 3; e++) {
-        let u = a === e ? 1 / n : 0;
-        for (let b = 0; b < 3; b++) u -= rx[3 * a + b] * t[(3 + b) * 3 * n + 3 * i + e];
-        t[a * 3 * n + 3 * i + e] = u;
-      }
-    }
-  });
-  return t;
-}
-
-function invertSymmetric3(m: Float64Array, det: number): Float64Array {
-  const [a, b, c, , e, f, , , i] = m;
-  const d = m[3];
-  const g = m[6];
-  const h = m[7];
-  return Float64Array.of((e * i - f * h) / det, -(b * i - c * h) / det, (b * f - c * e) / det, -(d * i - f * g) / det, (a * i - c * g) / det, -(a * f - c * d) / det, (d * h - e * g) / det, -(a * h - b * g) / det, (a * e - b * d) / det);
-}
-
-/** Tᵀ M T for a coupling (M 6×6 at the reference node) as a 6n × 6n element over its points' DOFs (translations only). */
-function carryThroughCoupling(m6: Float64Array, t: Float64Array, n: number): Float64Array {
-  const cols = 3 * n;
-  const mt = new Float64Array(6 * cols);
-  for (let a = 0; a < 6; a++) for (let j = 0; j < cols; j++) {
-    let s = 0;
-    for (let b = 0; b < 6; b++) s += m6[6 * a + b] * t[b * cols + j];
-    mt[a * cols + j] = s;
-  }
-  const size = 6 * n;
-  const out = new Float64Array(size * size);
-  for (let i = 0; i < cols; i++) {
-    const gi = 6 * Math.floor(i / 3) + (i % 3);
-    for (let j = 0; j < cols; j++) {
-      let s = 0;
-      for (let a = 0; a < 6; a++) s += t[a * cols + i] * mt[a * cols + j];
-      out[gi * size + 6 * Math.floor(j / 3) + (j % 3)] = s;
-    }
-  }
-  return out;
-}
-
 /** The six DOF values of node v from its master's (rigid-body kinematics). */
 function slaveValues(a: Assembly, v: number, get: (i: number) => number, out: Float64Array): void {
   const m = a.masterOf[v];
@@ -561,16 +459,6 @@ export function expand(a: Assembly, x: Float64Array): Float64Array {
   for (let i = 0; i < a.eq.length; i++) if (a.eq[i] >= 0) out[i] = x[a.eq[i]];
   const n = a.masterOf.length;
   for (let v = 0; v < n; v++) if (a.masterOf[v] >= 0) slaveValues(a, v, (i) => (a.eq[i] >= 0 ? x[a.eq[i]] : 0), out);
-  for (const c of a.couplings) {
-    const cols = 3 * c.from.length;
-    for (let d = 0; d < 6; d++) {
-      let s = 0;
-      c.from.forEach((v, i) => {
-        for (let e = 0; e < 3; e++) s += c.t[d * cols + 3 * i + e] * out[6 * v + e];
-      });
-      out[6 * c.node + d] = s;
-    }
-  }
   return out;
 }
 
@@ -595,7 +483,6 @@ export function restrict(a: Assembly, f: Float64Array): Float64Array {
     add(6 * m + 4, f[6 * v + 4] + r[2] * fx - r[0] * fz);
     add(6 * m + 5, f[6 * v + 5] + r[0] * fy - r[1] * fx);
   }
-  if (a.couplings.some((c) => f.subarray(6 * c.node, 6 * c.node + 6).some((x) => x !== 0))) throw new RangeError('a load on a mass-coupled node is not supported; load the points it couples');
   return out;
 }
 

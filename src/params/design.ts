@@ -119,6 +119,9 @@ function assemblyIssues(d: DesignParsed): DesignIssue[] {
     if (c.kind === 'stack' && c.patternMm !== undefined && stackIndex !== null && stackIndex < d.stacks.length && !d.stacks[stackIndex].patternsMm.some((p) => Math.abs(p - c.patternMm!) < 1e-9)) {
       issues.push({ path: `${at}.patternMm`, value: c.patternMm, message: `is not a pattern of stack mount ${stackIndex} (${d.stacks[stackIndex].patternsMm.join(', ')} mm)` });
     }
+    if ((c.kind === 'video-transmitter' || c.kind === 'receiver') && c.on !== 'stack' && c.softMountNPerMm !== undefined) {
+      issues.push({ path: `${at}.softMountNPerMm`, value: c.softMountNPerMm, message: `needs screws to ride on: soft mounts are for boards on a stack (on: stack), this one is on ${c.on}` });
+    }
     if ((c.kind === 'video-transmitter' || c.kind === 'receiver') && c.on !== 'stack' && c.atMm === undefined) {
       issues.push({ path: `${at}.atMm`, value: undefined, message: `is required when on is ${c.on} (the centre in plan, mm)` });
     }

@@ -78,11 +78,13 @@ class Deck:
         self.lines += [f"*ORIENTATION, NAME={orient}", ", ".join(f"{v:.12g}" for v in (*a, *b))]
         self.lines += [f"*SHELL SECTION, ELSET={es}, MATERIAL={material}, ORIENTATION={orient}", f"{thickness}"]
 
-    def rigid(self, nodes, ref_point):
+    def rigid(self, nodes, ref_point, ref_node=None):
         """A rigid body of the given nodes about a reference point (translations of the nodes; see
         shells_with_patches for the rotations of shell footprints). Bodies that share a node are one body
-        (a node may follow only one in CalculiX): they are merged when the deck is written."""
-        self.bodies.append((list(nodes), ref_point))
+        (a node may follow only one in CalculiX): they are merged when the deck is written. ref_node: an
+        existing node (made with node()) to be the body's reference node, so that other constraints can
+        name it; otherwise one is made."""
+        self.bodies.append((list(nodes), ref_point, ref_node))
 
     def _write_bodies(self):
         parent = {}
@@ -92,17 +94,21 @@ class Deck:
                 parent[x] = parent[parent[x]]
                 x = parent[x]
             return x
-        for k, (nodes, _p) in enumerate(self.bodies):
+        for k, (nodes, _p, _r) in enumerate(self.bodies):
             for n in nodes:
                 a, b = find(("b", k)), find(n)
                 if a != b:
                     parent[b] = a
         merged = {}
-        for k, (nodes, p) in enumerate(self.bodies):
-            g = merged.setdefault(find(("b", k)), {"nodes": set(), "p": p})
+        for k, (nodes, p, r) in enumerate(self.bodies):
+            g = merged.setdefault(find(("b", k)), {"nodes": set(), "p": p, "ref": None})
             g["nodes"].update(nodes)
+            if r is not None and g["ref"] is None:
+                g["ref"] = r
+            elif r is not None:
+                raise ValueError("two reference nodes in one merged rigid body")
         for g in merged.values():
-            ref = self.node(g["p"])
+            ref = g["ref"] if g["ref"] is not None else self.node(g["p"])
             rot = self.node(g["p"])
             self.lines += [f"*RIGID BODY, NSET={self.nset(sorted(g['nodes']))}, REF NODE={ref}, ROT NODE={rot}"]
 
@@ -111,7 +117,7 @@ class Deck:
         self.lines += ["*EQUATION", str(len(terms))]
         flat = [f"{n}, {d}, {c:.12g}" for n, d, c in terms]
         for i in range(0, len(flat), 4):
-            self.lines.append(", ".join(flat[i:i + 4]) + ("," if i + 4 < len(flat) else ""))
+            self.lines.append(", ".join(flat[i:i + 4]))
 
     def point_masses(self, nodes_masses):
         for n, m in nodes_masses:

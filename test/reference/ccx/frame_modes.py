@@ -1,7 +1,7 @@
 #!/usr/bin/python3
 """Independent CalculiX reference for the assembled frame's modes, written from the cut files and the
 design file alone (nothing from framewright's source): the plate DXFs that `framewright build` writes
-(read with ezdxf), the design YAML (read with PyYAML, the schema's defaults applied here), meshed with
+(read with ezdxf), where it placed the components (its assembly.json: masses, boxes, mount points), the design YAML (read with PyYAML, the schema's defaults applied here), meshed with
 gmsh (second-order triangles), solved by ccx with S6 shells.
 
 The idealisation is the one framewright states (README, "Stiffness and resonance"):
@@ -18,9 +18,13 @@ The idealisation is the one framewright states (README, "Stiffness and resonance
   - each motor a solid cylinder (bell diameter, height from the design, else up to the prop band) on
     the arm's top face, rigid with its screws' head footprints (a slotted hole: the slot end nearer
     the motor axis);
-  - camera side plate edges resting on a plate are tied to its nearest node.
+  - camera side plate edges resting on a plate follow the plate under them (a linear constraint that
+    rigid motion satisfies exactly; see rest_on);
+  - components (assembly.json: mass, boxes, what carries them, mount points) are rigid masses, with the
+    box inertia, tied to the screws at their mount points (head footprints), or to the stack's screws
+    when they sit on a stack, or else to the plate under their footprint (a strapped battery).
 
-stdin: JSON {"design": path, "dxfDir": dir, "sizeMm": element size, "modes": count, "subset": optional "body-and-arms"}
+stdin: JSON {"design": path, "dxfDir": dir (what `framewright build` wrote), "sizeMm": element size, "modes": count}
 stdout: JSON {"frequenciesHz": [...] (elastic modes above 1 Hz), "nodes": n}
 """
 import json
@@ -45,8 +49,6 @@ BUTTON_DK = {"M2": 3.8, "M2.5": 4.5, "M3": 5.7, "M4": 7.6, "M5": 9.5}
 ALLOYS = {"aluminium-6061": (68900.0, 2.70), "aluminium-7075": (71700.0, 2.81)}
 CAMERA_WIDTH = {"nano": 14, "micro": 19, "mini": 21.5}
 COAXIAL = 0.05
-# Strapped or stuck components hold the plate nodes this close to their mount points (the idealisation's figure). mm.
-MOUNT_RADIUS_MM = 3
 
 
 def bulge_segment(p, q, b):
@@ -117,8 +119,6 @@ def main():
     with open(spec["design"]) as f:
         d = yaml.safe_load(f)
     size = spec["sizeMm"]
-    # "body-and-arms": only the bottom plate, the arms and the motors (no braces, top plate, standoffs, camera).
-    body_and_arms = spec.get("subset") == "body-and-arms"
     mats = d.get("materials") or {"woven-cf": {"e1Gpa": 65, "e2Gpa": 65, "g12Gpa": 4, "nu12": 0.07, "densityGPerCm3": 1.57}}
     first_mat = next(iter(mats))
     sec = lambda k: d.get(k) or {}  # noqa: E731
@@ -160,7 +160,7 @@ def main():
             f0 = rigid2d(theta, mirror, 0, 0)
             bx, by = f0(bore[0], bore[1])
             plates.append(Placed(f"arm {site}", part, ta, mat_of("arms"), weave_of("arms"), rigid2d(theta, mirror, mx - bx, my - by), z_low=arm_z))
-        if d.get("braces") and not body_and_arms:
+        if d.get("braces"):
             tbr = d["braces"].get("thicknessMm", 1.5)
             brace_z = arm_z - tbr if stacking == "under-body" else arm_z + ta
             names = ["brace"] if os.path.exists(os.path.join(spec["dxfDir"], "brace.dxf")) else ["brace-front", "brace-rear"]
@@ -184,9 +184,8 @@ def main():
                     raise SystemExit("brace holes do not meet the bottom plate's holes")
                 del cx, cy
                 plates.append(Placed(f"brace {'front' if front else 'rear'}", part, tbr, mat_of("braces"), weave_of("braces"), rigid2d(theta, False, *best), z_low=brace_z))
-    if not body_and_arms:
-        plates.append(Placed("top-plate", dxf("top-plate"), tt, mat_of("topPlate"), weave_of("topPlate"), ident, z_low=tb + gap))
-    cam = None if body_and_arms else d.get("camera")
+    plates.append(Placed("top-plate", dxf("top-plate"), tt, mat_of("topPlate"), weave_of("topPlate"), ident, z_low=tb + gap))
+    cam = d.get("camera")
     if cam:
         tc = cam.get("thicknessMm", 2)
         w = cam.get("widthMm", "micro")
@@ -197,7 +196,9 @@ def main():
     # Components (stack, boards, battery, camera) as placed by `framewright build` (assembly.json: mass,
     # boxes, what carries them and where); how they are tied is decided here.
     components = []
-    if d.get("components") and not body_and_arms:
+    if any("softMountNPerMm" in c for c in d.get("components") or []):
+        raise SystemExit("reference models hard-mounted components only")
+    if d.get("components"):
         with open(os.path.join(spec["dxfDir"], "assembly.json")) as f:
             components = json.load(f)["components"]
 
@@ -257,7 +258,7 @@ def main():
     screw = so.get("boltSize", "M3")
     work = tempfile.mkdtemp(prefix="fw-rods-")
     rod_size = min(size, radius * 0.8)
-    for x, y in [] if body_and_arms else standoff_xy:
+    for x, y in standoff_xy:
         zb, zt = tb / 2, tb + gap + tt / 2
         low, high = deck.rod(work, (x, y, zb), (x, y, zt), radius, young, 0.33, rho * 1e-9, rod_size)
         for end, z_face, dk in ((low, tb, SOCKET_DK[screw]), (high, tb + gap, BUTTON_DK[screw])):
@@ -337,6 +338,8 @@ def main():
                     if abs(v - face) > pl.t / 2:
                         continue
                     rest_on(deck, n, pending_shells[hk][0])
+    # A component is a rigid mass on its mounts: the screws at its mount points (their head footprints),
+    # or the stack's screws when it sits on a stack, or else the plate under its footprint.
     by_name = {pl.name: k for k, pl in enumerate(plates)}
     stack_ties = {}
     for c in components:
@@ -344,23 +347,26 @@ def main():
         stack = next((n for n in c["mountedOn"] if n.startswith("stack mount")), None)
         tied = []
         for p in c["mountPointsMm"]:
-            hit = []
             for k in on if c["kind"] != "stack" else [by_name["bottom-plate"]]:
                 pl = plates[k]
                 q = (p[0], p[2]) if pl.vertical else (p[0], p[1])
                 for (fx, fy), dd, (u, v) in pl.holes_frame():
                     if dd < 6 and math.hypot(fx - q[0], fy - q[1]) < 0.5:
-                        hit += footprint(k, u, v, head_dk(pl, (u, v), screw_of(dd)) / 2)
-            if not hit and stack in stack_ties:
-                hit = stack_ties[stack]
-            if not hit:
-                hit = [n for k in on for n in near_plan(plates[k], nodes_of[k], p, MOUNT_RADIUS_MM)]
-                rigid_nodes.update(hit)
-            if not hit:
-                hit = [min((n for k in on for n in nodes_of[k]), key=lambda n: math.dist(deck_xyz(deck, n), p))]
-            tied += hit
-        if c["kind"] == "stack" and stack:
+                        tied += footprint(k, u, v, head_dk(pl, (u, v), screw_of(dd)) / 2)
+        if not tied and stack in stack_ties:
+            tied = stack_ties[stack]
+        if tied and stack:
             stack_ties.setdefault(stack, tied)
+        if not tied:
+            for k in on:
+                if not plates[k].vertical:
+                    under = [n for n in nodes_of[k] if in_box_plan(c["boxes"][0], deck_xyz(deck, n))]
+                    rigid_nodes.update(under)
+                    tied += under
+        if not tied:
+            ids = on or list(range(len(plates)))
+            p = c["mountPointsMm"][0]
+            tied = [min((n for k in ids for n in nodes_of[k]), key=lambda n: math.dist(deck_xyz(deck, n), p))]
         mass_t = c["massG"] * 1e-6
         deck.rigid_mass_tensor(tied, mass_t, c["cgMm"], boxes_inertia(c["boxes"], mass_t, c["cgMm"]))
     for elems, mat, t, a1, a2 in pending_shells:
@@ -401,12 +407,11 @@ def rest_on(deck, n, elems):
         deck.equation([(n, dof, 1.0)] + [(m, d, -c) for m, d, c in terms if abs(c) > 1e-12])
 
 
-def near_plan(pl, uvs, p, r):
-    """Nodes of a plate within r of point p, measured in the plate's plane."""
-    if pl.vertical:
-        q = (p[0], p[2])
-        return [n for n, (u, v) in uvs.items() if math.hypot(u - q[0], v - q[1]) <= r + 1e-6]
-    return [n for n, (u, v) in uvs.items() if math.hypot(*(a - b for a, b in zip(pl.to_frame(u, v), p[:2]))) <= r + 1e-6]
+def in_box_plan(box, p):
+    """Whether point p lies within a box's footprint in plan."""
+    ax, ay = box["axes"][0], box["axes"][1]
+    d = (p[0] - box["centreMm"][0], p[1] - box["centreMm"][1])
+    return abs(d[0] * ax[0] + d[1] * ax[1]) <= box["sizeMm"][0] / 2 + 1e-6 and abs(d[0] * ay[0] + d[1] * ay[1]) <= box["sizeMm"][1] / 2 + 1e-6
 
 
 def boxes_inertia(boxes, mass_t, cg):
