@@ -178,13 +178,17 @@ function strainEnergyShares(fm: FrameModel, shapes: readonly Float64Array[]): Ar
   const u = new Float64Array(18);
   const x: [number, number, number] = [0, 0, 0];
   const y: [number, number, number] = [0, 0, 0];
-  const quad = (k: Float64Array, dofs: readonly number[]): number => {
+  // Element DOF index (of 18) of each of the 9 rows of the bending and membrane blocks.
+  const bendAt = Int32Array.from({ length: 9 }, (_, i) => 6 * Math.floor(i / 3) + BENDING_DOFS[i % 3]);
+  const memAt = Int32Array.from({ length: 9 }, (_, i) => 6 * Math.floor(i / 3) + MEMBRANE_DOFS[i % 3]);
+  /** uᵀ K u over one 9×9 block of k starting at `at`. */
+  const quad = (k: Float64Array, at: number, dofs: Int32Array): number => {
     let e = 0;
     for (let i = 0; i < 9; i++) {
-      const ui = u[6 * Math.floor(i / 3) + dofs[i % 3]];
+      const ui = u[dofs[i]];
       if (ui === 0) continue;
       let row = 0;
-      for (let j = 0; j < 9; j++) row += k[i * 9 + j] * u[6 * Math.floor(j / 3) + dofs[j % 3]];
+      for (let j = 0; j < 9; j++) row += k[at + i * 9 + j] * u[dofs[j]];
       e += ui * row;
     }
     return e;
@@ -224,7 +228,7 @@ function strainEnergyShares(fm: FrameModel, shapes: readonly Float64Array[]): Ar
           }
         }
         const kb = blocks![t / 3];
-        e += quad(kb.subarray(0, 81), BENDING_DOFS) + quad(kb.subarray(81, 162), MEMBRANE_DOFS);
+        e += quad(kb, 0, bendAt) + quad(kb, 81, memAt);
       }
       add(i, pm.plate.id, e / 2);
     });

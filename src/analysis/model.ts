@@ -175,34 +175,54 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
     for (const d of dofs) if (!model.fixed[6 * v + d]) eq[6 * v + d] = neq++;
   }
   blockStart[nb] = neq;
-  // Pattern: each block column holds its own block and its later neighbours, by position.
+  // Pattern: each block column holds its own block and its later neighbours, by position. Sizes
+  // first, then typed arrays filled in place (the pattern of a frame has millions of entries).
   const lowPtr = new Int32Array(nb + 1);
-  const lowPos: number[] = [];
-  const lowOff: number[] = [];
   const colPtr = new Int32Array(neq + 1);
-  const rowIdx: number[] = [];
+  let lowCount = 0;
+  let nnz = 0;
   for (let k = 0; k < nb; k++) {
     const b = order[k];
-    const later: number[] = [];
-    for (let p = graph.ptr[b]; p < graph.ptr[b + 1]; p++) if (posOf[graph.adj[p]] > k) later.push(posOf[graph.adj[p]]);
-    later.sort((x, y) => x - y);
-    let off = blockStart[k + 1] - blockStart[k];
-    for (const q of later) {
-      lowPos.push(q);
-      lowOff.push(off);
-      off += blockStart[q + 1] - blockStart[q];
+    const w = blockStart[k + 1] - blockStart[k];
+    let below = 0;
+    for (let p = graph.ptr[b]; p < graph.ptr[b + 1]; p++) {
+      const q = posOf[graph.adj[p]];
+      if (q > k) {
+        lowCount++;
+        below += blockStart[q + 1] - blockStart[q];
+      }
     }
-    lowPtr[k + 1] = lowPos.length;
+    lowPtr[k + 1] = lowCount;
+    nnz += (w * (w + 1)) / 2 + w * below;
+  }
+  const lowPos = new Int32Array(lowCount);
+  const lowOff = new Int32Array(lowCount);
+  const rowIdx = new Int32Array(nnz);
+  let fill = 0;
+  for (let k = 0; k < nb; k++) {
+    const b = order[k];
+    const first = lowPtr[k];
+    let n = first;
+    for (let p = graph.ptr[b]; p < graph.ptr[b + 1]; p++) {
+      const q = posOf[graph.adj[p]];
+      if (q > k) lowPos[n++] = q;
+    }
+    lowPos.subarray(first, n).sort();
+    let off = blockStart[k + 1] - blockStart[k];
+    for (let e = first; e < n; e++) {
+      lowOff[e] = off;
+      off += blockStart[lowPos[e] + 1] - blockStart[lowPos[e]];
+    }
     for (let j = blockStart[k]; j < blockStart[k + 1]; j++) {
-      for (let i = j; i < blockStart[k + 1]; i++) rowIdx.push(i);
-      for (const q of later) for (let i = blockStart[q]; i < blockStart[q + 1]; i++) rowIdx.push(i);
-      colPtr[j + 1] = rowIdx.length;
+      for (let i = j; i < blockStart[k + 1]; i++) rowIdx[fill++] = i;
+      for (let e = first; e < n; e++) for (let i = blockStart[lowPos[e]]; i < blockStart[lowPos[e] + 1]; i++) rowIdx[fill++] = i;
+      colPtr[j + 1] = fill;
     }
   }
-  const k = new SparseSymmetric(colPtr, Int32Array.from(rowIdx), blockStart);
+  const k = new SparseSymmetric(colPtr, rowIdx, blockStart);
   const m = k.zerosLike();
-  const lowPosA = Int32Array.from(lowPos);
-  const lowOffA = Int32Array.from(lowOff);
+  const lowPosA = lowPos;
+  const lowOffA = lowOff;
   /** Offset of block position r's rows in the first column of block position c (r ≥ c). */
   const blockOffset = (r: number, c: number): number => {
     if (r === c) return 0;
