@@ -1,10 +1,10 @@
 import { componentMassBody, inertiaAboutCentre, type Assembly, type BoltedJoint, type Component, type PlacedPlate, type Standoff, type Vec3 } from '../assembly/index.js';
 import type { Vec2 } from '../geometry/index.js';
 import { roundBar, type BeamSection } from './beamElement.js';
-import { laminate, type Laminate } from './laminate.js';
+import type { Laminate } from './laminate.js';
 import { meshPart, type PlateMesh, type RingRequest } from './mesh.js';
 import type { Beam, FeModel, PointMass, RigidGroup, Spring } from './model.js';
-import { defaultMeshSizeMm, G_TO_T } from './plateModel.js';
+import { defaultMeshSizeMm, G_TO_T, partLaminate } from './plateModel.js';
 
 /**
  * The assembled frame as one finite-element model, built from the assembly stage's model (plates at
@@ -144,7 +144,7 @@ export function buildFrameModel(asm: Assembly, options: FrameModelOptions = {}):
     }
     if (!lamIndex.has(pl.partIndex)) {
       lamIndex.set(pl.partIndex, b.laminates.length);
-      b.laminates.push(laminate(pl.part.material, pl.part.thicknessMm, pl.part.weaveRad));
+      b.laminates.push(partLaminate(pl.part, `plate ${pl.id}`));
     }
     const firstNode = b.xyz.length / 3;
     const firstTriangle = b.triangles.length / 3;

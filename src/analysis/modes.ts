@@ -1,6 +1,6 @@
 import { buildAssembly } from '../assembly/build.js';
 import { motorHeightMm } from '../assembly/parts.js';
-import { assembledFrameModes, rotationBandFromTipSpeed, type FrameModalResult } from './frameModes.js';
+import { assembledFrameModes, rotationBandOf, type FrameModalResult } from './frameModes.js';
 import { type Feature, type Frame, type Material, type Part, type PartRole, type Vec2 } from '../geometry/index.js';
 import { describeModes, motionAt, type PointMotion, type ShapeContext } from './describe.js';
 import type { PlateMesh } from './mesh.js';
@@ -247,6 +247,6 @@ export function frameModes(frame: Frame, options: ModeOptions = {}): FrameModes 
   const assembled =
     options.assembled === false
       ? null
-      : assembledFrameModes(buildAssembly(frame.design, frame), { modes: options.modes ?? 8, rotationBand: rotationBandFromTipSpeed(frame.propDiameterMm) });
+      : assembledFrameModes(buildAssembly(frame.design, frame), { modes: options.modes ?? 8, rotationBand: rotationBandOf(frame.design, frame.propDiameterMm) });
   return { frame: frame.name, motorMassG, thrustN, parts, arms, body, rootTwist, assembled };
 }

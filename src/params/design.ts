@@ -107,6 +107,10 @@ function assemblyIssues(d: DesignParsed): DesignIssue[] {
   if (d.motor.heightMm !== undefined && d.motor.heightMm > propBandLowMm) {
     issues.push({ path: 'motor.heightMm', value: d.motor.heightMm, message: `reaches into the prop band, which starts ${propBandLowMm} mm above the arm (props.heightAboveArmMm − props.bandMm / 2); raise props.heightAboveArmMm or lower the motor height` });
   }
+  if ((d.motor.kv === undefined) !== (d.motor.supplyVoltageV === undefined)) {
+    const [given, missing] = d.motor.kv === undefined ? ['motor.supplyVoltageV', 'motor.kv'] : ['motor.kv', 'motor.supplyVoltageV'];
+    issues.push({ path: missing, value: undefined, message: `is required with ${given}: the top rotation speed is kv × voltage (or give neither, and props.maxTipSpeedMps or its default sets it)` });
+  }
   if (d.motor.heightMm === undefined && propBandLowMm < 3) {
     issues.push({ path: 'props.heightAboveArmMm', value: d.props.heightAboveArmMm, message: `leaves ${propBandLowMm} mm under the prop band for the motor (at least 3 mm); raise it or give motor.heightMm` });
   }

@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { buildAssembly } from '../../src/assembly/index.js';
-import { assembledFrameModes, FloatingPartError, rotationBandFromTipSpeed } from '../../src/analysis/index.js';
+import { buildAssembly, motorHeightMm } from '../../src/assembly/index.js';
+import { assembledFrameModes, FloatingPartError, partModes, rotationBandFromTipSpeed, rotationBandOf } from '../../src/analysis/index.js';
 import { runCli } from '../helpers/cli.js';
 import { commandAvailable, pythonModuleAvailable, requireTool, runPythonJson } from '../helpers/reference.js';
 import { demoFrame, REPO } from './helpers.js';
@@ -53,6 +53,32 @@ describe('the assembled frame', () => {
     expect(Math.min(...boards.map((m) => Math.abs(m.frequencyHz / bounce - 1)))).toBeLessThan(0.01);
     // The frame's own first mode is far above: the boards are isolated from it.
     expect(r.modes.find((m) => m.kind === 'body twist')!.frequencyHz).toBeGreaterThan(2 * bounce);
+  });
+
+  it('the rotation band from a motor kv and voltage: 2400 kv on 22.2 V at 80 % under load tops out at 710.4 Hz (kv × V × 0.8 / 60, by hand; domain.md)', () => {
+    const band = rotationBandOf({ motor: { kv: 2400, supplyVoltageV: 22.2 }, props: {} }, 5.1 * 25.4);
+    expect(band.highHz).toBeCloseTo(710.4, 9);
+    expect(band.lowHz).toBeCloseTo(0.3 * 710.4, 9);
+    // Without kv and voltage: the tip-speed rule, with the design's own tip speed when it gives one.
+    expect(rotationBandOf({ motor: {}, props: { maxTipSpeedMps: 200 } }, 127).highHz).toBeCloseTo(200 / (Math.PI * 0.127), 9);
+  });
+
+  it('one motor model for every stage: the design height, else 0.6 × the bell diameter, never into the prop band (by hand)', () => {
+    const d = tessel.design;
+    expect(motorHeightMm(d)).toBe(19);
+    // 28 mm bell: 16.8 mm; the prop band starts 23 − 6/2 = 20 mm above the arm, so 16.8 stands.
+    expect(motorHeightMm({ ...d, motor: { ...d.motor, heightMm: undefined } })).toBeCloseTo(16.8, 9);
+    // A prop band starting 12 mm above the arm caps it.
+    expect(motorHeightMm({ ...d, motor: { ...d.motor, heightMm: undefined }, props: { ...d.props, heightAboveArmMm: 15 } })).toBeCloseTo(12, 9);
+    // The assembly's motors (fit checks, mass and balance) and the frame model's carry that height: centre of mass half of it above the arm top.
+    for (const m of tesselAssembly.motors) expect(m.cgMm[2] - m.baseCentreMm[2]).toBeCloseTo(19 / 2, 9);
+  });
+
+  it('a zero-thickness part is refused with its name (no stiffness to solve for)', () => {
+    const arm = tessel.parts.find((p) => p.role === 'arm')!;
+    expect(() => partModes({ ...arm, thicknessMm: 0 }, { modes: 2 })).toThrow(/part arm: thickness must be positive \(got 0 mm\)/);
+    const asm = { ...tesselAssembly, plates: tesselAssembly.plates.map((p) => (p.id === 'top-plate' ? { ...p, part: { ...p.part, thicknessMm: 0 } } : p)) };
+    expect(() => assembledFrameModes(asm, { modes: 2 })).toThrow(/plate top-plate: thickness must be positive/);
   });
 
   it('an arm whose root screws are gone is a floating part: the error names it', () => {

@@ -15,7 +15,8 @@ The idealisation is the one framewright states (README, "Stiffness and resonance
   - standoffs and camera spacers: solid round rods of their outside size (ten-node tetrahedra; CalculiX's
     beams are expanded to solids whose end rotations a rigid body does not hold), mid-plane to
     mid-plane, end faces in the screws' rigid bodies; aluminium 6061 E 68.9 GPa, 7075 71.7 GPa, nu 0.33 (ASM handbook);
-  - each motor a solid cylinder (bell diameter, height from the design, else up to the prop band) on
+  - each motor a solid cylinder (bell diameter, height from the design, else 0.6 x the bell diameter
+    but not into the prop band) on
     the arm's top face, rigid with its screws' head footprints (a slotted hole: the slot end nearer
     the motor axis);
   - camera side plate edges resting on a plate follow the plate under them (a linear constraint that
@@ -290,8 +291,9 @@ def main():
     # Motors: rigid cylinders on the arm top, tied over their screws' footprints.
     motor = d["motor"]
     props = d["props"]
-    height = motor.get("heightMm", props.get("heightAboveArmMm", 14) - props.get("bandMm", 6) / 2)
     bell = motor.get("bellDiameterMm", 28)
+    # The stated height, else 0.6 x the bell diameter but not into the prop band (README, design reference).
+    height = motor.get("heightMm", min(0.6 * bell, props.get("heightAboveArmMm", 14) - props.get("bandMm", 6) / 2))
     mass_t = motor["massG"] * 1e-6
     mscrew = motor.get("boltSize", "M3")
     for site, (mx, my) in sites.items():
