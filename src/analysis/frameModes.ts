@@ -285,8 +285,10 @@ function strainEnergyShares(fm: FrameModel, shapes: readonly Float64Array[]): Ar
   });
 }
 
-/** A motor moving less than this fraction of the mode's largest motion counts as still (judgement, no standard). */
-const STILL = 0.25;
+/** Motors moving less than this fraction of the mode's largest motion do not define it (judgement, no standard). */
+const MOTORS_STILL = 0.1;
+/** In a single-arm mode the second-largest motor motion is below this fraction of the largest (judgement, no standard). */
+const ONE_ARM = 0.25;
 /** A pattern must explain this much of the motors' vertical motion to name the mode (judgement). */
 const PATTERN_FIT = 0.8;
 
@@ -302,11 +304,11 @@ function classify(asm: Assembly, z: readonly number[], h: readonly number[], sha
   const topShare = Object.entries(shares)
     .filter(([k]) => asm.plates.some((p) => p.id === k && p.part.role === 'top'))
     .reduce((s, [, v]) => s + v, 0);
-  if (zMax < STILL && hMax < STILL) return topShare > 0.4 ? 'top-plate' : 'mixed';
+  if (zMax < MOTORS_STILL && hMax < MOTORS_STILL) return topShare > 0.4 ? 'top-plate' : 'mixed';
   if (hMax > 1.5 * zMax) return 'in-plane / yaw';
   if (z.length !== 4) return 'mixed';
   const sorted = z.map(Math.abs).sort((a, b) => b - a);
-  if (sorted[1] < STILL * sorted[0]) return 'single-arm';
+  if (sorted[1] < ONE_ARM * sorted[0]) return 'single-arm';
   const sites = asm.motors.map((m) => m.site);
   const front = sites.map((s) => (s.startsWith('front') ? 1 : -1));
   const left = sites.map((s) => (s.endsWith('left') ? 1 : -1));

@@ -12,3 +12,4 @@ export * from './statics.js';
 export * from './modes.js';
 export * from './frameModel.js';
 export * from './frameModes.js';
+export * from './frameShape.js';

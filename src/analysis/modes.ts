@@ -31,6 +31,8 @@ export type ModeOptions = Readonly<{
   motor?: Readonly<{ bellDiameterMm: number; heightMm: number }>;
   /** frameModes: also solve the assembled frame (default true). */
   assembled?: boolean;
+  /** frameModes: elastic modes of the assembled frame (default `modes`, else 8). */
+  assembledModes?: number;
 }>;
 
 export type Boundary = 'free' | 'arm-root-clamped' | 'body-with-motors';
@@ -247,6 +249,6 @@ export function frameModes(frame: Frame, options: ModeOptions = {}): FrameModes 
   const assembled =
     options.assembled === false
       ? null
-      : assembledFrameModes(buildAssembly(frame.design, frame), { modes: options.modes ?? 8, rotationBand: rotationBandOf(frame.design, frame.propDiameterMm) });
+      : assembledFrameModes(buildAssembly(frame.design, frame), { modes: options.assembledModes ?? options.modes ?? 8, rotationBand: rotationBandOf(frame.design, frame.propDiameterMm) });
   return { frame: frame.name, motorMassG, thrustN, parts, arms, body, rootTwist, assembled };
 }
