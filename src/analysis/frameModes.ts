@@ -6,6 +6,7 @@ import { assemble, expand, rigidBodyModes } from './model.js';
 import { BENDING_DOFS, MEMBRANE_DOFS, shellBlocksInto } from './shellTriangle.js';
 import type { PlateMesh } from './mesh.js';
 import { normaliseShape } from './solve.js';
+import type { RotationBand } from './rotation.js';
 
 /** What a pilot calls a frame mode, from the four motors' motion and the parts' share of the strain energy. */
 export type FrameModeKind = 'bounce' | 'body twist' | 'pitch bending' | 'roll bending' | 'in-plane / yaw' | 'single-arm' | 'top-plate' | 'soft-mounted board' | 'mixed';
@@ -53,9 +54,6 @@ export type FrameMode = Readonly<{
   shape: Float64Array;
 }>;
 
-/** The motors' rotation frequencies, Hz, and how the top one was found. */
-export type RotationBand = Readonly<{ lowHz: number; highHz: number; source: string }>;
-
 export type FrameModalResult = Readonly<{
   frame: FrameModel;
   nodes: number;
@@ -71,40 +69,6 @@ export type FrameModesOptions = FrameModelOptions &
     modes?: number;
     rotationBand?: RotationBand | null;
   }>;
-
-/**
- * Blade tip speed taken as the top of the rotation band when the design states none, m/s: it puts
- * the top rotation of a 5-inch prop near 590 Hz and of a 7-inch near 430 Hz, inside the ranges the
- * trade quotes (domain.md: 500–650 Hz and 350–450 Hz). Common practice, no source.
- */
-export const TOP_TIP_SPEED_MPS = 240;
-/** Bottom of the band as a fraction of the top rotation speed (idle to hover; common practice, no source). */
-export const BAND_LOW_FRACTION = 0.3;
-
-/**
- * The motors' rotation band from the prop diameter and a top blade tip speed: top f = v / (π D).
- * @param propDiameterMm prop diameter, mm (> 0)
- */
-export function rotationBandFromTipSpeed(propDiameterMm: number, tipSpeedMps = TOP_TIP_SPEED_MPS): RotationBand {
-  const high = tipSpeedMps / (Math.PI * propDiameterMm * 1e-3);
-  return { lowHz: BAND_LOW_FRACTION * high, highHz: high, source: `blade tip speed ${tipSpeedMps} m/s on a ${propDiameterMm.toFixed(1)} mm prop (top), ${Math.round(BAND_LOW_FRACTION * 100)} % of it (bottom)` };
-}
-
-/** A motor's speed under load over its no-load speed kv × V (domain.md: 0.75–0.85; common practice, no source). */
-export const LOADED_SPEED_FRACTION = 0.8;
-
-/**
- * The motors' rotation band of a design: top rotation frequency kv × V × 0.8 / 60 when the motor
- * gives kv and a supply voltage, else from the prop's tip speed (`props.maxTipSpeedMps`, default
- * 240 m/s) as v / (π D); bottom 30 % of the top.
- * @param propDiameterMm prop diameter, mm (> 0)
- */
-export function rotationBandOf(d: Readonly<{ motor: Readonly<{ kv?: number; supplyVoltageV?: number }>; props: Readonly<{ maxTipSpeedMps?: number }> }>, propDiameterMm: number): RotationBand {
-  const { kv, supplyVoltageV } = d.motor;
-  if (kv === undefined || supplyVoltageV === undefined) return rotationBandFromTipSpeed(propDiameterMm, d.props.maxTipSpeedMps ?? TOP_TIP_SPEED_MPS);
-  const high = (kv * supplyVoltageV * LOADED_SPEED_FRACTION) / 60;
-  return { lowHz: BAND_LOW_FRACTION * high, highHz: high, source: `motor ${kv} kv on ${supplyVoltageV} V, ${Math.round(LOADED_SPEED_FRACTION * 100)} % of its no-load speed (top), ${Math.round(BAND_LOW_FRACTION * 100)} % of it (bottom)` };
-}
 
 /** Below this a mode of the free frame is rigid-body motion (or a mechanism). Hz. */
 const RIGID_HZ = 1;

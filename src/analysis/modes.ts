@@ -1,6 +1,7 @@
 import { buildAssembly } from '../assembly/build.js';
 import { motorHeightMm } from '../assembly/parts.js';
-import { assembledFrameModes, rotationBandOf, type FrameModalResult } from './frameModes.js';
+import { assembledFrameModes, type FrameModalResult } from './frameModes.js';
+import { rotationBandOf } from './rotation.js';
 import { type Feature, type Frame, type Material, type Part, type PartRole, type Vec2 } from '../geometry/index.js';
 import { describeModes, motionAt, type PointMotion, type ShapeContext } from './describe.js';
 import type { PlateMesh } from './mesh.js';

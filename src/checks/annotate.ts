@@ -1,5 +1,5 @@
 import type { Frame } from '../geometry/frame.js';
-import type { BBox, Vec2 } from '../geometry/types.js';
+import type { Vec2 } from '../geometry/types.js';
 import { viewRegion } from './camera.js';
 import type { CheckOptions } from './options.js';
 import { optionsForDesign } from './options.js';
@@ -26,9 +26,8 @@ export type FrameAnnotation = Readonly<{
   viewRegion: readonly Vec2[] | null;
   eyeMm: Vec2 | null;
   tipGaps: ReadonlyArray<Readonly<{ a: Vec2; b: Vec2; gapMm: number }>>;
-  /** Safety lines and where the first one starts (frame coordinates; the rest follow below it). */
-  cautions: Readonly<{ atMm: Vec2; lines: readonly string[] }>;
-  bbox: BBox;
+  /** Safety lines printed with the picture. */
+  cautions: Readonly<{ lines: readonly string[] }>;
 }>;
 
 /** Markers for frame findings, prop discs (visible or not), the view region and the tip-gap lines. */
@@ -56,8 +55,6 @@ export function frameAnnotation(frame: Frame, report: CheckReport, options: Part
     eyeMm: pose ? [pose.eyeMm[0], pose.eyeMm[1]] : null,
     // Adjacent pairs: as many of the smallest gaps as there are props (the ring round the frame).
     tipGaps: gaps.slice(0, discs.length),
-    // The cautions sit behind the rear props, in room added to the drawing for them.
-    cautions: { atMm: [bb[0] - 12, bb[3] + 8], lines: CHECK_CAUTIONS },
-    bbox: [bb[0] - 12 - 5 * CHECK_CAUTIONS.length, bb[1] - 10, bb[2] + 10, bb[3] + 10],
+    cautions: { lines: CHECK_CAUTIONS },
   };
 }

@@ -70,7 +70,7 @@ export function stackFitRule(a: Assembly, o: CheckOptions, prisms: readonly Pris
         const reach = Math.max(...board.paths[0].map((v) => signedPathsDistance(outer(plate), [v.x, v.y])));
         const where = farthestOutside(board.paths, outer(plate));
         out.push(fitFinding(STACK_FIT_RULE, 'error', reach, 0, 'mm', [c.id, plate.id], [where[0], where[1], board.lo],
-          `${c.id} (${(board.max[0] - board.min[0]).toFixed(1)} × ${(board.max[1] - board.min[1]).toFixed(1)} mm) reaches ${mm(reach)} past the body footprint (${plate.id}); use a larger body (body.widthMm, body.lengthMm) or a smaller board`));
+          `${c.id} (${(board.max[0] - board.min[0]).toFixed(1)} × ${(board.max[1] - board.min[1]).toFixed(1)} mm) past the body footprint (${plate.id}): overhang ${mm(reach)} is above ${mm(0)}; use a larger body (body.widthMm, body.lengthMm) or a smaller board`));
       }
       for (const s of prisms) {
         if (own(s) || s.kind === 'plate' || s.kind === 'component' || s.kind === 'motor') continue;
@@ -81,7 +81,7 @@ export function stackFitRule(a: Assembly, o: CheckOptions, prisms: readonly Pris
         const cx = (Math.max(board.min[0], s.min[0]) + Math.min(board.max[0], s.max[0])) / 2;
         const cy = (Math.max(board.min[1], s.min[1]) + Math.min(board.max[1], s.max[1])) / 2;
         out.push(fitFinding(STACK_FIT_RULE, 'error', gap, lim.sideClearanceMm, 'mm', [c.id, s.id], [cx, cy, (Math.max(s.lo, board.lo) + Math.min(s.hi, board.hi)) / 2],
-          `${c.id} is ${gap === 0 ? 'against' : `${mm(gap)} from`} ${s.id}; keep ${mm(lim.sideClearanceMm)}: move the stack (stacks.${mount}) or the ${s.kind}`));
+          `${c.id} and ${s.id}: clearance ${mm(gap)} is below ${mm(lim.sideClearanceMm)}; move the stack (stacks.${mount}) or the ${s.kind}`));
       }
     }
     const pileTop = Math.max(...pile.map((c) => componentPrisms(c)[0].hi), ...prisms.filter((p) => own(p) && p.kind === 'nut').map((p) => p.hi), ...a.joints.filter((j) => j.kind === 'stack' && j.id.startsWith(`stack ${mount + 1} `)).map((j) => j.headAtMm[2] + j.screwLengthMm - (j.headStandard === 'ISO 10642' || j.headStandard === 'ISO 14581' ? j.headHeightMm : 0)));
@@ -91,7 +91,7 @@ export function stackFitRule(a: Assembly, o: CheckOptions, prisms: readonly Pris
       const first = pile[0];
       const c = first.boxes[0].centreMm;
       out.push(fitFinding(STACK_FIT_RULE, 'error', room, lim.topClearanceMm, 'mm', [first.id, 'top-plate'], [c[0], c[1], pileTop],
-        `the stack on mount ${mount} (${pile.map((p) => p.id).join(', ')}, nuts and screw tips included) tops out at ${mm(pileTop, 1)}, ${room < 0 ? `${mm(-room)} into` : `${mm(room)} under`} the top plate; keep ${mm(lim.topClearanceMm)}: standoffs of ${need} mm would fit (body.standoffs.heightMm is ${a.stackUp.plateGapMm})`));
+        `the stack on mount ${mount} (${pile.map((p) => p.id).join(', ')}, nuts and screw tips included), top at ${mm(pileTop, 1)}: room under the top plate ${mm(room)} is below ${mm(lim.topClearanceMm)}; use standoffs of ${need} mm (body.standoffs.heightMm is ${a.stackUp.plateGapMm})`));
     }
   }
   return out;
@@ -127,10 +127,10 @@ export function cameraFitRule(a: Assembly, o: CheckOptions, prisms: readonly Pri
     const spacing = left.bounds.minMm[1] - right.bounds.maxMm[1];
     if (width > spacing + lim.fitToleranceMm) {
       out.push(fitFinding(CAMERA_FIT_RULE, 'error', width - spacing, lim.fitToleranceMm, 'mm', [camera.id, left.id], [pivot[0], left.bounds.minMm[1], pivot[2]],
-        `${camera.id} is ${mm(width, 1)} wide, ${mm(width - spacing)} more than the ${mm(spacing, 1)} between the camera side plates (tolerance ${mm(lim.fitToleranceMm, 1)}); set camera.widthMm to the camera's width`));
+        `${camera.id} (${mm(width, 1)} wide) between the camera side plates ${mm(spacing, 1)} apart: excess width ${mm(width - spacing)} is above the tolerance ${mm(lim.fitToleranceMm)}; set camera.widthMm to the camera's width`));
     } else if (spacing - width > lim.looseMm) {
       out.push(fitFinding(CAMERA_FIT_RULE, 'warning', spacing - width, lim.looseMm, 'mm', [camera.id, left.id], [pivot[0], left.bounds.minMm[1], pivot[2]],
-        `${camera.id} is ${mm(width, 1)} wide between side plates ${mm(spacing, 1)} apart: ${mm(spacing - width)} of play; shim it with washers or set camera.widthMm to the camera's width`));
+        `${camera.id} (${mm(width, 1)} wide) between side plates ${mm(spacing, 1)} apart: play ${mm(spacing - width)} is above ${mm(lim.looseMm)}; shim it with washers or set camera.widthMm to the camera's width`));
     }
   }
   const margin = lim.clearanceMm + cameraSagittaMm(camera);
@@ -146,8 +146,8 @@ export function cameraFitRule(a: Assembly, o: CheckOptions, prisms: readonly Pri
       const p = camera.pivot!;
       const n = Math.max(1, poses.length / perPose - 1);
       const tilt = p.minRad + ((p.maxRad - p.minRad) * Math.floor(k / perPose)) / n;
-      out.push(fitFinding(CAMERA_FIT_RULE, 'error', radToDeg(tilt), null, 'deg', [camera.id, s.id], ov.where,
-        `${camera.id}, turned through its uptilt range (${radToDeg(p.minRad).toFixed(0)}–${radToDeg(p.maxRad).toFixed(0)}°), comes within ${mm(lim.clearanceMm, 1)} of ${s.id} from ${radToDeg(tilt).toFixed(1)}° uptilt; move the camera (camera.forwardOffsetMm, camera.pivotHeightMm) or narrow the tilt range`));
+      out.push(fitFinding(CAMERA_FIT_RULE, 'error', radToDeg(tilt), radToDeg(p.maxRad), 'deg', [camera.id, s.id], ov.where,
+        `${camera.id}, turned through its uptilt range (${radToDeg(p.minRad).toFixed(0)}–${radToDeg(p.maxRad).toFixed(0)}°), comes within ${mm(lim.clearanceMm, 1)} of ${s.id}: contact from ${radToDeg(tilt).toFixed(2)}° uptilt, below the range's top ${radToDeg(p.maxRad).toFixed(2)}°; narrow the tilt range below ${radToDeg(tilt).toFixed(1)}° or move the camera (camera.forwardOffsetMm, camera.pivotHeightMm)`));
       break;
     }
   }
@@ -189,16 +189,16 @@ export function batteryFitRule(a: Assembly, o: CheckOptions, slotWidthMm: number
     if (!below.length || !above.length) {
       const pair = nearestPair(xs, b.centreMm[0]);
       const spacing = pair ? pair[1] - pair[0] : 0;
-      out.push(fitFinding(BATTERY_FIT_RULE, 'error', 2 * hx, pair ? spacing - slotWidthMm : null, 'mm', [battery.id, 'top-plate'], where,
+      out.push(fitFinding(BATTERY_FIT_RULE, 'error', xs.length < 2 ? xs.length : 2 * hx, xs.length < 2 ? 2 : spacing - slotWidthMm, xs.length < 2 ? 'slots' : 'mm', [battery.id, 'top-plate'], where,
         xs.length < 2
-          ? `${battery.id} needs two strap slots in the top plate, one each side of it (topPlate.strapSlots.xPositionsMm has ${xs.length})`
-          : `${battery.id} is ${mm(2 * hx, 1)} long along x, but the strap slots around it are ${mm(spacing, 1)} apart (${mm(spacing - slotWidthMm, 1)} between them): the strap cannot pass; move the slots (topPlate.strapSlots.xPositionsMm) or turn the battery`));
+          ? `${battery.id} on the top plate: strap slots ${xs.length.toFixed(2)} are below the ${(2).toFixed(2)} it needs, one each side; add slots (topPlate.strapSlots.xPositionsMm)`
+          : `${battery.id} between the strap slots ${mm(spacing, 1)} apart: battery length ${mm(2 * hx)} is above the ${mm(spacing - slotWidthMm)} between them, so the strap cannot pass; move the slots (topPlate.strapSlots.xPositionsMm) or turn the battery`));
     } else {
       const spacing = above[0] - below[below.length - 1];
       const need = 2 * spacing + 2 * (2 * hz + (top?.thicknessMm ?? 0)) + lim.strapOverlapMm;
       if (need > st.strapLengthMm) {
         out.push(fitFinding(BATTERY_FIT_RULE, 'error', need, st.strapLengthMm, 'mm', [battery.id, 'top-plate'], where,
-          `the strap round ${battery.id} needs ${mm(need, 0)} (2 × ${mm(spacing, 1)} slot spacing, 2 × battery height and plate, ${mm(lim.strapOverlapMm, 0)} overlap), more than its ${mm(st.strapLengthMm, 0)}; use a longer strap or slots closer together`));
+          `the strap round ${battery.id} (2 × ${mm(spacing, 1)} slot spacing, 2 × battery height and plate, ${mm(lim.strapOverlapMm, 0)} overlap): needed length ${mm(need)} is above its ${mm(st.strapLengthMm)}; use a longer strap or move the slots closer together`));
       }
     }
   } else {
@@ -207,7 +207,7 @@ export function batteryFitRule(a: Assembly, o: CheckOptions, slotWidthMm: number
     const need = 2 * across + 2 * (2 * hz + (a.stackUp.bottomPlateTopMm - (b.centreMm[2] + hz))) + lim.strapOverlapMm;
     if (need > st.strapLengthMm) {
       out.push(fitFinding(BATTERY_FIT_RULE, 'error', need, st.strapLengthMm, 'mm', [battery.id, 'bottom-plate'], where,
-        `the strap round ${battery.id} and the plates needs ${mm(need, 0)}, more than its ${mm(st.strapLengthMm, 0)}; use a longer strap`));
+        `the strap round ${battery.id} and the plates: needed length ${mm(need)} is above its ${mm(st.strapLengthMm)}; use a longer strap`));
     }
   }
   return out;
@@ -236,7 +236,7 @@ export function motorScrewRule(a: Assembly, o: CheckOptions): Finding[] {
       if (into <= m.threadDepthMm + 1e-9) continue;
       const tip: [number, number, number] = [j.planMm[0], j.planMm[1], j.headAtMm[2] + j.screwLengthMm];
       out.push(fitFinding(MOTOR_SCREW_RULE, 'error', into, m.threadDepthMm, 'mm', [j.id, `motor ${m.site}`], tip,
-        `${j.screw} × ${j.screwLengthMm} mm motor screw through ${mm(j.gripMm, 1)} of arm reaches ${mm(into, 1)} into the motor, ${mm(into - m.threadDepthMm)} past its ${mm(m.threadDepthMm, 1)} thread (motor.threadDepthMm): it would touch the windings; no preferred length fits — use ${mm(into - m.threadDepthMm, 1)} of washers under the head or a ${(j.gripMm + m.threadDepthMm).toFixed(1)} mm screw`));
+        `${j.screw} × ${j.screwLengthMm} mm motor screw through ${mm(j.gripMm, 1)} of arm (no preferred length fits): depth into the motor ${mm(into)} is above its ${mm(m.threadDepthMm)} thread (motor.threadDepthMm), so it would touch the windings; use ${mm(into - m.threadDepthMm, 1)} of washers under the head or a ${(j.gripMm + m.threadDepthMm).toFixed(1)} mm screw`));
       break;
     }
   }

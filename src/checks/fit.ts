@@ -13,12 +13,16 @@ export const CAMERA_FIT_RULE = 'camera-fit';
 export const BATTERY_FIT_RULE = 'battery-fit';
 export const MOTOR_SCREW_RULE = 'motor-screw';
 
-const KIND_ADVICE: Record<string, string> = {
-  'plate/plate': 'move the parts apart (arm roots: a longer arms.root.reachMm, a narrower root or a larger wheelbase)',
-  'plate/standoff': 'move the standoff (body.standoffs.positionsMm) or the plate',
-  'head/plate': 'use a countersunk screw (countersunk holes) or move the hole',
-  'nut/standoff': 'move the hole or the standoff',
-};
+/** What to change when two solids meet, by what they are. */
+function advice(p: Prism, q: Prism): string {
+  const ids = [p.id, q.id];
+  if (ids.every((id) => id.startsWith('arm') || id.startsWith('brace'))) return 'lengthen arms.root.reachMm, narrow the root or enlarge the wheelbase, as the arm roots or braces overlap';
+  const kinds = [p.kind, q.kind].sort().join('/');
+  if (kinds === 'head/plate') return 'use countersunk screws there (countersunk holes) or move the hole clear of the plate';
+  if (kinds === 'plate/standoff' || kinds === 'nut/standoff' || kinds === 'head/standoff') return 'move the standoff (body.standoffs.positionsMm) or the part it meets';
+  if (kinds.includes('component')) return 'move or resize the component (components), or make room for it';
+  return 'move one of them or change its size';
+}
 
 /**
  * Solids of the assembled frame that intersect beyond their contact faces (faces that touch are
@@ -36,10 +40,8 @@ export function interferenceRule(a: Assembly, o: CheckOptions, prisms: readonly 
       if (p.owner !== undefined && p.owner === q.owner) continue;
       const ov = prismOverlap(p, q);
       if (!ov) continue;
-      const key = [p.kind, q.kind].sort().join('/');
-      const advice = KIND_ADVICE[key] ?? 'move one of them or change its size';
       out.push(fitFinding(INTERFERENCE_RULE, 'error', ov.volumeMm3, 0, 'mm³', [p.id, q.id], ov.where,
-        `${p.id} and ${q.id} intersect: ${ov.volumeMm3.toFixed(1)} mm³ of overlap near ${pt3(ov.where)}; ${advice}`));
+        `${p.id} and ${q.id} intersect near ${pt3(ov.where)}: overlap ${ov.volumeMm3.toFixed(2)} mm³ is above the limit 0.00 mm³; ${advice(p, q)}`));
     }
   }
   return out;
@@ -123,7 +125,7 @@ export function propSweepFindings(a: Assembly, o: CheckOptions, rule: string, pr
         if (gap < lim.minPartClearanceMm) {
           const where = towards(c, R, s);
           out.push(fitFinding(rule, 'error', gap, lim.minPartClearanceMm, 'mm', [name, s.id], [where[0], where[1], prop.centreMm[2]],
-            `${name} disc ${gap < 0 ? `overlaps ${s.id} by ${mm(-gap)}` : `passes ${mm(gap)} from ${s.id}`} within its swept band (${zLo.toFixed(1)}–${zHi.toFixed(1)} mm high); keep ${mm(lim.minPartClearanceMm)}: lengthen the arms, use smaller props or move ${s.id}`));
+            `${name} disc and ${s.id} within its swept band (${zLo.toFixed(1)}–${zHi.toFixed(1)} mm high): clearance ${mm(gap)} is below ${mm(lim.minPartClearanceMm)}${gap < 0 ? ' (they overlap)' : ''}; lengthen the arms, use smaller props or move ${s.id}`));
         }
         continue;
       }
@@ -133,7 +135,7 @@ export function propSweepFindings(a: Assembly, o: CheckOptions, rule: string, pr
       if (reach > 0 && gapZ < lim.maxVerticalGapMm && !(bottom && top && (s === bottom || s === top) && between(bottom, top, zLo, zHi))) {
         const where = towards(c, R, s);
         out.push(fitFinding(rule, 'warning', -reach, 0, 'mm', [name, s.id], [where[0], where[1], prop.centreMm[2]],
-          `${name} disc reaches ${mm(reach)} over ${s.id} in plan, ${mm(gapZ, 1)} ${lo >= zHi ? 'above' : 'below'} its swept band; prop flex or a bent arm may strike it`));
+          `${name} disc over ${s.id} in plan, ${mm(gapZ, 1)} ${lo >= zHi ? 'above' : 'below'} its swept band: plan clearance ${mm(-reach)} is below ${mm(0)}; trim ${s.id} by ${mm(reach)} there or lengthen the arms, as prop flex or a bent arm may strike it`));
       }
     }
     if (bottom && top && between(bottom, top, zLo, zHi)) {
@@ -141,7 +143,7 @@ export function propSweepFindings(a: Assembly, o: CheckOptions, rule: string, pr
       if (gap < lim.minPartClearanceMm) {
         const where = towards(c, R, bottom);
         out.push(fitFinding(rule, 'error', gap, lim.minPartClearanceMm, 'mm', [name, 'bottom-plate'], [where[0], where[1], prop.centreMm[2]],
-          `${name} disc sweeps between the bottom plate and the top plate (${gap < 0 ? `${mm(-gap)} into` : `${mm(gap)} from`} the space between them, where the stack and wiring are); keep ${mm(lim.minPartClearanceMm)} outside it: lengthen the arms or use smaller props`));
+          `${name} disc and the space between the bottom and top plates (where the stack and wiring are): clearance ${mm(gap)} is below ${mm(lim.minPartClearanceMm)}${gap < 0 ? ' (it sweeps into it)' : ''}; lengthen the arms or use smaller props`));
       }
     }
     if (camera) out.push(...cameraVsProp(camera, prop, c, R, lim.minPartClearanceMm, rule));
@@ -195,7 +197,7 @@ function cameraVsProp(camera: Component, prop: Prop, c: Vec2, R: number, minMm: 
   const name = `prop ${prop.site}`;
   const where = towards(c, R, worst.pose);
   return [fitFinding(rule, 'error', worst.gap, minMm, 'mm', [name, camera.id], [where[0], where[1], prop.centreMm[2]],
-    `${name} disc ${worst.gap < 0 ? `overlaps ${camera.id} by ${mm(-worst.gap)}` : `passes ${mm(worst.gap)} from ${camera.id}`} somewhere in its tilt range; keep ${mm(minMm)}: move the camera back (camera.forwardOffsetMm) or lengthen the arms`)];
+    `${name} disc and ${camera.id} somewhere in its tilt range: clearance ${mm(worst.gap)} is below ${mm(minMm)}${worst.gap < 0 ? ' (they overlap)' : ''}; move the camera back (camera.forwardOffsetMm) or lengthen the arms`)];
 }
 
 /** An antenna (a rod of its diameter) against a prop's band: plan distance of the rod's piece inside the band heights. */
@@ -227,7 +229,7 @@ function antennaVsProp(ant: Component, prop: Prop, minMm: number, rule: string):
   const gap = Math.hypot(q[0] - c[0], q[1] - c[1]) - r - prop.diameterMm / 2;
   if (gap >= minMm) return [];
   return [fitFinding(rule, 'error', gap, minMm, 'mm', [`prop ${prop.site}`, ant.id], [q[0], q[1], prop.centreMm[2]],
-    `prop ${prop.site} disc ${gap < 0 ? `crosses ${ant.id} by ${mm(-gap)}` : `passes ${mm(gap)} from ${ant.id}`}; keep ${mm(minMm)}: turn or shorten the antenna (${ant.sourcePath})`)];
+    `prop ${prop.site} disc and ${ant.id}: clearance ${mm(gap)} is below ${mm(minMm)}${gap < 0 ? ' (it crosses it)' : ''}; turn or shorten the antenna (${ant.sourcePath})`)];
 }
 
 const poseCache = new WeakMap<Component, Map<number, readonly Prism[]>>();

@@ -5,7 +5,6 @@ export * from './chords.js';
 export * from './webs.js';
 export * from './holes.js';
 export * from './bitReach.js';
-export * from './relief.js';
 export * from './weave.js';
 export * from './camera.js';
 export * from './props.js';

@@ -1,6 +1,6 @@
 import { windingNumber } from '../geometry/inside.js';
 import { loopBBox } from '../geometry/loop.js';
-import type { Feature, Part } from '../geometry/part.js';
+import { featureLabel, type Feature, type Part } from '../geometry/part.js';
 import { closestPoint, segmentBBox } from '../geometry/segment.js';
 import type { BBox, Loop, Segment, Vec2 } from '../geometry/types.js';
 import { buildBoxGrid, queryBoxGrid, type BoxGrid } from './spatial.js';
@@ -23,10 +23,8 @@ export type PartIndex = Readonly<{
   spanMm: number;
 }>;
 
-export function contourLabel(f: Feature | null): string {
-  if (!f) return 'outline';
-  return `${f.purpose} ${f.kind}${f.diameterMm !== undefined ? ` Ø${f.diameterMm.toFixed(2)}` : ''}`;
-}
+/** A contour in words (see featureLabel). */
+export const contourLabel = (f: Feature | null): string => featureLabel(f);
 
 export function indexPart(part: Part): PartIndex {
   const loops: Array<{ loop: Loop; feature: Feature | null }> = [{ loop: part.outline, feature: null }, ...part.features.map((f) => ({ loop: f.loop, feature: f }))];
@@ -69,4 +67,21 @@ export function distanceToBoundary(ix: PartIndex, p: Vec2, radiusMm: number, sto
     }
   }
   return best;
+}
+
+/**
+ * Inner contours in the order of their bounding box's distance to the outline's bounding box, nearest
+ * first: a cheap guess at which are near the edge, so that the searches below find a small distance
+ * early and can stop the rest at it.
+ */
+export function edgeFirst(ix: PartIndex): number[] {
+  const o = ix.contours[0].bbox;
+  const gap = (k: number): number => {
+    const b = ix.contours[k].bbox;
+    return Math.min(b[0] - o[0], b[1] - o[1], o[2] - b[2], o[3] - b[3]);
+  };
+  const ids = ix.contours.slice(1).map((c) => c.index);
+  const key = new Float64Array(ix.contours.length);
+  for (const k of ids) key[k] = gap(k);
+  return ids.sort((a, b) => key[a] - key[b] || a - b);
 }

@@ -58,7 +58,7 @@ export function propClearanceRule(frame: Frame, o: CheckOptions, discs: readonly
   for (const g of tipGaps(discs)) {
     if (g.gapMm >= o.minTipGapMm) continue;
     out.push(finding(PROP_RULE, 'error', FRAME_PART, g.gapMm, o.minTipGapMm, 'mm', g.atMm,
-      `prop tips ${g.a} and ${g.b} are ${mm(g.gapMm)} apart, below ${mm(o.minTipGapMm)}; lengthen the arms or use smaller props`));
+      `${g.a} and ${g.b} prop tips: gap ${mm(g.gapMm)} is below ${mm(o.minTipGapMm)}; move the two motors ${mm(o.minTipGapMm - g.gapMm)} further apart (a longer wheelbase) or use smaller props`));
   }
   const a = assembly ?? buildAssembly(frame.design, frame);
   out.push(...propSweepFindings(a, o, PROP_RULE, prisms));
@@ -92,26 +92,24 @@ export function cameraViewRule(frame: Frame, o: CheckOptions, discs: readonly Pr
   const pose = cameraPose(frame, o);
   const c = frame.design.camera;
   if (!pose || !c || !o.limits['camera-view'].enabled) return [];
-  const out: Finding[] = [];
-  let visible = 0;
-  for (const disc of discs) {
-    const m = discViewMargin(pose, disc);
-    if (m > 0) continue;
-    visible++;
-    out.push(finding(CAMERA_RULE, 'warning', FRAME_PART, -m, 0, 'mm', disc.centerMm,
-      `${disc.id} prop is in the camera view: ${mm(-m)} of its disc lies inside the view in the prop plane (camera at ${pt([pose.eyeMm[0], pose.eyeMm[2]])} x/z, uptilt ${c.uptiltDeg}°)`));
-  }
-  if (visible === 0) return out;
+  const seen = discs.map((disc) => ({ disc, m: discViewMargin(pose, disc) })).filter((x) => x.m <= 0);
+  if (seen.length === 0) return [];
   const worst = (p: CameraPose): number => Math.min(...discs.map((d) => discViewMargin(p, d)));
   const off = smallestHiding((v) => worst(cameraPose(frame, o, v)!), FORWARD_OFFSET_RANGE_MM[0], FORWARD_OFFSET_RANGE_MM[1], 0.5);
   const up = smallestHiding((v) => worst(cameraPose(frame, o, undefined, v)!), c.uptiltMinDeg, c.uptiltMaxDeg, 0.25);
   const down = smallestHiding((v) => worst(cameraPose(frame, o, undefined, -v)!), -c.uptiltMaxDeg, -c.uptiltMinDeg, 0.25);
   const tilts = [up, down === null ? null : -down].filter((x): x is number => x !== null);
   const tilt = tilts.length ? tilts.reduce((a, b) => (Math.abs(a - c.uptiltDeg) <= Math.abs(b - c.uptiltDeg) ? a : b)) : null;
-  const parts = [
-    off === null ? `no camera.forwardOffsetMm up to ${FORWARD_OFFSET_RANGE_MM[1]} mm hides them` : `camera.forwardOffsetMm ≥ ${(Math.ceil(off * 100) / 100).toFixed(2)} mm (set ${c.forwardOffsetMm})`,
-    tilt === null ? `no uptilt in the slot's ${c.uptiltMinDeg}–${c.uptiltMaxDeg}° hides them` : `uptilt ${tilt.toFixed(2)}° (set ${c.uptiltDeg}°)`,
+  // One fix for every visible prop: the nearest camera setting that hides them all.
+  const fixes = [
+    ...(off !== null ? [`move the camera forward to camera.forwardOffsetMm ${(Math.ceil(off * 100) / 100).toFixed(2)} mm (now ${c.forwardOffsetMm} mm)`] : []),
+    ...(tilt !== null ? [`set the uptilt to ${tilt.toFixed(2)}° (now ${c.uptiltDeg}°)`] : []),
   ];
-  out.push(finding(CAMERA_RULE, 'info', FRAME_PART, off, null, 'mm', null, `no prop in view with ${parts.join(', or with ')}`));
-  return out;
+  const fix = fixes.length
+    ? fixes.join(' or ')
+    : `accept props in view or use a narrower lens, since no forward offset up to ${FORWARD_OFFSET_RANGE_MM[1]} mm and no uptilt in the slot's ${c.uptiltMinDeg}–${c.uptiltMaxDeg}° hides them`;
+  const where = `camera at x ${mm(pose.eyeMm[0])}, z ${mm(pose.eyeMm[2])}, uptilt ${c.uptiltDeg}°`;
+  return seen.map(({ disc, m }) =>
+    finding(CAMERA_RULE, 'warning', FRAME_PART, -m, 0, 'mm', disc.centerMm,
+      `${disc.id} prop in the camera view (${where}): ${mm(-m)} of its disc lies inside the view in the prop plane, above the limit ${mm(0)}; ${fix}`));
 }

@@ -1,5 +1,5 @@
 import type { Frame } from '../geometry/frame.js';
-import { partArea, partBBox, partCutLength } from '../geometry/metrics.js';
+import { partArea, partCutLength } from '../geometry/metrics.js';
 import type { Part } from '../geometry/part.js';
 import { bitReachRule } from './bitReach.js';
 import { loopChords } from './chords.js';
@@ -35,7 +35,8 @@ export function checkPart(part: Part, o: CheckOptions): PartCheck {
   const holes = boltHoles(ix);
   const edge = holeEdgeRule(ix, o, holes);
   const findings = [...webs.findings, ...edge.findings, ...holeStressRule(ix, o, holes), ...bitReachRule(ix, o, chords), ...weaveRule(part, o)];
-  const bb = partBBox(part);
+  // The outline's box is the part's (every inner contour lies inside it), already computed by the index.
+  const bb = ix.contours[0].bbox;
   const num = (x: number | null): number | null => (x === null ? null : r4(x));
   return {
     findings,
@@ -62,18 +63,72 @@ const SEVERITY_ORDER: Record<Severity, number> = { error: 0, warning: 1, info: 2
 /** Code-unit order: the same on every machine, unlike locale collation. */
 const cmp = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
 
-/** Assemble a report: findings in a stable order (part order, then severity, rule, position). */
+/**
+ * Findings of one rule closer than this on one part (or the frame) are one finding: the same neck
+ * or hole seen by several segment pairs or chords. mm.
+ */
+export const MERGE_DISTANCE_MM = 1;
+
+/** Rules whose measured value grows with the problem (the others measure a width, ratio or clearance). */
+const HIGHER_IS_WORSE: ReadonlySet<string> = new Set(['camera-view', 'hole-stress']);
+
+/** How bad a finding is, for choosing which of several at one place to keep: lower is worse. */
+function badness(f: Finding): [number, number] {
+  const m = f.measured ?? 0;
+  return [SEVERITY_ORDER[f.severity], HIGHER_IS_WORSE.has(f.rule) ? -m : m];
+}
+
+/**
+ * One finding per rule and place: of the findings of one rule on one part lying within
+ * MERGE_DISTANCE_MM of each other, the worst is kept (most severe, then furthest past its limit);
+ * findings without a place are kept once per message. Any two kept findings of one rule and part are
+ * at least MERGE_DISTANCE_MM apart. Uses a 1 mm grid, so it stays linear in the finding count.
+ */
+export function mergeFindings(findings: readonly Finding[]): Finding[] {
+  const ranked = [...findings].sort((a, b) => {
+    const [sa, ma] = badness(a);
+    const [sb, mb] = badness(b);
+    return sa - sb || ma - mb;
+  });
+  const cells = new Map<string, Finding[]>();
+  const seenMessages = new Set<string>();
+  const kept = new Set<Finding>();
+  const cellKey = (f: Finding, i: number, j: number): string => `${f.part}\u0000${f.rule}\u0000${i}\u0000${j}`;
+  for (const f of ranked) {
+    if (!f.atMm) {
+      const key = `${f.part}\u0000${f.rule}\u0000${f.message}`;
+      if (!seenMessages.has(key)) kept.add(f);
+      seenMessages.add(key);
+      continue;
+    }
+    const i = Math.floor(f.atMm[0] / MERGE_DISTANCE_MM);
+    const j = Math.floor(f.atMm[1] / MERGE_DISTANCE_MM);
+    let near = false;
+    for (let di = -1; di <= 1 && !near; di++) {
+      for (let dj = -1; dj <= 1 && !near; dj++) {
+        for (const g of cells.get(cellKey(f, i + di, j + dj)) ?? []) {
+          if (Math.hypot(g.atMm![0] - f.atMm[0], g.atMm![1] - f.atMm[1]) < MERGE_DISTANCE_MM) near = true;
+        }
+      }
+    }
+    if (near) continue;
+    kept.add(f);
+    const k = cellKey(f, i, j);
+    cells.set(k, [...(cells.get(k) ?? []), f]);
+  }
+  return findings.filter((f) => kept.has(f));
+}
+
+/**
+ * Assemble a report: findings merged (one per rule and place, `mergeFindings`) in a stable order
+ * (part order, then severity, rule, position).
+ */
 export function makeReport(parts: readonly PartMetrics[], findings: readonly Finding[]): CheckReport {
   const order = new Map(parts.map((p, i) => [p.name, i]));
-  const sorted = [...findings].sort(
-    (a, b) =>
-      (order.get(a.part) ?? parts.length) - (order.get(b.part) ?? parts.length) ||
-      SEVERITY_ORDER[a.severity] - SEVERITY_ORDER[b.severity] ||
-      cmp(a.rule, b.rule) ||
-      (a.atMm?.[0] ?? 0) - (b.atMm?.[0] ?? 0) ||
-      (a.atMm?.[1] ?? 0) - (b.atMm?.[1] ?? 0) ||
-      cmp(a.message, b.message),
-  );
+  // Sort keys computed once per finding (thousands of findings on a drilled plate).
+  const keyed = mergeFindings(findings).map((f) => ({ f, part: order.get(f.part) ?? parts.length, sev: SEVERITY_ORDER[f.severity], x: f.atMm?.[0] ?? 0, y: f.atMm?.[1] ?? 0 }));
+  keyed.sort((a, b) => a.part - b.part || a.sev - b.sev || cmp(a.f.rule, b.f.rule) || a.x - b.x || a.y - b.y || cmp(a.f.message, b.f.message));
+  const sorted = keyed.map((k) => k.f);
   return {
     units: 'mm',
     parts,
@@ -93,15 +148,36 @@ export function checkParts(parts: readonly Part[], options: CheckOptions): Check
 }
 
 /**
+ * Part results kept between checks of the same design as it is edited (the live page): a part whose
+ * geometry and options are unchanged is not checked again. Keyed by the part and options as JSON.
+ */
+export type PartCheckCache = Map<string, PartCheck>;
+
+/** Entries a cache keeps: a frame has a handful of distinct parts, a few edits' worth is plenty. */
+const CACHE_ENTRIES = 64;
+
+function checkPartCached(part: Part, o: CheckOptions, cache: PartCheckCache | undefined): PartCheck {
+  if (!cache) return checkPart(part, o);
+  const key = JSON.stringify([part, o]);
+  const hit = cache.get(key);
+  if (hit) return hit;
+  const result = checkPart(part, o);
+  if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value as string);
+  cache.set(key, result);
+  return result;
+}
+
+/**
  * Every rule for a built frame: the part rules for each distinct part plus the frame rules on the
  * assembled frame (prop tip gaps and prop discs against every solid, props in the camera view,
  * interference, stack, camera and battery fit, motor screws). The assembly is built when not given. Options default from the design's `checks` section, its cutting tool
- * and props.minTipGapMm.
+ * and props.minTipGapMm. `cache` (optional) reuses the part results of earlier calls for parts that
+ * have not changed; the report is the same with or without it.
  * @example const report = checkFrame(buildFrame(design)); if (report.summary.errors) ...
  */
-export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}, assembly: Assembly = buildAssembly(frame.design, frame)): CheckReport {
+export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}, assembly: Assembly = buildAssembly(frame.design, frame), cache?: PartCheckCache): CheckReport {
   const o = optionsForDesign(frame.design, options);
-  const results = frame.parts.map((p) => checkPart(p, o));
+  const results = frame.parts.map((p) => checkPartCached(p, o, cache));
   const discs = propDiscs(frame);
   const prisms = assemblyPrisms(assembly);
   const frameFindings = [...propClearanceRule(frame, o, discs, assembly, prisms), ...cameraViewRule(frame, o, discs), ...fitFindings(frame, assembly, o, prisms)];

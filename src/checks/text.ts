@@ -1,3 +1,4 @@
+import { plural } from '../params/words.js';
 import type { CheckReport, Finding } from './types.js';
 
 /** The cautions every check report ends with (see README, Safety). */
@@ -19,7 +20,7 @@ function grouped(fs: readonly Finding[]): Array<{ f: Finding; at: Array<readonly
   const out: Array<{ f: Finding; at: Array<readonly [number, number]> }> = [];
   const byKey = new Map<string, { f: Finding; at: Array<readonly [number, number]> }>();
   for (const f of fs) {
-    const key = JSON.stringify([f.severity, f.rule, f.measured, f.limit, f.unit, f.message]);
+    const key = JSON.stringify([f.part, f.severity, f.rule, f.measured, f.limit, f.unit, f.message]);
     let g = byKey.get(key);
     if (!g) {
       g = { f, at: [] };
@@ -33,43 +34,73 @@ function grouped(fs: readonly Finding[]): Array<{ f: Finding; at: Array<readonly
 
 function line(g: { f: Finding; at: ReadonlyArray<readonly [number, number]> }): string {
   const f = g.f;
-  const sev = f.severity === 'error' ? 'ERROR  ' : f.severity === 'warning' ? 'warning' : 'info   ';
+  const sev = f.severity === 'error' ? 'ERROR  ' : f.severity === 'warning' ? 'warning' : 'note   ';
   const value = f.measured === null ? '' : ` ${num(f.measured, f.unit)}${f.limit === null ? '' : ` (limit ${num(f.limit, f.unit)})`}`;
   const pts = g.at.map((p) => `(${p[0].toFixed(2)}, ${p[1].toFixed(2)})`);
   const at = pts.length === 0 ? '' : pts.length === 1 ? ` at ${pts[0]}` : ` ×${pts.length} at ${pts.join(' ')}`;
-  return `  ${sev} ${f.rule}${value}${at}\n           ${f.message}`;
+  return `  ${sev} ${f.part || '(file)'}${value}${at}\n          ${f.message}`;
 }
 
 /** One-line summary, e.g. "2 errors, 5 warnings, 9 notes". */
 export function summaryLine(r: CheckReport): string {
   const notes = r.findings.filter((f) => f.severity === 'info').length;
-  const plural = (n: number, w: string): string => `${n} ${w}${n === 1 ? '' : 's'}`;
   return `${plural(r.summary.errors, 'error')}, ${plural(r.summary.warnings, 'warning')}, ${plural(notes, 'note')}`;
 }
 
+type RuleCount = { rule: string; errors: number; warnings: number; notes: number };
+
+/** Finding counts per rule, errors first (then warnings, then notes, then the rule's name). */
+export function countsByRule(r: CheckReport): RuleCount[] {
+  const by = new Map<string, RuleCount>();
+  for (const f of r.findings) {
+    const c = by.get(f.rule) ?? { rule: f.rule, errors: 0, warnings: 0, notes: 0 };
+    if (f.severity === 'error') c.errors++;
+    else if (f.severity === 'warning') c.warnings++;
+    else c.notes++;
+    by.set(f.rule, c);
+  }
+  return [...by.values()].sort((a, b) => b.errors - a.errors || b.warnings - a.warnings || b.notes - a.notes || (a.rule < b.rule ? -1 : a.rule > b.rule ? 1 : 0));
+}
+
+const countWords = (c: RuleCount): string =>
+  [c.errors ? plural(c.errors, 'error') : '', c.warnings ? plural(c.warnings, 'warning') : '', c.notes ? plural(c.notes, 'note') : ''].filter(Boolean).join(', ');
+
 /**
- * The report as plain text for a terminal: findings grouped by part (severity, rule, measured
- * value, limit, location, advice; the same finding at several places printed once with each place; part coordinates for parts, frame coordinates for "frame"), a
- * footer with the counts and the safety cautions. Deterministic.
+ * The report as plain text for a terminal: the counts per rule (errors first), then the findings
+ * grouped by rule in that order (severity, part, measured value, limit, places, message with its
+ * fix; the same finding at several places printed once with each place), then each part's
+ * measurements, the totals and the safety cautions. Places are part coordinates, or frame
+ * coordinates (x forward, y left) for "frame". Deterministic.
  */
 export function formatCheckReport(r: CheckReport, heading: string): string {
   const out: string[] = [heading, ''];
-  const names = [...r.parts.map((p) => p.name), ...new Set(r.findings.map((f) => f.part).filter((n) => !r.parts.some((p) => p.name === n)))];
-  for (const name of names) {
-    const p = r.parts.find((q) => q.name === name);
-    const m = p?.metrics;
-    const facts = p
-      ? ` (${p.thicknessMm} mm, ${p.contours} contours, min web ${num(m!.minWebMm, 'mm')}, min e/D ${num(m!.minEdgeRatio, '')})`
-      : name === 'frame' ? ' (frame coordinates: x forward, y left)' : '';
-    out.push(`${name || '(file)'}${facts}`);
-    const fs = r.findings.filter((f) => f.part === name);
-    if (fs.length === 0) out.push('  no findings');
+  const counts = countsByRule(r);
+  out.push(`Summary: ${summaryLine(r)}.`);
+  if (counts.length) {
+    const w = Math.max(4, ...counts.map((c) => c.rule.length));
+    out.push(`  ${'rule'.padEnd(w)}  errors  warnings  notes`);
+    for (const c of counts) out.push(`  ${c.rule.padEnd(w)}  ${String(c.errors).padStart(6)}  ${String(c.warnings).padStart(8)}  ${String(c.notes).padStart(5)}`);
+  }
+  out.push('');
+  const partOrder = new Map(r.parts.map((p, i) => [p.name, i]));
+  for (const c of counts) {
+    out.push(`${c.rule}: ${countWords(c)}`);
+    const fs = r.findings
+      .filter((f) => f.rule === c.rule)
+      .sort((a, b) => SEVERITY_RANK[a.severity] - SEVERITY_RANK[b.severity] || (partOrder.get(a.part) ?? r.parts.length) - (partOrder.get(b.part) ?? r.parts.length));
     for (const g of grouped(fs)) out.push(line(g));
     out.push('');
   }
-  out.push(`${summaryLine(r)}.`, '', ...CHECK_CAUTIONS.map((c) => `Caution: ${c}`), '');
+  out.push('Parts (findings above give places in part coordinates; "frame" in frame coordinates: x forward, y left):');
+  for (const p of r.parts) {
+    const m = p.metrics;
+    out.push(`${p.name}: ${p.thicknessMm} mm, ${p.contours} contours, min web ${num(m.minWebMm, 'mm')}, min e/D ${num(m.minEdgeRatio, '')}`);
+  }
+  out.push('', `${summaryLine(r)}.`, '', ...CHECK_CAUTIONS.map((c) => `Caution: ${c}`), '');
   return out.join('\n');
 }
+
+const SEVERITY_RANK = { error: 0, warning: 1, info: 2 } as const;
 
 /** What `build` does with a check report: refuse (exit 1), or write and say so in the files. */
 export type BuildGate = Readonly<{ refuse: boolean; comment: string | undefined; message: string }>;

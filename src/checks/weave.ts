@@ -58,27 +58,28 @@ export function weaveRule(part: Part, o: CheckOptions): Finding[] {
   const mat = part.material;
   const onAxis = Math.max(mat.e1Gpa, mat.e2Gpa);
   const out: Finding[] = [];
-  let low = false;
   const rows = part.members.map((m) => {
     const theta = memberAngleRad(m) - part.weaveRad;
     const ex = exAt(mat, theta);
     return { m, theta, ex, frac: ex / onAxis };
   });
+  // The advice for a weak strut: the weave angle that raises the weakest member most.
+  const best = rows.some((r) => r.frac < lim.minModulusFraction) ? bestWeave(mat, part.members) : null;
+  const key = part.role === 'imported' ? 'weaveDeg' : `${part.sourcePath}.weaveDeg`;
   for (const r of rows) {
     const at: Vec2 = mid(r.m.startMm, r.m.endMm);
     const off = radToDeg(angleToFibre(r.theta));
     const warn = r.frac < lim.minModulusFraction;
-    low ||= warn;
+    const facts = `${off.toFixed(1)}° from the nearest fibre direction, Ex ${r.ex.toFixed(1)} of ${onAxis.toFixed(1)} GPa on axis`;
+    const advice =
+      best && best.minExGpa / onAxis > r.frac + 0.005
+        ? `lay the weave at ${best.weaveDeg.toFixed(2)}° (${key}) to raise the weakest strut to Ex/E ${(best.minExGpa / onAxis).toFixed(2)}, or run the strut along a fibre direction`
+        : 'run the strut along a fibre direction (0° or 90° to the weave)';
     out.push(
       finding(WEAVE_RULE, warn ? 'warning' : 'info', part.name, r.frac, lim.minModulusFraction, 'Ex/E', at,
-        `${r.m.name}: ${off.toFixed(1)}° from the nearest fibre direction, Ex ${r.ex.toFixed(1)} GPa = ${(100 * r.frac).toFixed(0)} % of on-axis ${onAxis.toFixed(1)} GPa`),
-    );
-  }
-  if (low) {
-    const b = bestWeave(mat, part.members);
-    out.push(
-      finding(WEAVE_RULE, 'info', part.name, b.minExGpa / onAxis, lim.minModulusFraction, 'Ex/E', null,
-        `lay the part with its weave at ${b.weaveDeg.toFixed(2)}° (${part.role === 'imported' ? 'weaveDeg' : `${part.sourcePath}.weaveDeg`}) to raise the weakest member to Ex ${b.minExGpa.toFixed(1)} GPa (${(100 * b.minExGpa / onAxis).toFixed(0)} %)`),
+        warn
+          ? `${r.m.name}: Ex/E ${r.frac.toFixed(2)} is below ${lim.minModulusFraction.toFixed(2)} (${facts}); ${advice}`
+          : `${r.m.name}: Ex/E ${r.frac.toFixed(2)} meets ${lim.minModulusFraction.toFixed(2)} (${facts}); no change needed`),
     );
   }
   return out;

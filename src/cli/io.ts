@@ -129,6 +129,20 @@ export async function readDesign(path: string): Promise<Design> {
 
 export { writeAllAtomically, recoverOutputs, SET_MARKER, type OutputFile } from './outputSet.js';
 
+/**
+ * An error as the JSON object `--json` prints on standard output: `{ "error": { "message", "path" } }`,
+ * plus every issue for a design with several problems. `path` names the parameter, option or file
+ * at fault ('' when none is known).
+ */
+export function errorJson(e: unknown): { error: { message: string; path: string; issues?: Array<{ path: string; message: string }> } } {
+  if (e instanceof DesignError) {
+    return { error: { message: e.message, path: e.issues[0]?.path ?? '', issues: e.issues.map((i) => ({ path: i.path, message: i.message })) } };
+  }
+  const message = (e as Error)?.message ?? String(e);
+  if (e instanceof UsageError) return { error: { message, path: e.path || (/^(--[a-z0-9-]+)\b/.exec(message)?.[1] ?? /^cannot read (\S+):/.exec(message)?.[1] ?? '') } };
+  return { error: { message: `internal error (please report it with the design file): ${message}`, path: '' } };
+}
+
 /** Turn an error into a message and exit code; a bug (anything unexpected) keeps its stack. */
 export function reportError(e: unknown): number {
   if (e instanceof DesignError) {

@@ -1,5 +1,5 @@
 import { Command } from 'commander';
-import { reportError } from './io.js';
+import { errorJson, reportError } from './io.js';
 import { registerCommands } from './commands/index.js';
 
 /**
@@ -20,6 +20,9 @@ export async function runCommandLine(argv: readonly string[]): Promise<number> {
   registerCommands(program);
   // Commands report "the checks found errors" through process.exitCode; start from a clean slate.
   process.exitCode = undefined;
+  // `--json` among the arguments (before a `--`): failures are then also printed as JSON on stdout.
+  const args = argv.slice(2);
+  const jsonWanted = args.slice(0, args.includes('--') ? args.indexOf('--') : undefined).includes('--json');
   try {
     await program.parseAsync([...argv]);
     return typeof process.exitCode === 'number' ? process.exitCode : 0;
@@ -27,8 +30,11 @@ export async function runCommandLine(argv: readonly string[]): Promise<number> {
     const code = (e as { code?: string }).code;
     if (typeof code === 'string' && code.startsWith('commander.')) {
       const helpOrVersion = code === 'commander.helpDisplayed' || code === 'commander.version' || code === 'commander.help';
+      if (!helpOrVersion && jsonWanted) process.stdout.write(`${JSON.stringify({ error: { message: (e as Error).message.replace(/^error: /, ''), path: '' } }, null, 2)}\n`);
       return helpOrVersion ? 0 : 2;
     }
-    return reportError(e);
+    const exit = reportError(e);
+    if (jsonWanted) process.stdout.write(`${JSON.stringify(errorJson(e), null, 2)}\n`);
+    return exit;
   }
 }

@@ -9,8 +9,15 @@ import { loopPathData } from './svgPath.js';
 const PT_PER_MM = 72 / 25.4;
 
 const LINE_MM: Record<Stroke, number> = { outline: 0.35, thin: 0.18, frame: 0.5 };
+const REGULAR = 'drawing-regular';
+const BOLD = 'drawing-bold';
+
+/** The drawing font's files (TrueType, OpenType or WOFF bytes), embedded as subsets in the PDF. */
+export type DrawingFonts = Readonly<{ regular: Uint8Array; bold: Uint8Array }>;
 
 export type PdfDrawingOptions = Readonly<{
+  /** The font to embed (the CLI reads DejaVu Sans from its npm package: src/cli/fonts.ts). */
+  fonts: DrawingFonts;
   /**
    * The document's creation date written into the PDF info (bytes stay the same for the same input):
    * the drawing's own date when it has one, else 2000-01-01. Never the clock.
@@ -19,11 +26,12 @@ export type PdfDrawingOptions = Readonly<{
 }>;
 
 /**
- * The drawing set as a multi-page PDF (A4 landscape, built-in Helvetica, no embedded fonts). The
- * sheets are laid out by src/quote (layoutDrawing) and passed in; this only serialises them. Deterministic: a fixed
- * creation date and no other varying metadata, so the same set gives the same bytes.
+ * The drawing set as a multi-page PDF (A4 landscape) with the given font embedded (subset), so it
+ * prints the same everywhere. The sheets are laid out by src/quote (layoutDrawing, measured with the
+ * same font's widths) and passed in; this only serialises them. Deterministic: a fixed creation date
+ * and no other varying metadata, so the same set gives the same bytes.
  */
-export async function drawingToPdf(set: DrawingSet, sheets: readonly PaperSheet[], options: PdfDrawingOptions = {}): Promise<Uint8Array> {
+export async function drawingToPdf(set: DrawingSet, sheets: readonly PaperSheet[], options: PdfDrawingOptions): Promise<Uint8Array> {
   const date = options.creationDate ?? dateOf(set.date);
   const doc = new PDFDocument({
     autoFirstPage: false,
@@ -36,6 +44,8 @@ export async function drawingToPdf(set: DrawingSet, sheets: readonly PaperSheet[
     doc.on('end', () => resolve());
     doc.on('error', reject);
   });
+  doc.registerFont(REGULAR, Buffer.from(options.fonts.regular));
+  doc.registerFont(BOLD, Buffer.from(options.fonts.bold));
   for (const sheet of sheets) page(doc, sheet);
   doc.end();
   await done;
@@ -75,7 +85,7 @@ function draw(doc: PDFKit.PDFDocument, item: PaperItem, flip: (p: Vec2) => Vec2)
     }
     case 'text': {
       const at = flip(item.at);
-      doc.font(item.bold ? 'Helvetica-Bold' : 'Helvetica').fontSize(item.sizeMm).fillColor('black');
+      doc.font(item.bold ? BOLD : REGULAR).fontSize(item.sizeMm).fillColor('black');
       const text = plainLine(item.text);
       const w = doc.widthOfString(text);
       const dx = item.anchor === 'start' ? 0 : item.anchor === 'middle' ? -w / 2 : -w;

@@ -23,7 +23,7 @@ function sheetSvg(sheet: PaperSheet): string {
     `<svg xmlns="http://www.w3.org/2000/svg" width="${fmt(sheet.widthMm)}mm" height="${fmt(sheet.heightMm)}mm" viewBox="0 0 ${fmt(sheet.widthMm)} ${fmt(sheet.heightMm)}">`,
     `<title>${xmlEscape(sheet.title)}</title>`,
     `<rect x="0" y="0" width="${fmt(sheet.widthMm)}" height="${fmt(sheet.heightMm)}" fill="#ffffff"/>`,
-    '<g font-family="Helvetica, Arial, sans-serif" fill="none" stroke="#000000" stroke-linecap="round" stroke-linejoin="round">',
+    '<g font-family="sans-serif" fill="none" stroke="#000000" stroke-linecap="round" stroke-linejoin="round">',
     ...body,
     '</g>',
     '</svg>',
@@ -82,10 +82,10 @@ export function sheetLayoutToSvg(sheet: NestedSheet, parts: readonly Part[], opt
     for (const f of part.features) out.push(`<path stroke="#d00000" d="${loopPathData(transformLoop(f.loop, pl.transform), flip)}"/>`);
     const b = loopBBox(outline);
     const c = flip([(b[0] + b[2]) / 2, (b[1] + b[3]) / 2]);
-    out.push(`<text x="${fmt(c[0], 3)}" y="${fmt(c[1], 3)}" font-size="3" font-family="Helvetica, Arial, sans-serif" text-anchor="middle" fill="#000000" stroke="none">${xmlEscape(`${pl.partName} ${pl.copy + 1}`)}</text>`);
+    out.push(`<text x="${fmt(c[0], 3)}" y="${fmt(c[1], 3)}" font-size="3" font-family="sans-serif" text-anchor="middle" fill="#000000" stroke="none">${xmlEscape(`${pl.partName} ${pl.copy + 1}`)}</text>`);
   }
   out.push('</g>');
-  if (options.note) out.push(`<text x="2" y="${fmt(H - 2)}" font-size="3.5" font-family="Helvetica, Arial, sans-serif" fill="#000000">${xmlEscape(options.note)}</text>`);
+  if (options.note) out.push(`<text x="2" y="${fmt(H - 2)}" font-size="3.5" font-family="sans-serif" fill="#000000">${xmlEscape(options.note)}</text>`);
   out.push('</svg>', '');
   return out.join('\n');
 }

@@ -1,57 +1,83 @@
 import type { FrameAnnotation, Marker } from '../checks/annotate.js';
+import type { Vec2 } from '../geometry/types.js';
 import { fmt, xmlEscape } from './format.js';
+import { EMPTY_BOX, padBox, PLAN_VIEW, unionBox, type Box, type LabelRequest, type LegendEntry } from './picture.js';
+import type { Annotation } from './svgPart.js';
 
 const COLOR = { error: '#d00000', warning: '#e08a00', info: '#2a6fb0' } as const;
+const SEVERITIES = ['error', 'warning', 'info'] as const;
+const MARKER_LABEL_MM = 3;
 
 /**
- * Check findings as SVG overlay markup in the drawing's own coordinates (y up): a ring and a number
- * per marker, with the finding as a tooltip. `flip` is the linear part of the overlay's transform
- * (an involution), applied again to each label so the text reads upright.
+ * Check findings as an annotation in the plan-view convention: a ring per marker (the finding as a
+ * tooltip), its number placed by the label placer, and a legend row per severity present. The
+ * markers are in model coordinates (part, or frame: x forward, y left).
  */
-export function markersOverlay(markers: readonly Marker[], options: { radiusMm?: number; flip?: string } = {}): string {
-  const r = options.radiusMm ?? 2.5;
-  const flip = options.flip ?? 'scale(1 -1)';
-  return markers
-    .map((m) => {
-      const [x, y] = m.atMm;
-      const c = COLOR[m.severity];
-      return [
-        `<g class="finding ${m.severity}"><title>${xmlEscape(m.title)}</title>`,
-        `<circle cx="${fmt(x, 3)}" cy="${fmt(y, 3)}" r="${fmt(r, 3)}" fill="${c}" fill-opacity="0.15" stroke="${c}" stroke-width="0.5"/>`,
-        `<g transform="translate(${fmt(x + r, 3)} ${fmt(y + r, 3)}) ${flip}"><text font-size="3" font-family="sans-serif" fill="${c}">${xmlEscape(m.label)}</text></g>`,
-        '</g>',
-      ].join('');
-    })
-    .join('\n');
+export function markersAnnotation(markers: readonly Marker[], radiusMm = 2.5): Annotation {
+  const map = PLAN_VIEW.map;
+  const body: string[] = [];
+  const labels: LabelRequest[] = [];
+  const obstacles: Box[] = [];
+  let box: Box = EMPTY_BOX;
+  for (const m of markers) {
+    const [x, y] = map(m.atMm);
+    const c = COLOR[m.severity];
+    body.push(`<g class="finding ${m.severity}"><title>${xmlEscape(m.title)}</title><circle cx="${fmt(x, 3)}" cy="${fmt(y, 3)}" r="${fmt(radiusMm, 3)}" fill="${c}" fill-opacity="0.15" stroke="${c}" stroke-width="0.5"/></g>`);
+    const ring = padBox({ x0: x, y0: y, x1: x, y1: y }, radiusMm + 0.25);
+    box = unionBox(box, ring);
+    obstacles.push(ring);
+    labels.push({ anchor: [x, y], text: m.label, sizeMm: MARKER_LABEL_MM, fill: c, cls: `label ${m.severity}`, clearMm: radiusMm + 0.3 });
+  }
+  const present = SEVERITIES.filter((s) => markers.some((m) => m.severity === s));
+  const legend: LegendEntry[] = present.map((s) => ({ symbol: 'ring', colour: COLOR[s], label: `${s} (number = place in the report)` }));
+  return { body, labels, legend, box, obstacles };
 }
 
+const path = (pts: readonly Vec2[]): string => pts.map((p, i) => `${i ? 'L' : 'M'}${fmt(p[0], 3)} ${fmt(p[1], 3)}`).join(' ') + ' Z';
+
 /**
- * Overlay for the plan-view overview (frame coordinates): the camera's view in the prop plane,
- * prop discs that show in it, adjacent tip-gap lines with their gaps, the frame findings and the
- * safety cautions.
+ * The overview's check annotation (frame coordinates → plan view): the camera's view in the prop
+ * plane, prop discs that show in it, adjacent tip-gap lines with their gaps, the frame findings, a
+ * legend for all of them and the safety cautions as notes.
  */
-export function frameFindingsOverlay(a: FrameAnnotation): string {
-  const flip = 'matrix(0 -1 -1 0 0 0)';
-  const out: string[] = [];
+export function frameFindingsAnnotation(a: FrameAnnotation): Annotation {
+  const map = PLAN_VIEW.map;
+  const body: string[] = [];
+  const labels: LabelRequest[] = [];
+  const legend: LegendEntry[] = [];
+  let box: Box = EMPTY_BOX;
   if (a.viewRegion && a.viewRegion.length >= 3) {
-    const d = a.viewRegion.map((p, i) => `${i ? 'L' : 'M'}${fmt(p[0], 3)} ${fmt(p[1], 3)}`).join(' ') + ' Z';
-    out.push(`<path d="${d}" fill="#ffd400" fill-opacity="0.18" stroke="#b89800" stroke-width="0.4"><title>camera view in the prop plane</title></path>`);
+    const pts = a.viewRegion.map(map);
+    body.push(`<path d="${path(pts)}" fill="#ffd400" fill-opacity="0.18" stroke="#b89800" stroke-width="0.4"><title>camera view in the prop plane</title></path>`);
+    for (const p of pts) box = unionBox(box, padBox({ x0: p[0], y0: p[1], x1: p[0], y1: p[1] }, 0.2));
+    legend.push({ symbol: 'fill', colour: '#ffd400', opacity: 0.4, label: 'camera view in the prop plane' });
   }
-  if (a.eyeMm) out.push(`<circle cx="${fmt(a.eyeMm[0], 3)}" cy="${fmt(a.eyeMm[1], 3)}" r="1.5" fill="#b89800"><title>camera</title></circle>`);
-  for (const d of a.discs) {
-    if (!d.visible) continue;
-    out.push(`<circle cx="${fmt(d.centerMm[0], 3)}" cy="${fmt(d.centerMm[1], 3)}" r="${fmt(d.radiusMm, 3)}" fill="#d00000" fill-opacity="0.12" stroke="#d00000" stroke-width="0.5"><title>${xmlEscape(`${d.id} prop visible to the camera`)}</title></circle>`);
+  if (a.eyeMm) {
+    const e = map(a.eyeMm);
+    body.push(`<circle cx="${fmt(e[0], 3)}" cy="${fmt(e[1], 3)}" r="1.5" fill="#b89800"><title>camera</title></circle>`);
+    legend.push({ symbol: 'dot', colour: '#b89800', label: 'camera' });
   }
+  const visible = a.discs.filter((d) => d.visible);
+  for (const d of visible) {
+    const c = map(d.centerMm);
+    body.push(`<circle cx="${fmt(c[0], 3)}" cy="${fmt(c[1], 3)}" r="${fmt(d.radiusMm, 3)}" fill="#d00000" fill-opacity="0.12" stroke="#d00000" stroke-width="0.5"><title>${xmlEscape(`${d.id} prop visible to the camera`)}</title></circle>`);
+    box = unionBox(box, padBox({ x0: c[0], y0: c[1], x1: c[0], y1: c[1] }, d.radiusMm + 0.25));
+  }
+  if (visible.length) legend.push({ symbol: 'fill', colour: '#d00000', opacity: 0.25, label: 'prop seen by the camera' });
   for (const g of a.tipGaps) {
-    out.push(`<line x1="${fmt(g.a[0], 3)}" y1="${fmt(g.a[1], 3)}" x2="${fmt(g.b[0], 3)}" y2="${fmt(g.b[1], 3)}" stroke="#3b82c4" stroke-width="0.4"/>`);
-    const m = [(g.a[0] + g.b[0]) / 2, (g.a[1] + g.b[1]) / 2];
-    out.push(`<g transform="translate(${fmt(m[0], 3)} ${fmt(m[1], 3)}) ${flip}"><text font-size="3.5" font-family="sans-serif" fill="#3b82c4" text-anchor="middle">${xmlEscape(`${fmt(g.gapMm, 1)} mm`)}</text></g>`);
+    const p = map(g.a);
+    const q = map(g.b);
+    body.push(`<line x1="${fmt(p[0], 3)}" y1="${fmt(p[1], 3)}" x2="${fmt(q[0], 3)}" y2="${fmt(q[1], 3)}" stroke="#3b82c4" stroke-width="0.4"/>`);
+    labels.push({ anchor: [(p[0] + q[0]) / 2, (p[1] + q[1]) / 2], text: `${fmt(g.gapMm, 1)} mm`, sizeMm: 3.2, fill: '#3b82c4', cls: 'label gap' });
   }
-  out.push(markersOverlay(a.markers, { flip, radiusMm: 3 }));
-  a.cautions.lines.forEach((text, i) => {
-    // One line every 5 mm towards the rear (down the page).
-    const at = [a.cautions.atMm[0] - 5 * i, a.cautions.atMm[1]];
-    out.push(`<g transform="translate(${fmt(at[0], 3)} ${fmt(at[1], 3)}) ${flip}"><text font-size="3.2" font-family="sans-serif" fill="#444444">${xmlEscape(text)}</text></g>`);
-  });
-  return out.join('\n');
+  if (a.tipGaps.length) legend.push({ symbol: 'line', colour: '#3b82c4', label: 'prop tip gap' });
+  const m = markersAnnotation(a.markers, 3);
+  return {
+    body: [...body, ...m.body],
+    labels: [...m.labels, ...labels],
+    legend: [...legend, ...m.legend],
+    box: unionBox(box, m.box),
+    obstacles: m.obstacles,
+    notes: a.cautions.lines,
+  };
 }

@@ -1,5 +1,6 @@
 import type { Loop, Vec2 } from '../geometry/types.js';
-import { fmt, xmlEscape } from './format.js';
+import { fmt } from './format.js';
+import { EMPTY_BOX, padBox, pictureSvg, PLAN_VIEW, unionBox, type LegendEntry } from './picture.js';
 import { loopPathData } from './svgPath.js';
 
 /** What a mode-shape picture shows: computed data only (the analysis made the mesh and the shape). */
@@ -23,6 +24,8 @@ export type ModePlot = Readonly<{
   loops: readonly Loop[];
   /** A marked point (the flight-controller stack), part coordinates. */
   markerMm?: Vec2;
+  /** Word under the up arrow (where the part's +x points); default "front". */
+  front?: string;
 }>;
 
 const CAUTION = 'Estimate from a plate model, not a certification. Test a new frame with props off first.';
@@ -36,27 +39,20 @@ export function divergingColour(t: number): string {
 }
 
 /**
- * A mode shape as SVG: each mesh triangle filled with the colour of its mean out-of-plane
- * displacement (blue down, red up, white still), the exact outline on top, a legend bar, the
- * frequency and description, and a caution line. One user unit = 1 mm; deterministic output.
+ * A mode shape as SVG in the plan-view convention (part +x up): each mesh triangle filled with the
+ * colour of its mean out-of-plane displacement (blue down, red up, white still), the exact outline
+ * on top, a colour bar, front arrow and scale bar, the frequency and description, and a caution.
+ * One user unit = 1 mm; deterministic output.
  */
 export function modeShapeSvg(plot: ModePlot): string {
   const { xy, triangles, w } = plot;
+  const map = PLAN_VIEW.map;
   const words = plot.legend ?? ['down', 'still', 'up'];
-  let [x0, y0, x1, y1] = [Infinity, Infinity, -Infinity, -Infinity];
+  let box = EMPTY_BOX;
   for (let i = 0; i < xy.length; i += 2) {
-    x0 = Math.min(x0, xy[i]);
-    x1 = Math.max(x1, xy[i]);
-    y0 = Math.min(y0, xy[i + 1]);
-    y1 = Math.max(y1, xy[i + 1]);
+    const p = map([xy[i], xy[i + 1]]);
+    box = unionBox(box, { x0: p[0], y0: p[1], x1: p[0], y1: p[1] });
   }
-  const m = 5;
-  const text = 4;
-  const legend = 8;
-  const width = Math.max(x1 - x0 + 2 * m, 100);
-  const height = y1 - y0 + 2 * m + 4 * text + legend + 6;
-  const top = 3 * text + 2;
-  const map = (p: Vec2): Vec2 => [p[0] - x0 + m, top + (y1 - p[1]) + m];
   let big = 0;
   for (const v of w) big = Math.max(big, Math.abs(v));
   const scale = big > 0 ? 1 / big : 1;
@@ -69,43 +65,26 @@ export function modeShapeSvg(plot: ModePlot): string {
     // A hairline stroke of the same colour hides the anti-aliasing seams between triangles.
     tris.push(`<polygon points="${pts.join(' ')}" fill="${colour}" stroke="${colour}"/>`);
   }
-  const barY = height - legend - text - 2;
-  const barX = m;
-  const barW = Math.min(60, width - 2 * m);
-  const steps = 20;
-  const bar = Array.from({ length: steps }, (_, i) => {
-    const t = -1 + (2 * (i + 0.5)) / steps;
-    return `<rect x="${fmt(barX + (i * barW) / steps, 3)}" y="${fmt(barY, 3)}" width="${fmt(barW / steps + 0.01, 3)}" height="3" fill="${divergingColour(t)}"/>`;
+  const body = [`<g id="shape" stroke-width="0.05">`, ...tris, '</g>', `<g id="outline" fill="none" stroke="#000000" stroke-width="0.25">`, ...plot.loops.map((l) => `<path d="${loopPathData(l, map)}"/>`), '</g>'];
+  const legend: LegendEntry[] = [{ symbol: 'line', colour: '#000000', label: 'outline and holes' }];
+  if (plot.markerMm) {
+    const p = map(plot.markerMm);
+    body.push(`<g id="stack" fill="none" stroke="#000000" stroke-width="0.3"><circle cx="${fmt(p[0], 3)}" cy="${fmt(p[1], 3)}" r="1.5"/><path d="M${fmt(p[0] - 2.5, 3)} ${fmt(p[1], 3)}H${fmt(p[0] + 2.5, 3)}M${fmt(p[0], 3)} ${fmt(p[1] - 2.5, 3)}V${fmt(p[1] + 2.5, 3)}"/></g>`);
+    box = unionBox(box, padBox({ x0: p[0], y0: p[1], x1: p[0], y1: p[1] }, 2.7));
+    legend.push({ symbol: 'cross', colour: '#000000', label: 'flight-controller stack' });
+  }
+  return pictureSvg({
+    title: `${plot.title}: ${fmt(plot.frequencyHz, 1)} Hz`,
+    heading: `${fmt(plot.frequencyHz, 1)} Hz — ${plot.title}`,
+    body,
+    contentBox: padBox(box, 0.2),
+    front: plot.front ?? 'front',
+    colourBar: {
+      colours: Array.from({ length: 20 }, (_, i) => divergingColour(-1 + (2 * (i + 0.5)) / 20)),
+      words: [words[0], words[1], words[2]],
+      caption: plot.legendCaption ?? 'out-of-plane displacement, relative to the largest',
+    },
+    legend,
+    notes: [plot.description, ...(plot.subtitle ? [plot.subtitle] : []), CAUTION],
   });
-  const lines = [
-    '<?xml version="1.0" encoding="UTF-8"?>',
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${fmt(width, 3)}mm" height="${fmt(height, 3)}mm" viewBox="0 0 ${fmt(width, 3)} ${fmt(height, 3)}" font-family="sans-serif">`,
-    `<title>${xmlEscape(`${plot.title}: ${fmt(plot.frequencyHz, 1)} Hz`)}</title>`,
-    `<text x="${m}" y="${text}" font-size="3.5">${xmlEscape(`${fmt(plot.frequencyHz, 1)} Hz — ${plot.title}`)}</text>`,
-    `<text x="${m}" y="${2 * text}" font-size="2.8">${xmlEscape(plot.description)}</text>`,
-    ...(plot.subtitle ? [`<text x="${m}" y="${3 * text}" font-size="2.5">${xmlEscape(plot.subtitle)}</text>`] : []),
-    `<g id="shape" stroke-width="0.05">`,
-    ...tris,
-    '</g>',
-    `<g id="outline" fill="none" stroke="#000000" stroke-width="0.25">`,
-    ...plot.loops.map((l) => `<path d="${loopPathData(l, map)}"/>`),
-    '</g>',
-    ...(plot.markerMm
-      ? (() => {
-          const p = map(plot.markerMm!);
-          return [`<g id="stack" fill="none" stroke="#000000" stroke-width="0.3"><circle cx="${fmt(p[0], 3)}" cy="${fmt(p[1], 3)}" r="1.5"/><path d="M${fmt(p[0] - 2.5, 3)} ${fmt(p[1], 3)}H${fmt(p[0] + 2.5, 3)}M${fmt(p[0], 3)} ${fmt(p[1] - 2.5, 3)}V${fmt(p[1] + 2.5, 3)}"/></g>`];
-        })()
-      : []),
-    `<g id="legend">`,
-    ...bar,
-    `<text x="${fmt(barX, 3)}" y="${fmt(barY + 6, 3)}" font-size="2.5">${xmlEscape(words[0])}</text>`,
-    `<text x="${fmt(barX + barW / 2, 3)}" y="${fmt(barY + 6, 3)}" font-size="2.5" text-anchor="middle">${xmlEscape(words[1])}</text>`,
-    `<text x="${fmt(barX + barW, 3)}" y="${fmt(barY + 6, 3)}" font-size="2.5" text-anchor="end">${xmlEscape(words[2])}</text>`,
-    `<text x="${fmt(barX, 3)}" y="${fmt(barY - 1.2, 3)}" font-size="2.5">${xmlEscape(plot.legendCaption ?? 'out-of-plane displacement, relative to the largest')}</text>`,
-    '</g>',
-    `<text x="${m}" y="${fmt(height - 1.5, 3)}" font-size="2.3">${xmlEscape(CAUTION)}</text>`,
-    '</svg>',
-    '',
-  ];
-  return lines.join('\n');
 }

@@ -1,49 +1,77 @@
 import type { Part } from '../geometry/part.js';
 import { partBBox } from '../geometry/metrics.js';
-import type { Vec2 } from '../geometry/types.js';
-import { fmt, xmlEscape } from './format.js';
+import { fmt } from './format.js';
+import { padBox, pictureSvg, placeLabels, PLAN_VIEW, unionBox, type Box, type LabelRequest, type LegendEntry } from './picture.js';
 import { loopPathData } from './svgPath.js';
 
+/** Extra content for a picture, already in screen space (mapped with PLAN_VIEW): markers, their labels and legend rows. */
+export type Annotation = Readonly<{
+  body: readonly string[];
+  /** Labels still to be placed (with the picture's other labels, so none overlap). */
+  labels: readonly LabelRequest[];
+  legend: readonly LegendEntry[];
+  /** What the body covers, strokes included. */
+  box: Box;
+  /** Boxes that labels must keep off (the markers themselves). */
+  obstacles: readonly Box[];
+  notes?: readonly string[];
+}>;
+
 export type SvgPartOptions = Readonly<{
-  /** Space around the part. mm. */
-  marginMm?: number;
   outlineColor?: string;
   innerColor?: string;
   strokeMm?: number;
-  /** Extra SVG elements drawn over the part, in part coordinates (y up); e.g. check markers. */
-  overlay?: string;
+  /** Markers and labels drawn over the part (see svgFindings). */
+  annotation?: Annotation;
   /** A note in the file's description (`<desc>`, e.g. the finding count of a forced build). */
   comment?: string;
 }>;
 
+/** The word under a part picture's up arrow: where the part's +x points once assembled. */
+export function frontWord(part: Part): string {
+  switch (part.role) {
+    case 'arm':
+      return 'motor end';
+    case 'imported':
+      return 'drawing +x';
+    default:
+      return 'front';
+  }
+}
+
 /**
- * One part as SVG, one user unit = 1 mm, width and height in mm equal to the bounding box
- * plus the margin. The part keeps y up inside a flipping group, so overlays use part coordinates.
+ * One part as an SVG picture, 1 user unit = 1 mm, in the plan-view convention (part +x up, +y left;
+ * for plates that is the frame's front up): outline black, inner contours red, a front arrow, a scale
+ * bar, a legend, and any annotation. The cut file is the DXF; this is for people.
  */
 export function partToSvg(part: Part, options: SvgPartOptions = {}): string {
-  const m = options.marginMm ?? 0;
-  const [x0, y0, x1, y1] = partBBox(part);
-  const w = x1 - x0 + 2 * m;
-  const h = y1 - y0 + 2 * m;
-  const map = (p: Vec2): Vec2 => [p[0] - x0 + m, y1 + m - p[1]];
-  const stroke = fmt(options.strokeMm ?? 0.2, 3);
+  const view = PLAN_VIEW;
+  const stroke = options.strokeMm ?? 0.2;
   const outline = options.outlineColor ?? '#000000';
   const inner = options.innerColor ?? '#d00000';
-  const lines = [
-    '<?xml version="1.0" encoding="UTF-8"?>',
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${fmt(w, 4)}mm" height="${fmt(h, 4)}mm" viewBox="0 0 ${fmt(w, 4)} ${fmt(h, 4)}">`,
-    `<title>${xmlEscape(part.name)}</title>`,
-    // A description, not an XML comment: a comment may not hold "--" (XML 1.0, 2.5), and notes say "--force".
-    ...(options.comment ? [`<desc>${xmlEscape(options.comment)}</desc>`] : []),
-    `<g fill="none" stroke-width="${stroke}">`,
-    `<path id="outline" stroke="${outline}" d="${loopPathData(part.outline, map)}"/>`,
-    ...part.features.map((f, i) => `<path id="${f.purpose}-${i}" stroke="${inner}" d="${loopPathData(f.loop, map)}"/>`),
+  const a = options.annotation;
+  const contentBox = unionBox(padBox(view.mapBox(partBBox(part)), stroke / 2), a?.box ?? padBox(view.mapBox(partBBox(part)), 0));
+  const body = [
+    `<g class="part" fill="none" stroke-width="${fmt(stroke, 3)}">`,
+    `<path id="outline" stroke="${outline}" d="${loopPathData(part.outline, view.map)}"/>`,
+    ...part.features.map((f, i) => `<path id="${f.purpose}-${i}" stroke="${inner}" d="${loopPathData(f.loop, view.map)}"/>`),
     '</g>',
-    ...(options.overlay
-      ? [`<g transform="translate(${fmt(m - x0, 4)} ${fmt(y1 + m, 4)}) scale(1 -1)">`, options.overlay, '</g>']
-      : []),
-    '</svg>',
-    '',
+    ...(a?.body ?? []),
   ];
-  return lines.join('\n');
+  const legend: LegendEntry[] = [
+    { symbol: 'line', colour: outline, label: 'outline' },
+    ...(part.features.length ? [{ symbol: 'line' as const, colour: inner, label: 'holes, slots, cut-outs' }] : []),
+    ...(a?.legend ?? []),
+  ];
+  return pictureSvg({
+    title: part.name,
+    heading: `${part.name} — ${fmt(part.thicknessMm, 2)} mm, ×${part.quantity}`,
+    body,
+    contentBox,
+    labels: placeLabels(a?.labels ?? [], a?.obstacles ?? []),
+    front: frontWord(part),
+    legend,
+    notes: [`Part coordinates: +x up, +y left (the DXF has +x to the right).`, ...(a?.notes ?? [])],
+    ...(options.comment ? { comment: options.comment } : {}),
+  });
 }

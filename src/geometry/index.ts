@@ -17,3 +17,4 @@ export * from './arm.js';
 export * from './frame.js';
 export * from './metrics.js';
 export * from './carriers.js';
+export * from './relief.js';

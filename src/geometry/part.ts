@@ -22,6 +22,35 @@ export type FeaturePurpose =
   | 'truss-window'
   | 'imported';
 
+/** Plain words for each purpose, used in reports, hole tables and error messages. */
+export const PURPOSE_WORDS: Record<FeaturePurpose, string> = {
+  'motor-bolt': 'motor bolt',
+  'motor-bore': 'motor bore',
+  'stack-bolt': 'stack bolt',
+  standoff: 'standoff',
+  'arm-root-bolt': 'arm-root bolt',
+  accessory: 'accessory',
+  'camera-pivot': 'camera pivot',
+  'camera-tilt-slot': 'camera tilt',
+  'camera-mount': 'camera mount',
+  'strap-slot': 'strap',
+  'lead-opening': 'battery-lead',
+  lightening: 'lightening',
+  'truss-window': 'truss',
+  imported: '',
+};
+
+const KIND_WORDS = { hole: 'hole', slot: 'slot', cutout: 'cut-out' } as const;
+
+/**
+ * A feature in words: "arm-root bolt hole Ø3.40", "strap slot", "truss cut-out"; the outline for null.
+ */
+export function featureLabel(f: Feature | null): string {
+  if (!f) return 'outline';
+  const words = `${PURPOSE_WORDS[f.purpose]} ${KIND_WORDS[f.kind]}`.trim();
+  return `${words}${f.diameterMm !== undefined ? ` Ø${f.diameterMm.toFixed(2)}` : ''}`;
+}
+
 /**
  * An inner contour of a part. `loop` is clockwise. Round holes also carry their centre and
  * diameter so checks and hole tables need not rediscover them.

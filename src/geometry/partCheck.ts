@@ -1,4 +1,6 @@
 import type { DesignIssue } from '../params/errors.js';
+import { withArticle } from '../params/words.js';
+import { featureLabel } from './part.js';
 import type { SourcedFeature } from './holes.js';
 import { isInside } from './inside.js';
 import { intersectSegments } from './intersect.js';
@@ -23,10 +25,10 @@ export function checkPartGeometry(p: Buildable): DesignIssue[] {
   const boxes = p.features.map((f) => loopBBox(f.loop));
   p.features.forEach((f, i) => {
     const fp = loopProblem(f.loop);
-    if (fp) issues.push({ path: f.sourcePath, value: p.name, message: `gives a ${f.purpose} contour that is not simple (${fp.kind} at ${fmt(fp.at)})` });
-    if (signedArea(f.loop) >= 0) issues.push({ path: f.sourcePath, value: p.name, message: `gives a ${f.purpose} contour that is not clockwise` });
+    if (fp) issues.push({ path: f.sourcePath, value: p.name, message: `gives ${withArticle(featureLabel(f))} contour that is not simple (${fp.kind} at ${fmt(fp.at)})` });
+    if (signedArea(f.loop) >= 0) issues.push({ path: f.sourcePath, value: p.name, message: `gives ${withArticle(featureLabel(f))} contour that is not clockwise` });
     if (crosses(f.loop, p.outline) || !isInside(p.outline, startOf(f.loop[0]))) {
-      issues.push({ path: f.sourcePath, value: p.name, message: `puts a ${f.purpose} ${f.kind} at ${fmt(startOf(f.loop[0]))} that reaches outside the ${p.name} outline` });
+      issues.push({ path: f.sourcePath, value: p.name, message: `puts ${withArticle(featureLabel(f))} at ${fmt(startOf(f.loop[0]))} that reaches outside the ${p.name} outline` });
     }
     for (let j = i + 1; j < p.features.length; j++) {
       const a = boxes[i];
@@ -34,7 +36,7 @@ export function checkPartGeometry(p: Buildable): DesignIssue[] {
       if (a[0] > b[2] || b[0] > a[2] || a[1] > b[3] || b[1] > a[3]) continue;
       const g = p.features[j];
       if (crosses(f.loop, g.loop) || isInside(g.loop, startOf(f.loop[0])) || isInside(f.loop, startOf(g.loop[0]))) {
-        issues.push({ path: g.sourcePath, value: p.name, message: `puts a ${g.purpose} ${g.kind} on top of a ${f.purpose} ${f.kind} (from ${f.sourcePath}) near ${fmt(startOf(g.loop[0]))}` });
+        issues.push({ path: g.sourcePath, value: p.name, message: `puts ${withArticle(featureLabel(g))} on top of ${withArticle(featureLabel(f))} (from ${f.sourcePath}) near ${fmt(startOf(g.loop[0]))}` });
       }
     }
   });

@@ -11,7 +11,7 @@ import { cleanSegments } from './clean.js';
 import { headerValue, parseDocument, type DxfDocument, type RawEntity } from './document.js';
 import { DxfReadError } from './errors.js';
 import { explode, type LayerDecision } from './explode.js';
-import { DEFAULT_LIMITS, type ImportLimits } from './limits.js';
+import { DEFAULT_LIMITS, limitWords, type ImportLimits } from './limits.js';
 import { findMeetings } from './loops.js';
 import { nestLoops } from './nest.js';
 import { DEFAULT_IMPORT_MATERIAL } from './settings.js';
@@ -75,10 +75,14 @@ export function importDxf(text: string, options: ImportOptions): ImportResult {
   const k = MM_PER_UNIT[units.unit];
   const exploded = explode(doc, { toMm: scaling(k, k), layerDecision, curveTolMm: options.curveTolMm ?? 0.002, limits });
   findings.push(...exploded.findings);
+  // Every full circle is a contour of its own: a drawing beyond the contour limit is refused before
+  // the slower chaining and containment steps.
+  refuseContours(exploded.segments.reduce((n, d) => n + (d.seg.kind === 'arc' && Math.abs(d.seg.sweepRad) >= 2 * Math.PI - 1e-9 ? 1 : 0), 0), limits, true);
   const cleaned = cleanSegments(exploded.segments, { gapTolMm, tinySegmentMm: options.tinySegmentMm ?? 0.05 });
   findings.push(...cleaned.findings);
   const chained = chainLoops(cleaned.segments, gapTolMm);
   findings.push(...chained.findings);
+  refuseContours(chained.loops.length, limits);
   const meetings = findMeetings(chained.loops);
   findings.push(...meetings.findings);
   const nested = nestLoops(chained.loops.filter((_, i) => !meetings.selfIntersecting.has(i)));
@@ -104,6 +108,10 @@ export function importDxf(text: string, options: ImportOptions): ImportResult {
   findings.push(...farFromOrigin(parts, options.farFromOriginMm ?? 1000));
   findings.push(...unitDoubt(cleaned.segments.map((d) => segmentBBox(d.seg)), units));
   return { parts, findings: cap(attachParts(findings, parts)), units, cutLayers: [...exploded.layersUsed].sort() };
+}
+
+function refuseContours(n: number, limits: ImportLimits, atLeast = false): void {
+  if (n > limits.maxContours) throw new DxfReadError(`the drawing has ${atLeast ? 'at least ' : ''}${n} closed contours (outlines and holes), more than ${limits.maxContours}${limitWords(limits)}`);
 }
 
 function fileFinding(rule: string, severity: Finding['severity'], message: string, measured: number | null, unit: string, limit: number | null = null): Finding {

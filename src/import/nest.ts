@@ -4,6 +4,7 @@ import { loopBBox, oriented, signedArea } from '../geometry/loop.js';
 import { arc, pointAt } from '../geometry/segment.js';
 import type { BBox, Loop, Vec2 } from '../geometry/types.js';
 import { dist } from '../geometry/vec.js';
+import { CHAIN_GAP_MM } from '../geometry/tolerance.js';
 import type { ChainedLoop } from './chain.js';
 import { overlappingPairs } from './spatial.js';
 
@@ -120,7 +121,8 @@ function isSlot(loop: Loop): boolean {
       a.kind === 'arc' && c.kind === 'arc' && Math.abs(Math.abs(a.sweepRad) - Math.PI) < 1e-6 && Math.abs(Math.abs(c.sweepRad) - Math.PI) < 1e-6 && Math.abs(a.radius - c.radius) < 1e-6;
     if (!capPair) continue;
     if (b.kind === 'line' && d.kind === 'line') return true;
-    if (b.kind === 'arc' && d.kind === 'arc' && dist(b.center, d.center) < 1e-6) return true;
+    // Concentric sides (an arc slot): centres recomputed from rounded DXF bulges agree within the chain gap.
+    if (b.kind === 'arc' && d.kind === 'arc' && dist(b.center, d.center) < CHAIN_GAP_MM) return true;
   }
   return false;
 }

@@ -7,3 +7,5 @@ export * from './jsonSchema.js';
 export * from './reference.js';
 export * from './yamlInput.js';
 export * from './types.js';
+export * from './words.js';
+export * from './textWidth.js';

@@ -59,7 +59,7 @@ describe('build writes the assembly (the built CLI)', () => {
     expect(runCli(['build', tessel, '--out', dir]).code).toBe(0);
     for (const v of ['side', 'front']) {
       const svg = readFileSync(join(dir, `${v}.svg`), 'utf8');
-      const m = /width="([\d.]+)mm" height="([\d.]+)mm" viewBox="0 0 ([\d.]+) ([\d.]+)"/.exec(svg)!;
+      const m = /width="([\d.]+)mm" height="([\d.]+)mm" viewBox="[-\d.]+ [-\d.]+ ([\d.]+) ([\d.]+)"/.exec(svg)!;
       // One user unit is one millimetre (CSS Values 3: 1 mm = 96/25.4 px).
       expect(m[1]).toBe(m[3]);
       expect(m[2]).toBe(m[4]);

@@ -25,7 +25,7 @@ describe('regression designs (test/fixtures/assembly): each clash is the right e
 
   it('prop disc between the plates', () => {
     const b = built('prop-between-plates.yaml');
-    const f = errorsOf(b, 'prop-clearance').filter((x) => /between the bottom plate and the top plate/.test(x.message));
+    const f = errorsOf(b, 'prop-clearance').filter((x) => /the space between the bottom and top plates/.test(x.message));
     expect(f.map((x) => x.parts![0]).sort()).toEqual(['prop front-left', 'prop front-right', 'prop rear-left', 'prop rear-right']);
     for (const x of f) expect(x.parts![1]).toBe('bottom-plate');
   });
@@ -37,7 +37,7 @@ describe('regression designs (test/fixtures/assembly): each clash is the right e
     // Stack from the bottom plate's top (2.5) 26 mm high; an ISO 7040 M3 nut (4 mm) on it; the stack
     // screw M3 × 35 from z 0 (grip 2.5 + 26 + 4 + 0.5 = 33 → 35) ends at 35. Plus 1.5 mm clearance,
     // less the 2.5 mm plate: standoffs of ⌈35 + 1.5 − 2.5⌉ = 34 mm would fit.
-    expect(f.message).toMatch(/standoffs of 34 mm would fit/);
+    expect(f.message).toMatch(/use standoffs of 34 mm/);
     expect(f.measured).toBeCloseTo(27.5 - 35, 6);
   });
 
@@ -76,7 +76,7 @@ describe('fit rules, planted one at a time on Tessel 5', () => {
     const b = tesselWith({ camera: { forwardOffsetMm: 8 } });
     const f = errorsOf(b, 'camera-fit').filter((x) => x.parts![1].startsWith('camera spacer'));
     expect(f.length).toBeGreaterThan(0);
-    expect(f[0].message).toMatch(/from \d+(\.\d)?° uptilt/);
+    expect(f[0].message).toMatch(/from \d+(\.\d+)?° uptilt/);
     expect(f[0].unit).toBe('deg');
   });
 

@@ -62,7 +62,7 @@ describe.skipIf(!hasShapely)('fit checks against Shapely (GEOS), an independent 
     expect(ref.outside[0][0]).toBeLessThan(1e-6);
     const f = fitError(b.report, 'prop-clearance', 'prop rear-left', 'bottom-plate')!;
     expect(f).toBeDefined();
-    expect(f.message).toMatch(/between the bottom plate and the top plate/);
+    expect(f.message).toMatch(/the space between the bottom and top plates/);
     // 0.05 mm chords: the polygon distance may differ by that much.
     expect(Math.abs(f.measured! - (ref.distances[0] - prop.diameterMm / 2))).toBeLessThan(0.06);
   });

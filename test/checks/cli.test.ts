@@ -57,13 +57,16 @@ describe('framewright check (the built CLI)', () => {
   it('a design with errors exits 1', () => {
     const r = runCli(['check', writeDesign({ body: { standoffs: { shape: 'round', positionsMm: [[52, 21], [52, -21], [-52, 21], [-52, -21]] } } })]);
     expect(r.code).toBe(1);
-    expect(r.stdout).toMatch(/ERROR +prop-clearance/);
+    // Grouped by rule, errors first: the prop-clearance rule heads the list with its errors.
+    expect(r.stdout).toMatch(/^Summary: [1-9]\d* errors?/m);
+    expect(r.stdout).toMatch(/\n\nprop-clearance: \d+ errors?/);
+    expect(r.stdout).toMatch(/ERROR +frame/);
   });
 
   it('--limit overrides the design and can turn a pass into a failure', () => {
-    const r = runCli(['check', tessel, '--limit', 'hole-edge-distance.errorEdgeRatio=1.9', '--limit', 'hole-edge-distance.warnEdgeRatio=2.5', '--json']);
+    const r = runCli(['check', tessel, '--limit', 'hole-edge-distance.errorEdgeRatio=2.2', '--limit', 'hole-edge-distance.warnEdgeRatio=2.5', '--json']);
     expect(r.code).toBe(1);
-    expect(JSON.parse(r.stdout).findings.some((f: { severity: string; limit: number }) => f.severity === 'error' && f.limit === 1.9)).toBe(true);
+    expect(JSON.parse(r.stdout).findings.some((f: { severity: string; limit: number }) => f.severity === 'error' && f.limit === 2.2)).toBe(true);
   });
 
   it('bad input: a limit out of range names the path, the value and the range (exit 2)', () => {

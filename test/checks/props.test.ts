@@ -81,9 +81,9 @@ describe('prop-clearance rule (planted designs)', () => {
       // The marker is the disc edge point nearest the standoff: on the line from the motor to the
       // standoff centre, so its distance to the standoff edge is the clearance itself (by hand).
       const [px, py] = x.atMm!;
-      const s = [50 * Math.sign(px), 17 * Math.sign(py)];
+      const s = [52 * Math.sign(px), 21 * Math.sign(py)];
       expect(Math.hypot(px - s[0], py - s[1]) - 2.5).toBeCloseTo(byHand, 3); // atMm is rounded to 4 decimals
-      expect(Math.hypot(Math.abs(px) - 112 * Math.cos(Math.PI / 4), Math.abs(py) - 112 * Math.sin(Math.PI / 4))).toBeCloseTo(129.54 / 2, 3);
+      expect(Math.hypot(Math.abs(px) - 118 * Math.cos(Math.PI / 4), Math.abs(py) - 118 * Math.sin(Math.PI / 4))).toBeCloseTo(129.54 / 2, 3);
     }
   });
 });

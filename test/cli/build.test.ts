@@ -6,6 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { DEMO_FILES, DESIGNS_DIR, demoFrame, designWith } from '../helpers/demo.js';
 import { partBBox } from '../../src/geometry/index.js';
 import { outputNames, runCli, STACK_LINE } from '../helpers/cli.js';
+import { viewBoxOf } from '../helpers/render.js';
 
 const tmp = () => mkdtempSync(join(tmpdir(), 'fw-build-'));
 
@@ -18,7 +19,8 @@ describe('framewright build (the built CLI)', () => {
       expect(r.code).toBe(0);
       const names = demoFrame(file).parts.map((p) => p.name);
       const written = outputNames(out);
-      expect(written).toEqual([...names.flatMap((n) => [`${n}.dxf`, `${n}.svg`]), 'overview.svg'].sort());
+      const assembly = ['assembly.json', 'front.svg', 'hardware.csv', 'hardware.json', 'side.svg'];
+      expect(written).toEqual([...names.flatMap((n) => [`${n}.dxf`, `${n}.svg`]), 'overview.svg', ...assembly].sort());
       expect(r.stdout).toMatch(/part\s+qty\s+thick mm\s+size mm\s+area mm²\s+mass g\s+cut mm/);
       for (const n of names) expect(r.stdout).toContain(n);
     });
@@ -46,7 +48,7 @@ describe('framewright build (the built CLI)', () => {
   const badCases: Array<[string, Record<string, unknown> | ((raw: Record<string, unknown>) => void), RegExp]> = [
     ['a missing field', (raw) => delete (raw.layout as Record<string, unknown>).wheelbaseMm, /layout\.wheelbaseMm: \(missing\) is required/],
     ['a negative width', { arms: { widthMm: -3 } }, /arms\.widthMm: -3 is below the allowed range 4 to 60 mm/],
-    ['a stack pattern that does not fit the body', { stacks: [{ place: 'front', patternsMm: [50], boltSize: 'M3' }] }, /stacks\.0\.patternsMm: "bottom-plate" puts a stack-bolt hole .* outside the bottom-plate outline/],
+    ['a stack pattern that does not fit the body', { stacks: [{ place: 'front', patternsMm: [50], boltSize: 'M3' }], components: undefined }, /stacks\.0\.patternsMm: "bottom-plate" puts a stack bolt hole Ø3\.40 .* outside the bottom-plate outline/],
     ['an unknown key', { arms: { wdith: 3 } }, /arms: \["wdith"\] unknown key/],
   ];
   for (const [what, patch, message] of badCases) {
@@ -125,7 +127,9 @@ describe('build runs the checks first', () => {
     const out = join(dir, 'out');
     const r = runCli(['build', path, '--out', out, '--force']);
     expect(r.code).toBe(1);
-    for (const f of outputNames(out).filter((x) => x !== 'overview.svg')) {
+    // The cut files (DXF and part SVG); the views, hardware list and assembly are not cut.
+    const notCut = ['overview.svg', 'side.svg', 'front.svg', 'hardware.csv', 'hardware.json', 'assembly.json'];
+    for (const f of outputNames(out).filter((x) => !notCut.includes(x))) {
       expect(readFileSync(join(out, f), 'utf8')).toMatch(/written with --force although the design-rule checks found \d+ errors/);
     }
   });
@@ -159,14 +163,20 @@ describe('output folders that cannot be written', () => {
 });
 
 describe('the SVG files build writes', () => {
-  it('are as large in mm as each part bounding box', () => {
+  it('hold the whole part front up (+x up) at 1 mm per unit, in a viewBox of the width and height given in mm', () => {
     const out = join(tmp(), 'svg');
     expect(runCli(['build', 'designs/tessel-5.yaml', '--out', out]).code).toBe(0);
     for (const p of demoFrame('tessel-5.yaml').parts) {
       const svg = readFileSync(join(out, `${p.name}.svg`), 'utf8');
       const b = partBBox(p);
-      expect(Number(/width="([0-9.]+)mm"/.exec(svg)![1])).toBeCloseTo(b[2] - b[0], 3);
-      expect(Number(/height="([0-9.]+)mm"/.exec(svg)![1])).toBeCloseTo(b[3] - b[1], 3);
+      const vb = viewBoxOf(svg);
+      expect(Number(/width="([0-9.]+)mm"/.exec(svg)![1])).toBeCloseTo(vb.w, 3);
+      expect(Number(/height="([0-9.]+)mm"/.exec(svg)![1])).toBeCloseTo(vb.h, 3);
+      // The part's extent turned front up (screen x = −y, y = −x) lies inside the viewBox.
+      expect(vb.x).toBeLessThan(-b[3]);
+      expect(vb.x + vb.w).toBeGreaterThan(-b[1]);
+      expect(vb.y).toBeLessThan(-b[2]);
+      expect(vb.y + vb.h).toBeGreaterThan(-b[0]);
     }
   });
 });

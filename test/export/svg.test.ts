@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { frameOverviewSvg, partToSvg } from '../../src/export/index.js';
 import { partBBox } from '../../src/geometry/index.js';
 import { DEMO_FILES, demoFrame } from '../helpers/demo.js';
+import { viewBoxOf } from '../helpers/render.js';
 
 /** Fraction of pixels that are not transparent/white. */
 function inkFraction(svg: string, widthPx: number): number {
@@ -17,15 +18,18 @@ describe('SVG', () => {
   for (const file of DEMO_FILES) {
     const frame = demoFrame(file);
     for (const part of frame.parts) {
-      it(`${file} ${part.name}: size in mm equals the bounding box; renders to a non-blank image`, () => {
+      it(`${file} ${part.name}: front up, 1 unit = 1 mm, the whole part and its stroke in the viewBox; renders`, () => {
         const svg = partToSvg(part);
         const b = partBBox(part);
-        const w = Number(/width="([0-9.]+)mm"/.exec(svg)![1]);
-        const h = Number(/height="([0-9.]+)mm"/.exec(svg)![1]);
-        expect(w).toBeCloseTo(b[2] - b[0], 3);
-        expect(h).toBeCloseTo(b[3] - b[1], 3);
-        // viewBox in the same numbers: one user unit is one millimetre (CSS Values 3, SVG 2)
-        expect(svg).toContain(`viewBox="0 0 ${/width="([0-9.]+)mm"/.exec(svg)![1]} ${/height="([0-9.]+)mm"/.exec(svg)![1]}"`);
+        const vb = viewBoxOf(svg);
+        // width and height in mm equal the viewBox: one user unit is one millimetre (CSS Values 3, SVG 2)
+        expect(Number(/width="([0-9.]+)mm"/.exec(svg)![1])).toBeCloseTo(vb.w, 3);
+        expect(Number(/height="([0-9.]+)mm"/.exec(svg)![1])).toBeCloseTo(vb.h, 3);
+        // Plan-view convention: screen x = −y, screen y = −x; the 0.2 mm stroke's outer half included.
+        expect(vb.x).toBeLessThanOrEqual(-b[3] - 0.1);
+        expect(vb.y).toBeLessThanOrEqual(-b[2] - 0.1);
+        expect(vb.x + vb.w).toBeGreaterThanOrEqual(-b[1] + 0.1);
+        expect(vb.y + vb.h).toBeGreaterThanOrEqual(-b[0] + 0.1);
         const ink = inkFraction(svg, 400);
         expect(ink).toBeGreaterThan(0.002);
         expect(ink).toBeLessThan(0.5);

@@ -7,9 +7,11 @@ import { describe, expect, it } from 'vitest';
 import { checkFrame, frameAnnotation, optionsForDesign, partMarkers } from '../../src/checks/index.js';
 import { frameOverviewSvg, partToDxf, partToSvg, placedPartsToDxf, plainLine, printable, xmlEscape } from '../../src/export/index.js';
 import { drawingToPdf } from '../../src/export/pdfDrawing.js';
+import { drawingFonts } from '../../src/cli/fonts.js';
 import { drawingToSvgs, sheetLayoutToSvg } from '../../src/export/svgDrawing.js';
-import { familySheetSvg } from '../../src/export/svgFamily.js';
-import { frameFindingsOverlay, markersOverlay } from '../../src/export/svgFindings.js';
+import { rangeSheetSvg } from '../../src/export/svgRangeSheet.js';
+import { rangeChartSvg } from '../../src/export/svgRangeChart.js';
+import { frameFindingsAnnotation, markersAnnotation } from '../../src/export/svgFindings.js';
 import { modeShapeSvg } from '../../src/export/svgModes.js';
 import type { Frame } from '../../src/geometry/index.js';
 import { drawingSet, layoutDrawing, quoteParts } from '../../src/quote/index.js';
@@ -52,13 +54,13 @@ describe('every writer keeps its output well-formed whatever text reaches it (XM
   it('part SVGs (with a forced-build note and finding markers) and the overview', () => {
     const report = checkFrame(frame);
     for (const p of frame.parts) {
-      const svg = partToSvg(p, { marginMm: 4, comment: `written with --force -- ${HOSTILE}`, overlay: markersOverlay(partMarkers(report, p.name)) });
+      const svg = partToSvg(p, { comment: `written with --force -- ${HOSTILE}`, annotation: markersAnnotation(partMarkers(report, p.name)) });
       expect(xmlProblem(svg), p.name).toBeNull();
       expect(svg).toContain('written with --force');
     }
     const a = frameAnnotation(frame, report, optionsForDesign(frame.design));
     expect(xmlProblem(frameOverviewSvg(frame))).toBeNull();
-    expect(xmlProblem(frameOverviewSvg(frame, { overlay: frameFindingsOverlay(a), extraBBox: a.bbox }))).toBeNull();
+    expect(xmlProblem(frameOverviewSvg(frame, { annotation: frameFindingsAnnotation(a) }))).toBeNull();
   });
 
   it('DXF R12 and R2000: comments and labels are single printable lines that an independent reader takes', () => {
@@ -77,12 +79,14 @@ describe('every writer keeps its output well-formed whatever text reaches it (XM
     }
   });
 
-  it('the quote drawing (SVG pages, nested sheets) and the family sheet', () => {
+  it('the quote drawing (SVG pages, nested sheets), the range sheet and the range chart', () => {
     const quote = quoteParts(frame.parts, { quantity: 2, shop: exampleShop(), toolDiameterMm: 3.175 });
     const set = drawingSet(frame.parts, quote, { design: HOSTILE, revision: HOSTILE, date: null, checks: { errors: 0, warnings: 0 }, generalTolerance: HOSTILE });
     for (const svg of drawingToSvgs(layoutDrawing(set))) expect(xmlProblem(svg)).toBeNull();
     for (const s of quote.nesting.sheets) expect(xmlProblem(sheetLayoutToSvg(s, frame.parts, { title: HOSTILE, note: HOSTILE, marginMm: 10 }))).toBeNull();
-    expect(xmlProblem(familySheetSvg([{ label: HOSTILE, notes: [HOSTILE], frame }], { title: HOSTILE, footer: [HOSTILE] }))).toBeNull();
+    expect(xmlProblem(rangeSheetSvg([{ label: HOSTILE, notes: [HOSTILE], frame }], { title: HOSTILE, footer: [HOSTILE] }))).toBeNull();
+    const point = { label: HOSTILE, propsIn: 5, wheelbaseMm: 220, massG: 110, armFrequencyHz: 250, requiredHz: 240, source: true };
+    expect(xmlProblem(rangeChartSvg([point, { ...point, propsIn: 7, source: false }], [{ propsIn: 5, lowHz: 180, highHz: 600 }, { propsIn: 7, lowHz: 130, highHz: 430 }], { title: HOSTILE, footer: [HOSTILE] }))).toBeNull();
   });
 
   it('a mode-shape plot', () => {
@@ -103,7 +107,7 @@ describe('every writer keeps its output well-formed whatever text reaches it (XM
     const quote = quoteParts(frame.parts, { quantity: 1, shop: exampleShop(), toolDiameterMm: 3.175 });
     const set = drawingSet(frame.parts, quote, { design: HOSTILE, revision: HOSTILE, date: null, checks: { errors: 0, warnings: 0 }, generalTolerance: HOSTILE });
     const dir = mkdtempSync(join(tmpdir(), 'fw-xml-'));
-    writeFileSync(join(dir, 'd.pdf'), await drawingToPdf(set, layoutDrawing(set)));
+    writeFileSync(join(dir, 'd.pdf'), await drawingToPdf(set, layoutDrawing(set), { fonts: drawingFonts() }));
     const r = spawnSync('pdftotext', [join(dir, 'd.pdf'), '-'], { encoding: 'utf8' });
     expect(r.status).toBe(0);
     expect(r.stdout).toContain('--> H I');

@@ -2,7 +2,7 @@ import * as DxfParserModule from 'dxf-parser';
 import { describe, expect, it } from 'vitest';
 import { checkOptions, checkParts, formatCheckReport, makeReport, partMarkers } from '../../src/checks/index.js';
 import { partToDxf, partToSvg } from '../../src/export/index.js';
-import { markersOverlay } from '../../src/export/svgFindings.js';
+import { markersAnnotation } from '../../src/export/svgFindings.js';
 import { DxfReadError, importDxf } from '../../src/import/index.js';
 import { rng } from '../helpers/random.js';
 import { xmlProblem } from '../helpers/xml.js';
@@ -22,7 +22,7 @@ function checkPipeline(text: string): { report: string; files: string[] } | { re
   }
   const design = checkParts(imported.parts, checkOptions({ toolDiameterMm: 1 }));
   const report = makeReport(design.parts, [...imported.findings, ...design.findings]);
-  const files = imported.parts.flatMap((p) => [partToSvg(p, { marginMm: 4, overlay: markersOverlay(partMarkers(report, p.name)) }), partToDxf(p)]);
+  const files = imported.parts.flatMap((p) => [partToSvg(p, { annotation: markersAnnotation(partMarkers(report, p.name)) }), partToDxf(p)]);
   return { report: `${JSON.stringify(report)}\n${formatCheckReport(report, 'fuzz')}`, files };
 }
 

@@ -6,9 +6,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { drawingToPdf } from '../../src/export/pdfDrawing.js';
 import { drawingToSvgs } from '../../src/export/svgDrawing.js';
 import { loopBBox } from '../../src/geometry/index.js';
-import { chooseScale, drawingSet, layoutDrawing, partDimensions, quoteParts, type DrawingSet } from '../../src/quote/index.js';
+import { chooseScale, cutoutEntries, drawingSet, holeEntries, layoutDrawing, quoteParts, spread, type DrawingSet } from '../../src/quote/index.js';
+import { drawingFonts } from '../../src/cli/fonts.js';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
-import { demoFrame, exampleShop, plate, roundedRect, roundHole } from './fixtures.js';
+import { cutout, demoFrame, exampleShop, plate, roundedRect, roundHole, slot } from './fixtures.js';
 
 const frame = demoFrame('tessel-5');
 const quote = quoteParts(frame.parts, { quantity: 2, shop: exampleShop(), toolDiameterMm: 3.175 });
@@ -18,7 +19,7 @@ let pdf: Uint8Array;
 
 beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), 'fw-drawing-'));
-  pdf = await drawingToPdf(set, layoutDrawing(set));
+  pdf = await drawingToPdf(set, layoutDrawing(set), { fonts: drawingFonts() });
   writeFileSync(join(dir, 'drawing.pdf'), pdf);
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -29,22 +30,42 @@ describe('drawing data', () => {
     expect(set.sheets[0].kind).toBe('summary');
   });
 
-  it('scale: the largest ISO 5455 preferred scale that fits the 140 × 95 mm view', () => {
-    expect(chooseScale(30, 20).label).toBe('2:1'); // 60 × 40 fits, 150 × 100 does not
+  it('scale: the largest ISO 5455 preferred scale that fits the 158 × 106 mm view', () => {
+    expect(chooseScale(40, 25).label).toBe('2:1'); // 80 × 50 fits, 200 × 125 does not
     expect(chooseScale(124, 87).label).toBe('1:1');
-    expect(chooseScale(200, 87).label).toBe('1:2');
+    expect(chooseScale(160, 87).label).toBe('1:2');
     expect(chooseScale(10, 10).label).toBe('5:1');
   });
 
-  it('dimensions: overall size and hole positions from the lower-left corner, hand-checked', () => {
-    // 100 × 50 plate centred on the origin: holes at x = −40, 0, 40 → 10, 50, 90 from the left edge;
-    // y = −15, 15 → 10, 40 from the bottom edge.
-    const p = plate('dims', roundedRect([0, 0], 100, 50, 5), [roundHole([-40, -15], 3.4), roundHole([0, 15], 3.4), roundHole([40, 15], 3.4)]);
-    const d = partDimensions(p);
-    expect(d.filter((x) => x.level === 1).map((x) => `${x.axis} ${x.text}`)).toEqual(['x 100.0', 'y 50.0']);
-    expect(d.filter((x) => x.axis === 'x' && x.level < 0).map((x) => x.valueMm)).toEqual([10, 50, 90]);
-    expect(d.filter((x) => x.axis === 'y' && x.level < 0).map((x) => x.valueMm)).toEqual([10, 40]);
+  it('hole tags, sizes and cut-out sizes, hand-checked', () => {
+    // 100 × 50 plate: three Ø3.40 M3 holes and one Ø2.40; a 20 × 3.5 slot along x and a 16 × 10 window.
+    const p = plate('tags', roundedRect([0, 0], 100, 50, 5), [
+      roundHole([-40, -15], 3.4, { screw: 'M3' }), roundHole([0, 15], 3.4, { screw: 'M3' }), roundHole([40, 15], 3.4, { screw: 'M3' }), roundHole([20, -15], 2.4, { screw: 'M2' }),
+      cutout(slot([-10, 0], [6.5, 0], 3.5), 'slot'), cutout(roundedRect([30, -2], 16, 10, 2)),
+    ]);
+    const h = holeEntries(p, 3.175);
+    // Type letters by ascending diameter; numbers in reading order (top row first, left to right).
+    expect(h.map((x) => `${x.tag} ${x.centerMm.join(',')} ${x.size} ${x.screw} ${x.typeCount}`)).toEqual([
+      'A1 20,-15 Ø2.40 thru drill M2 1',
+      'B1 0,15 Ø3.40 thru M3 3',
+      'B2 40,15 Ø3.40 thru M3 3',
+      'B3 -40,-15 Ø3.40 thru M3 3',
+    ]);
+    const c = cutoutEntries(p);
+    // The slot: caps 16.5 mm apart + 3.5 mm = 20 mm overall; the window 16 × 10 with R2 corners.
+    expect(c.map((x) => `${x.tag} ${x.centerMm.map((v) => v.toFixed(2)).join(',')} ${x.extentMm.map((v) => v.toFixed(2)).join('x')} ${x.size}`)).toEqual([
+      'S1 -1.75,0.00 20.00x3.50 slot 20.00 x 3.50, axis 0.0°',
+      'W1 30.00,-2.00 16.00x10.00 16.00 x 10.00, corners R2.00',
+    ]);
   });
+
+  it('ordinate values spread apart without changing their order', () => {
+    const pos = spread([10, 10.5, 11, 30], 3);
+    expect(pos[1] - pos[0]).toBeCloseTo(3, 9);
+    expect(pos[2] - pos[1]).toBeCloseTo(3, 9);
+    expect((pos[0] + pos[1] + pos[2]) / 3).toBeCloseTo(10.5, 9); // the cluster stays centred on its mean
+    expect(pos[3]).toBe(30);
+});
 });
 
 describe('drawing layout', () => {
@@ -74,7 +95,7 @@ describe('drawing layout', () => {
 
 describe('PDF drawing', () => {
   it('is deterministic: the same set gives the same bytes', async () => {
-    const again = await drawingToPdf(set, layoutDrawing(set));
+    const again = await drawingToPdf(set, layoutDrawing(set), { fonts: drawingFonts() });
     expect(Buffer.from(again).equals(Buffer.from(pdf))).toBe(true);
     expect(Buffer.from(pdf).subarray(0, 5).toString()).toBe('%PDF-');
   });
@@ -85,11 +106,11 @@ describe('PDF drawing', () => {
     const text = r.stdout;
     const pages = text.split('\f').filter((p) => p.trim().length > 0);
     expect(pages).toHaveLength(frame.parts.length + 1);
-    // Hole table of the bottom plate: counts and diameters from the quote's own hole rows.
+    // Hole table of the bottom plate: every type of the quote's own hole rows, with its count.
     const bottom = quote.parts.find((p) => p.cut.name === 'bottom-plate')!;
-    const bottomPage = pages.find((p) => /bottom-plate/.test(p) && /Hole table/.test(p))!;
+    const bottomPage = pages.find((p) => /part: bottom-plate/.test(p) && /Holes \(/.test(p))!;
     expect(bottomPage).toBeDefined();
-    for (const h of bottom.cut.holes) expect(bottomPage).toMatch(new RegExp(`${h.count}\\s*x\\s+${h.diameterMm.toFixed(2)}`));
+    for (const h of bottom.cut.holes) expect(bottomPage).toMatch(new RegExp(`Ø${h.diameterMm.toFixed(2)} [^\\n]*\\s${h.count}\\s`));
     // Totals on the summary sheet.
     expect(pages[0]).toMatch(new RegExp(`total\\s+${quote.batchTime.totalMin.toFixed(1)}\\s+${quote.batchCost.total.toFixed(2)}`));
     expect(pages[0]).toMatch(new RegExp(`per frame\\s+${quote.perFrame.timeMin.toFixed(1)}\\s+${quote.perFrame.cost.toFixed(2)}`));
@@ -120,7 +141,7 @@ describe('SVG drawing', () => {
   const svgs = drawingToSvgs(layoutDrawing(set));
   it('one file per sheet, each renders with rsvg-convert', () => {
     expect(svgs).toHaveLength(set.sheets.length);
-    expect(svgs[1]).toContain('Hole table');
+    expect(svgs[1]).toContain('Holes (');
     expect(svgs[0]).toContain(quote.batchCost.total.toFixed(2));
     if (!requireTool(commandAvailable('rsvg-convert'), 'librsvg2-bin (rsvg-convert)')) return;
     for (const [i, s] of svgs.entries()) {

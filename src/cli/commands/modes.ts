@@ -62,14 +62,15 @@ async function analyse(path: string, opts: ModesCliOptions, comparing = false): 
   try {
     if (/\.dxf$/i.test(path)) return { label: basename(path), result: await dxfModes(path, opts, options) };
     const design = await readDesign(path);
-    const [{ buildFrame }, { frameModes }] = await Promise.all([import('../../geometry/index.js'), import('../../analysis/index.js')]);
+    const [{ buildFrame }, { frameModes, defaultMeshSizeMm }, { refuseLargeMeshes }] = await Promise.all([import('../../geometry/index.js'), import('../../analysis/index.js'), import('../../analysis/meshLimit.js')]);
     let frame = buildFrame(design);
     if (opts.part) {
       const keep = frame.parts.filter((p) => p.name === opts.part);
       if (!keep.length) throw new UsageError(`--part ${JSON.stringify(opts.part)}: no such part in ${path} (parts: ${frame.parts.map((p) => p.name).join(', ')})`);
-      // A unibody's body model is the bottom plate; keep it only when that is the part asked for.
-      frame = { ...frame, parts: keep, design: keep.some((p) => p.role === 'bottom') ? frame.design : { ...frame.design, arms: { ...frame.design.arms, construction: 'separate' } } };
+      // A unibody's body model is the bottom plate: it runs only when that is the part asked for.
+      frame = { ...frame, parts: keep };
     }
+    refuseLargeMeshes(frame.parts, (p) => options.meshSizeMm ?? defaultMeshSizeMm(p), !opts.part);
     // A comparison needs each frame's first twist and bending modes: ask for at least eight.
     const frameCount = comparing ? Math.max(options.modes ?? 6, COMPARED_FRAME_MODES) : undefined;
     return { label: frame.name, result: frameModes(frame, { ...options, assembled: !opts.part, ...(frameCount ? { assembledModes: frameCount } : {}) }) };
@@ -83,8 +84,15 @@ async function analyse(path: string, opts: ModesCliOptions, comparing = false): 
 
 async function dxfModes(path: string, opts: ModesCliOptions, options: Record<string, number>): Promise<FrameModes> {
   const text = readDxfText(path);
-  const [{ importDxfFile }, { armModes, armTipDeflection, partModes }] = await Promise.all([import('../dxfInput.js'), import('../../analysis/index.js')]);
-  const { imported } = importDxfFile(path, text, opts, 'modes depend on it');
+  const [{ importDxfFile }, { armModes, armTipDeflection, partModes, defaultMeshSizeMm }, { MAX_MESH_NODES, refuseLargeMeshes }, { DEFAULT_LIMITS }] = await Promise.all([
+    import('../dxfInput.js'),
+    import('../../analysis/index.js'),
+    import('../../analysis/meshLimit.js'),
+    import('../../import/limits.js'),
+  ]);
+  // Every line and arc becomes at least one mesh node: a drawing beyond the mesh limit is refused while it is read.
+  const limits = { ...DEFAULT_LIMITS, maxSegments: MAX_MESH_NODES, reason: `modes meshes at most ${MAX_MESH_NODES} nodes in one model and every line and arc of the drawing needs one` };
+  const { imported } = importDxfFile(path, text, opts, 'modes depend on it', limits);
   let parts: Part[] = imported.parts;
   if (opts.part) parts = parts.filter((p) => p.name === opts.part);
   if (!parts.length) throw new UsageError(`${path}: no closed part${opts.part ? ` named ${JSON.stringify(opts.part)}` : ''} to analyse`);
@@ -93,6 +101,7 @@ async function dxfModes(path: string, opts: ModesCliOptions, options: Record<str
     const broken = imported.findings.find((f) => f.severity === 'error' && f.rule.startsWith('dxf-') && f.part === p.name);
     if (broken) throw new UsageError(`${path}: part ${p.name} cannot be analysed: ${broken.rule}: ${broken.message.split('\n')[0]} (\`framewright check ${path}\` lists every problem)`);
   }
+  refuseLargeMeshes(parts, (p) => options.meshSizeMm ?? defaultMeshSizeMm(p));
   const results = parts.map((p) => partModes(p, options));
   // A drawing that marks motor and root bolts (it does not, unless a sidecar says so) would also get arm results.
   const arms: ArmResult[] = parts
@@ -244,7 +253,7 @@ function comparisonText(items: readonly Loaded[]): string {
 const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '');
 
 async function plotFiles(dir: string, prefix: string, r: FrameModes, parts: ReadonlyMap<string, Part>): Promise<OutputFile[]> {
-  const [{ modeShapeSvg }, { frameModeSvg }, { frameModeShape }] = await Promise.all([import('../../export/svgModes.js'), import('../../export/svgFrameModes.js'), import('../../analysis/frameShape.js')]);
+  const [{ modeShapeSvg }, { frontWord }, { frameModeSvg }, { frameModeShape }] = await Promise.all([import('../../export/svgModes.js'), import('../../export/svgPart.js'), import('../../export/svgFrameModes.js'), import('../../analysis/frameShape.js')]);
   const frame = r.assembled;
   const framePictures: OutputFile[] = frame
     ? frame.modes.map((mode) => ({
@@ -271,6 +280,7 @@ async function plotFiles(dir: string, prefix: string, r: FrameModes, parts: Read
           triangles: m.mesh.triangles,
           w,
           loops,
+          ...(part ? { front: frontWord(part) } : {}),
           ...(m.stackAtMm ? { markerMm: m.stackAtMm } : {}),
           ...(inPlane ? { legend: ['', 'still', 'moving'] as const, legendCaption: 'in-plane displacement, relative to the largest' } : {}),
         }),

@@ -1,11 +1,12 @@
 import type { Command } from 'commander';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { drawingFonts } from '../fonts.js';
 import { readDesign, readText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 import { slug } from './build.js';
 
-export type QuoteCliOptions = { qty: string; sheet?: string; shop?: string; out?: string; json?: boolean; date?: string; tolerance?: string; r2000?: boolean };
+export type QuoteCliOptions = { qty: string; sheet?: string; shop?: string; out?: string; json?: boolean; date?: string; tolerance?: string; r2000?: boolean; timeLimit?: string };
 
 /** The example shop profile shipped with the package (designs/ beside dist/). */
 const DEFAULT_SHOP = fileURLToPath(new URL('../../../designs/hollin-row-shop.yaml', import.meta.url));
@@ -21,6 +22,12 @@ function parseSheet(s: string): { widthMm: number; heightMm: number } {
   const h = m ? Number(m[2]) : NaN;
   if (!m || w < 50 || h < 50 || w > 3000 || h > 3000) throw new UsageError(`--sheet: ${JSON.stringify(s)} must be WIDTHxHEIGHT in mm, each 50 to 3000 (e.g. 400x300)`);
   return { widthMm: w, heightMm: h };
+}
+
+function parseTimeLimit(s: string): number {
+  const v = Number(s);
+  if (!/^\s*\d+(\.\d+)?\s*$/.test(s) || !(v >= 1) || v > 3600) throw new UsageError(`--time-limit: ${JSON.stringify(s)} must be a number of seconds from 1 to 3600`);
+  return v;
 }
 
 function parseDate(s: string): string {
@@ -58,21 +65,22 @@ export function registerQuote(program: Command): void {
     .option('--date <YYYY-MM-DD>', 'date for the title block (nothing reads the clock)')
     .option('--tolerance <text>', 'general tolerance note on the drawing', 'ISO 2768-m unless stated')
     .option('--r2000', 'write the sheet DXFs as R2000 (LWPOLYLINE) instead of R12')
+    .option('--time-limit <seconds>', 'stop searching for a better nesting after this long (the layout is then complete but may vary between runs)')
     .option('--json', 'print every number as JSON instead of the summary table')
     .action(async (designPath: string, opts: QuoteCliOptions) => {
       const quantity = parseQty(opts.qty);
       const sheet = opts.sheet ? parseSheet(opts.sheet) : undefined;
       const date = opts.date ? parseDate(opts.date) : null;
+      const timeLimitS = opts.timeLimit !== undefined ? parseTimeLimit(opts.timeLimit) : undefined;
       const design = await readDesign(designPath);
       const shopPath = opts.shop ?? DEFAULT_SHOP;
       const shopText = readText(shopPath, 'a shop profile (YAML)');
-      const [{ parseShopText }, { buildFrame }, { checkFrame }, { drawingSet, layoutDrawing, quoteParts, quoteReport }, { placedPartsToDxf }, { drawingToSvgs, sheetLayoutToSvg }, { buildAssembly, hardwareList }] = await Promise.all([
+      const [{ parseShopText }, { buildFrame }, { checkFrame }, { quoteParts }, { DEFAULT_GENERAL_TOLERANCE, quotePackage }, { buildAssembly, hardwareList }] = await Promise.all([
         import('../../params/shop.js'),
         import('../../geometry/index.js'),
         import('../../checks/index.js'),
         import('../../quote/index.js'),
-        import('../../export/dxf.js'),
-        import('../../export/svgDrawing.js'),
+        import('../../export/quotePackage.js'),
         import('../../assembly/index.js'),
       ]);
       const shop = parseShopText(shopText, shopPath);
@@ -87,34 +95,23 @@ export function registerQuote(program: Command): void {
         toolDiameterMm: shop.toolDiameterMm ?? design.cutting.toolDiameterMm,
         ...(sheet ? { sheet } : {}),
         ...(bar ? { onProgress: bar.tick } : {}),
+        ...(timeLimitS !== undefined ? { timeLimitMs: timeLimitS * 1000, now: () => performance.now() } : {}),
       });
       bar?.clear();
       // The drawing carries the design-rule summary for the tool this quote uses.
       const assembly = buildAssembly(design, frame);
       const checks = checkFrame(frame, { toolDiameterMm: quote.toolDiameterMm }, assembly).summary;
-      const meta = { design: design.name, revision: design.revision, date, checks };
-      const hardware = hardwareList(assembly, design);
-      const set = drawingSet(frame.parts, quote, { ...meta, generalTolerance: opts.tolerance ?? 'ISO 2768-m unless stated', hardware });
-      const files: OutputFile[] = [];
-      const report = quoteReport(quote, meta);
-      files.push({ path: join(outDir, 'quote.json'), data: `${JSON.stringify(report, null, 2)}\n` });
-      const sheets = layoutDrawing(set);
-      // The PDF writer (and its font machinery) loads only here, where a PDF is written.
-      const { drawingToPdf } = await import('../../export/pdfDrawing.js');
-      files.push({ path: join(outDir, 'drawing.pdf'), data: await drawingToPdf(set, sheets) });
-      drawingToSvgs(sheets).forEach((svg, i) => files.push({ path: join(outDir, `drawing-${pad(i + 1)}.svg`), data: svg }));
-      quote.nesting.sheets.forEach((s, i) => {
-        const name = `sheet-${pad(i + 1)}-${s.thicknessMm}mm`;
-        const note = `${design.name} rev ${design.revision}: sheet ${i + 1} of ${quote.nesting.sheets.length}, ${s.thicknessMm} mm ${s.material}, ${s.placements.length} parts, utilisation ${(s.utilisation * 100).toFixed(1)} %`;
-        files.push({
-          path: join(outDir, 'sheets', `${name}.dxf`),
-          data: placedPartsToDxf(
-            s.placements.map((p) => ({ part: frame.parts[p.item], transform: p.transform, label: `${p.partName} ${p.copy + 1}` })),
-            { version: opts.r2000 ? 'R2000' : 'R12', comment: note },
-          ),
-        });
-        files.push({ path: join(outDir, 'sheets', `${name}.svg`), data: sheetLayoutToSvg(s, frame.parts, { title: name, marginMm: quote.nesting.marginMm, note }) });
+      const { report, files: pkg } = await quotePackage(frame.parts, quote, {
+        design: design.name,
+        revision: design.revision,
+        date,
+        checks,
+        hardware: hardwareList(assembly, design),
+        generalTolerance: opts.tolerance ?? DEFAULT_GENERAL_TOLERANCE,
+        ...(opts.r2000 ? { r2000: true } : {}),
+        fonts: drawingFonts(),
       });
+      const files: OutputFile[] = pkg.map((f) => ({ path: join(outDir, ...f.name.split('/')), data: f.data }));
       writeAllAtomically(files, outDir);
       if (opts.json) {
         process.stdout.write(`${JSON.stringify({ ...report, outDir, files: files.map((f) => f.path) }, null, 2)}\n`);
@@ -124,8 +121,8 @@ export function registerQuote(program: Command): void {
       const rows = quote.parts.map((p) => [p.cut.name, String(p.cut.quantity * quantity), p.cut.thicknessMm.toFixed(1), p.cut.toolPathMm.toFixed(0), String(p.time.passes), String(p.cut.pierces), p.time.totalMin.toFixed(1), p.cost.total.toFixed(2)]);
       process.stdout.write(`${design.name} rev ${design.revision}: ${quantity} frame${quantity === 1 ? '' : 's'}, quoted for ${shop.name}\n\n`);
       process.stdout.write(`${textTable(['part', 'copies', 'mm', 'path mm', 'passes', 'pierces', 'min each', `direct ${cur} each`], rows)}\n\n`);
-      const srows = quote.nesting.groups.map((g) => [g.thicknessMm.toFixed(1), g.material, String(g.sheets), g.areaBoundSheets.toFixed(2), `${(g.utilisation * 100).toFixed(1)} %`]);
-      process.stdout.write(`${textTable(['mm', 'material', 'sheets', 'area bound', 'utilisation'], srows)}\n\n`);
+      const srows = quote.nesting.groups.map((g) => [g.thicknessMm.toFixed(1), g.material, String(g.sheets), String(g.lowerBoundSheets), `${(g.utilisation * 100).toFixed(1)} %`, g.minGapMm === null ? '' : g.minGapMm.toFixed(3)]);
+      process.stdout.write(`${textTable(['mm', 'material', 'sheets', 'fewest possible', 'utilisation', 'closest parts mm'], srows)}\n\n`);
       const t = quote.batchTime;
       const c = quote.batchCost;
       process.stdout.write(
@@ -137,5 +134,3 @@ export function registerQuote(program: Command): void {
       process.stdout.write(`design-rule checks: ${checks.errors} error(s), ${checks.warnings} warning(s)${checks.errors ? ' - see `framewright check` before cutting' : ''}\nfiles in ${outDir}\n`);
     });
 }
-
-const pad = (n: number): string => String(n).padStart(2, '0');
