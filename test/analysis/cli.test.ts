@@ -89,11 +89,12 @@ describe('framewright modes', () => {
     expect(xmlProblem(svg)).toBeNull();
     expect(svg).toMatch(/Hz — Tessel 5 · assembled frame · mode 1/);
     expect(svg).toMatch(/body twist/);
-    for (const id of ['plan-rest', 'plan-moved', 'side-rest', 'side-moved', 'scale-bar']) expect(svg).toContain(`id="${id}"`);
+    for (const id of ['plan-rest', 'plan-moved', 'side-rest', 'side-moved', 'plan-foot', 'side-foot']) expect(svg).toContain(`id="${id}"`);
+    expect(svg).toContain('class="scale-bar"');
     expect(svg).toMatch(/>front</);
     expect(svg).toMatch(/the largest motion drawn as \d+ mm/);
     // Plan view, front up: the front motors' labels sit above the rear ones (smaller y in SVG); body twist moves diagonal pairs opposite ways.
-    const label = (site: string) => svg.match(new RegExp(`<text x="[^"]+" y="([^"]+)"[^>]*>${site}, (up|down) `))!;
+    const label = (site: string) => svg.match(new RegExp(`<text[^>]* y="([^"]+)"[^>]*>${site}, (up|down) `))!;
     expect(Number(label('front-left')[1])).toBeLessThan(Number(label('rear-left')[1]));
     expect(label('front-left')[2]).toBe(label('rear-right')[2]);
     expect(label('front-left')[2]).not.toBe(label('front-right')[2]);

@@ -127,7 +127,8 @@ def main():
     weave_of = lambda k: math.radians(sec(k).get("weaveDeg", 0))  # noqa: E731
     body, arms, top = sec("body"), sec("arms"), sec("topPlate")
     tb = body.get("thicknessMm", 2.5)
-    ta = arms["thicknessMm"]
+    # A one-piece frame's arms are the bottom plate (no thickness of their own).
+    ta = arms.get("thicknessMm", tb)
     tt = top.get("thicknessMm", 2)
     so = body["standoffs"]
     gap = so.get("heightMm", 25)
