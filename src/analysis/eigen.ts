@@ -193,14 +193,30 @@ export function lowestEigenpairs(k: SparseSymmetric, mFull: SparseSymmetric, cou
     seed = (seed * 1103515245 + 12345) % 2147483648;
     return seed / 2147483648 - 0.5;
   };
-  /** Remove the components along the locked and basis vectors (two classical Gram–Schmidt passes); first-pass basis coefficients returned. */
-  const orthogonalise = (v: Float64Array): number[] => {
+  /**
+   * Remove the components along the locked and basis vectors by classical Gram–Schmidt, a second pass
+   * only when the first removed more than half of v's M-norm (the criterion of Daniel, Gragg, Kaufman &
+   * Stewart, Math. Comp. 30, 1976: the removed part, Σc², comes from the coefficients, M-orthonormal basis).
+   * @param norm0 v's M-norm before
+   * @returns the first pass's basis coefficients
+   */
+  const orthogonalise = (v: Float64Array, norm0: number): number[] => {
     let first: number[] = [];
     for (let pass = 0; pass < 2; pass++) {
-      for (let i = 0; i < lockedQ.length; i++) axpy(v, -dot(lockedMQ[i], v), lockedQ[i]);
+      let removed = 0;
+      for (let i = 0; i < lockedQ.length; i++) {
+        const c = dot(lockedMQ[i], v);
+        removed += c * c;
+        axpy(v, -c, lockedQ[i]);
+      }
       const c = q.map((_, i) => dot(mq[i], v));
-      for (let i = 0; i < q.length; i++) axpy(v, -c[i], q[i]);
-      if (pass === 0) first = c;
+      for (let i = 0; i < q.length; i++) {
+        removed += c[i] * c[i];
+        axpy(v, -c[i], q[i]);
+      }
+      if (pass > 0) break;
+      first = c;
+      if (norm0 * norm0 - removed > 0.5 * norm0 * norm0) break;
     }
     return first;
   };
@@ -252,7 +268,7 @@ export function lowestEigenpairs(k: SparseSymmetric, mFull: SparseSymmetric, cou
       return v;
     });
     const norms = cands.map((v) => Math.sqrt(Math.max(dot(v, m.multiply(v)), 0)));
-    for (const v of cands) orthogonalise(v);
+    cands.forEach((v, i) => orthogonalise(v, norms[i]));
     return normaliseBlock(cands, norms);
   };
   addToBasis(randomBlock());
@@ -265,7 +281,7 @@ export function lowestEigenpairs(k: SparseSymmetric, mFull: SparseSymmetric, cou
     for (let j = last; j < lastEnd; j++) {
       const v = Float64Array.from(z[j]);
       norms0.push(Math.sqrt(Math.max(dot(v, m.multiply(v)), 0)));
-      h[j] = orthogonalise(v);
+      h[j] = orthogonalise(v, norms0[norms0.length - 1]);
       cands.push(v);
     }
     // H over the current basis is now complete: entry (i, j) was formed when the later of the two
