@@ -55,7 +55,8 @@ export { assembledFrameModes, type FrameModalResult, type FrameMode, type FrameM
 export { makeVariant, planVariant, type VariantRequest, type VariantResult, type VariantPlan } from './variant/variant.js';
 export { VariantRefusal, VariantRequestError } from './variant/errors.js';
 export { rangeRow, variantRow, sourceRow, bandSamples, type RangeRow } from './variant/sizeRange.js';
-export { rotationBandFromTipSpeed, fullThrustN, type RotationBand } from './analysis/rotation.js';
+export { rotationBandFromTipSpeed, rotationBandOf, fullThrustN, type RotationBand } from './analysis/rotation.js';
+export { frameModeShape, type FrameModeShape } from './analysis/frameShape.js';
 
 // ── Quotes: cut data, nesting, time and price ─────────────────────────────────────────────────
 export { quoteParts, type Quote, type QuoteOptions } from './quote/quote.js';
@@ -67,6 +68,7 @@ export { partToDxf, placedPartsToDxf, type DxfOptions } from './export/dxf.js';
 export { partToSvg, type SvgPartOptions } from './export/svgPart.js';
 export { frameOverviewSvg, type OverviewOptions } from './export/svgOverview.js';
 export { assemblyViewSvg, type AssemblyViewSvgOptions } from './export/svgAssemblyView.js';
+export { frameModeSvg, type FrameModePlot } from './export/svgFrameModes.js';
 export { hardwareCsv } from './export/hardwareCsv.js';
 export { quotePackage, type PackageFile, type QuotePackageMeta } from './export/quotePackage.js';
 export { zipStore, type ZipEntry } from './export/zip.js';

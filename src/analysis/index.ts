@@ -13,3 +13,4 @@ export * from './modes.js';
 export * from './rotation.js';
 export * from './frameModel.js';
 export * from './frameModes.js';
+export * from './frameShape.js';

@@ -50,6 +50,23 @@ export function rotationBandFromTipSpeed(propDiameterMm: number, tipSpeedMps = T
   return { lowHz: BAND_LOW_FRACTION * high, highHz: high, source: `blade tip speed ${tipSpeedMps} m/s on a ${propDiameterMm.toFixed(1)} mm prop (top), ${Math.round(BAND_LOW_FRACTION * 100)} % of it (bottom)` };
 }
 
+/** A motor's speed under load over its no-load speed kv × V (domain.md: 0.75–0.85; common practice, no source). */
+export const LOADED_SPEED_FRACTION = 0.8;
+
+/**
+ * The motors' rotation band of a design: top rotation frequency kv × V × 0.8 / 60 when the motor
+ * gives kv and a supply voltage, else from the prop's tip speed (`props.maxTipSpeedMps`, default
+ * 240 m/s) as v / (π D); bottom 30 % of the top.
+ * @param propDiameterMm prop diameter, mm (> 0)
+ * @example rotationBandOf({ motor: { kv: 2400, supplyVoltageV: 22.2 }, props: {} }, 129.5).highHz // 710.4
+ */
+export function rotationBandOf(d: Readonly<{ motor: Readonly<{ kv?: number; supplyVoltageV?: number }>; props: Readonly<{ maxTipSpeedMps?: number }> }>, propDiameterMm: number): RotationBand {
+  const { kv, supplyVoltageV } = d.motor;
+  if (kv === undefined || supplyVoltageV === undefined) return rotationBandFromTipSpeed(propDiameterMm, d.props.maxTipSpeedMps ?? TOP_TIP_SPEED_MPS);
+  const high = (kv * supplyVoltageV * LOADED_SPEED_FRACTION) / 60;
+  return { lowHz: BAND_LOW_FRACTION * high, highHz: high, source: `motor ${kv} kv on ${supplyVoltageV} V, ${Math.round(LOADED_SPEED_FRACTION * 100)} % of its no-load speed (top), ${Math.round(BAND_LOW_FRACTION * 100)} % of it (bottom)` };
+}
+
 /**
  * Static thrust of one prop turning at `rotationHz`: T = C_T ρ n² D⁴. N.
  * @example propThrustN(127, 650) // ≈ 13.46: a 5-inch prop at 650 rev/s

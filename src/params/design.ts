@@ -162,6 +162,10 @@ function assemblyIssues(d: DesignParsed): DesignIssue[] {
   if (d.motor.heightMm !== undefined && d.motor.heightMm > propBandLowMm) {
     issues.push({ path: 'motor.heightMm', value: d.motor.heightMm, message: `reaches into the prop band, which starts ${propBandLowMm} mm above the arm (props.heightAboveArmMm − props.bandMm / 2); raise props.heightAboveArmMm or lower the motor height` });
   }
+  if ((d.motor.kv === undefined) !== (d.motor.supplyVoltageV === undefined)) {
+    const [given, missing] = d.motor.kv === undefined ? ['motor.supplyVoltageV', 'motor.kv'] : ['motor.kv', 'motor.supplyVoltageV'];
+    issues.push({ path: missing, value: undefined, message: `is required with ${given}: the top rotation speed is kv × voltage (or give neither, and props.maxTipSpeedMps or its default sets it)` });
+  }
   if (d.motor.heightMm === undefined && propBandLowMm < 3) {
     issues.push({ path: 'props.heightAboveArmMm', value: d.props.heightAboveArmMm, message: `leaves ${propBandLowMm} mm under the prop band for the motor (at least 3 mm); raise it or give motor.heightMm` });
   }
@@ -173,6 +177,9 @@ function assemblyIssues(d: DesignParsed): DesignIssue[] {
     }
     if (c.kind === 'stack' && c.patternMm !== undefined && stackIndex !== null && stackIndex < d.stacks.length && !d.stacks[stackIndex].patternsMm.some((p) => Math.abs(p - c.patternMm!) < 1e-9)) {
       issues.push({ path: `${at}.patternMm`, value: c.patternMm, message: `is not a pattern of stack mount ${stackIndex} (${d.stacks[stackIndex].patternsMm.join(', ')} mm)` });
+    }
+    if ((c.kind === 'video-transmitter' || c.kind === 'receiver') && c.on !== 'stack' && c.softMountNPerMm !== undefined) {
+      issues.push({ path: `${at}.softMountNPerMm`, value: c.softMountNPerMm, message: `needs screws to ride on: soft mounts are for boards on a stack (on: stack), this one is on ${c.on}` });
     }
     if ((c.kind === 'video-transmitter' || c.kind === 'receiver') && c.on !== 'stack' && c.atMm === undefined) {
       issues.push({ path: `${at}.atMm`, value: undefined, message: `is required when on is ${c.on} (the centre in plan, mm)` });

@@ -157,6 +157,8 @@ export const DesignSchema = z
         // common practice, no source: a prop's hub and pitched blades sweep a band a few mm thick.
         bandMm: num(1, 40, 'mm', 'thickness of the band the blades sweep, centred on the prop plane').default(6),
         spin: z.enum(['props-in', 'props-out'], { error: 'must be props-in or props-out' }).optional().describe('direction of rotation: props-in (front props turn towards the centre line at the front) or props-out'),
+        // common practice, no source: 240 m/s puts a 5-inch prop near 590 Hz and a 7-inch near 430 Hz at full throttle.
+        maxTipSpeedMps: num(50, 340, 'm/s', 'blade tip speed at full throttle, for the motors’ rotation band when the motor gives no kv and voltage (default 240)').optional(),
       })
       .strict(),
     motor: z
@@ -172,7 +174,9 @@ export const DesignSchema = z
         boreMm: num(0, 30, 'mm', "centre bore for the shaft clip; 0 for none; default: the motor table's bore for this bolt pattern, kept clear of the bolt holes by the web rule's warning web").optional(),
         bellDiameterMm: num(8, 80, 'mm', "motor bell diameter, for the tip pad and guard; default: the motor table's bell for this bolt pattern").optional(),
         massG: num(1, 1000, 'g', 'mass of one motor, for stiffness and resonance; default: the typical mass of the motor class whose bell is nearest').optional(),
-        heightMm: num(3, 80, 'mm', 'motor height from its base to the top of the bell (default: up to the prop band)').optional(),
+        heightMm: num(3, 80, 'mm', 'motor height from its base to the top of the bell (default: 0.6 × the bell diameter, at most up to the prop band)').optional(),
+        kv: num(50, 20000, 'rpm/V', 'motor speed constant; with supplyVoltageV it sets the top of the motors’ rotation band (kv × V × 0.8 under load / 60)').optional(),
+        supplyVoltageV: num(1, 100, 'V', 'battery voltage under load, e.g. 22.2 for a 6S pack (needs kv)').optional(),
         // domain.md: 3–5 mm of thread in the motor base (common practice).
         threadDepthMm: num(1, 15, 'mm', 'depth of the threaded holes in the motor base; a longer screw reaches the windings').default(3.5),
       })
