@@ -305,7 +305,7 @@ function frameModeNotes(m: FrameModalResult['modes'][number]): string {
 export function registerModes(program: Command): void {
   program
     .command('modes')
-    .description('natural frequencies and mode shapes of every plate, each arm with its motor and a one-piece frame with its motors; arm-tip deflection and body twist; compare several designs side by side')
+    .description('natural frequencies and mode shapes of the assembled frame (named as a pilot sees them, against the motors\' rotation band), each arm as built with its motor, and every plate; arm-tip deflection and body twist; compare several designs side by side')
     .argument('<inputs...>', 'design files (YAML or JSON), or DXF drawings (.dxf, with --thickness); two or more print a comparison table')
     .option('--part <name>', 'only this part')
     .option('--modes <n>', 'modes per model, 1 to 50 (default 6)')
