@@ -398,8 +398,9 @@ function fillSheets(g: Group, counts: readonly number[], rules: readonly Strateg
     else {
       const tries: Fill[] = [];
       for (const strategy of rules) {
-        // A lattice rule only differs from bottom-left while its kind has copies left and a lattice.
-        if (strategy.lattice !== undefined && (remaining[strategy.lattice] <= 0 || !latticeOf(g, strategy.lattice))) continue;
+        // A lattice rule is tried while its kind has copies left for at least half its lattice (with
+        // fewer, any rule fits them and the lattice only costs time).
+        if (strategy.lattice !== undefined && 2 * remaining[strategy.lattice] < (latticeOf(g, strategy.lattice)?.points.length ?? Infinity)) continue;
         if (tries.length && clock.now && clock.now() > clock.deadline) {
           clock.timedOut = true;
           break;

@@ -314,10 +314,25 @@ export type LatticeOptions = Readonly<{
  * Deterministic. Returns null when no lattice fits two copies.
  */
 export function bestLattice(src: LatticeSource, options: LatticeOptions): Lattice | null {
-  const samples = options.samples ?? 48;
+  const samples = options.samples ?? 24;
   const cache = new Map<string, EdgeIndex>();
   let best: Lattice | null = null;
-  const better = (pts: LatticePoint[]) => !best || pts.length > best.points.length;
+  // More copies win; then the smaller box round them (a larger strip left for the other rules to fill).
+  let bestSpan = Infinity;
+  const spanOf = (pts: readonly LatticePoint[], boxOf: (oi: number) => IBox): number => {
+    let x0 = Infinity;
+    let y0 = Infinity;
+    let x1 = -Infinity;
+    let y1 = -Infinity;
+    for (const p of pts) {
+      const b = boxOf(p.oi);
+      x0 = Math.min(x0, p.x + b[0]);
+      y0 = Math.min(y0, p.y + b[1]);
+      x1 = Math.max(x1, p.x + b[2]);
+      y1 = Math.max(y1, p.y + b[3]);
+    }
+    return (x1 - x0) * (y1 - y0);
+  };
   for (const swap of [false, true]) {
     const view = viewOf(src, swap, cache);
     const boxOf = (oi: number): IBox => {
@@ -339,7 +354,10 @@ export function bestLattice(src: LatticeSource, options: LatticeOptions): Lattic
         const by = rowSpacing(pairs, ax, bx);
         if (by === null) continue;
         const pts = layOut(view, motif, ax, bx, by);
-        if (pts.length >= 2 && better(pts)) {
+        if (pts.length < 2 || (best && pts.length < best.points.length)) continue;
+        const span = spanOf(pts, boxOf);
+        if (!best || pts.length > best.points.length || span < bestSpan) {
+          bestSpan = span;
           const un = (p: Pt): Pt => (swap ? { x: p.y, y: p.x } : p);
           const points = pts.map((p) => ({ oi: p.oi, ...un(p) })).sort((p, q) => p.y - q.y || p.x - q.x);
           best = { points, a: un({ x: ax, y: 0 }), b: un({ x: bx, y: by }), motif: motif.map((m) => ({ oi: m.oi, d: un(m.d) })) };
