@@ -166,7 +166,13 @@ function rowPeriod(pairs: readonly PairConstraint[]): number | null {
     if (p.same) continue;
     for (let i = 0; i + 1 < hits.length; i += 2) if (p.cx > hits[i] && p.cx < hits[i + 1]) return null;
   }
+  // Start past each copy's own no-fit interval through its reference point (the first neighbour can
+  // sit no closer), so the search below steps over few multiples.
   let ax = 1;
+  for (const { p, hits } of lines) {
+    if (!p.same) continue;
+    for (let i = 0; i + 1 < hits.length; i += 2) if (p.cx > hits[i] && p.cx < hits[i + 1]) ax = Math.max(ax, Math.ceil(hits[i + 1] - p.cx) + 1);
+  }
   for (let changed = true; changed; ) {
     changed = false;
     for (const { p, hits } of lines) {
