@@ -85,8 +85,9 @@ export type NestResult = Readonly<{
  * least the spacing apart exactly when their grown shapes do not overlap. Sheets are filled one at a
  * time: a part goes to the best corner of the region where it fits, which is the usable area minus the
  * no-fit polygons of the parts already there (computed from convex pieces, holes in them being windows
- * of large parts where small ones fit). Several placement rules fill each sheet and the fullest
- * sheet is kept; a sheet whose situation repeats (many identical frames) is copied, not recomputed.
+ * of large parts where small ones fit). Several placement rules fill each sheet (among them, per kind
+ * of part, its best lattice laid first: see nestLattice.ts) and the fullest sheet is kept; a sheet
+ * whose situation repeats (many identical frames) is copied, not recomputed.
  * Rotations keep the weave on the sheet axes; parts of different thickness or material never share a
  * sheet. Every sheet is then checked on the exact geometry (spacing, margins, no overlap).
  * @throws DesignError naming `sheet` when the sheet has no usable area or a part does not fit an
