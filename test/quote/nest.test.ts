@@ -164,6 +164,9 @@ describe('nesting', () => {
     expect(r.sheets[0].placements.length).toBeLessThanOrEqual(46);
     expect(r.groups[0].rule).toMatch(/^lattice of tri/);
     expectValid(shapelyCheck([tri], r, 5), 50, 5);
+    // The lattice search is deterministic too.
+    const again = nestParts([{ part: tri, count: 50 }], { sheet: { widthMm: 300, heightMm: 200 }, spacingMm: 5, marginMm: MARGIN });
+    expect(JSON.stringify(again)).toBe(JSON.stringify(r));
   });
 
   it.skipIf(!haveShapely)('lattices of Tessel 5 arms (pairs turned 180°) and bottom plates: every pair and margin through Shapely', () => {
