@@ -63,7 +63,7 @@ function sheetsFigure(frames: number, order: number, slack: number): BenchFigure
         value: r.groups.map((g) => g.sheets).join(' / '),
         peer: `libnest2d on convex hulls ${ref ? ref.join(' / ') : slow ? '(FW_BENCH_SLOW=1: ~3 min)' : 'not installed'}`,
         met: r.groups.every((g, i) => g.sheets <= allowed[i]),
-        note: `lower bound ${bound.join(' / ')}${slack === 1 ? '' : ` (goal ≤ ${allowed.join(' / ')})`}; nesting ${(ms / 1000).toFixed(1)} s; closest parts ${Math.min(...r.groups.map((g) => g.minGapMm ?? Infinity)).toFixed(3)} mm for ${SPACING_MM} mm asked`,
+        note: `lower bound ${bound.join(' / ')}${slack === 1 ? '' : ` (goal ≤ ${allowed.join(' / ')})`}, over it by ${r.groups.map((g, i) => `${Math.round((g.sheets / bound[i] - 1) * 100)} %`).join(' / ')}; rules that won ${r.groups.map((g) => g.rule).join(' / ')}; nesting ${(ms / 1000).toFixed(1)} s; closest parts ${Math.min(...r.groups.map((g) => g.minGapMm ?? Infinity)).toFixed(3)} mm for ${SPACING_MM} mm asked`,
       };
     },
   };

@@ -1,7 +1,8 @@
-import { FillRule, difference, rectClip, type Paths64 } from 'clipper2-ts';
+import { FillRule, difference, intersect, type Paths64 } from 'clipper2-ts';
 import { partArea, type Part, type Transform } from '../geometry/index.js';
 import { DesignError } from '../params/errors.js';
 import { verifySheet } from './nestCheck.js';
+import { bestLattice, clearOf, type Lattice, type LatticeSource, type NfpIndexCache } from './nestLattice.js';
 import { NEST_SCALE, dilatedShape, noFitPolygon, occupiedAreaMm2, quarterTurn, ringArea2, ringBox, sameShape, turnPoint, type IBox, type NestShape } from './nestShapes.js';
 
 export type SheetSize = Readonly<{ widthMm: number; heightMm: number }>;
@@ -84,8 +85,9 @@ export type NestResult = Readonly<{
  * least the spacing apart exactly when their grown shapes do not overlap. Sheets are filled one at a
  * time: a part goes to the best corner of the region where it fits, which is the usable area minus the
  * no-fit polygons of the parts already there (computed from convex pieces, holes in them being windows
- * of large parts where small ones fit). Several placement rules fill each sheet and the fullest
- * sheet is kept; a sheet whose situation repeats (many identical frames) is copied, not recomputed.
+ * of large parts where small ones fit). Several placement rules fill each sheet (among them, per kind
+ * of part, its best lattice laid first: see nestLattice.ts) and the fullest sheet is kept; a sheet
+ * whose situation repeats (many identical frames) is copied, not recomputed.
  * Rotations keep the weave on the sheet axes; parts of different thickness or material never share a
  * sheet. Every sheet is then checked on the exact geometry (spacing, margins, no overlap).
  * @throws DesignError naming `sheet` when the sheet has no usable area or a part does not fit an
@@ -191,6 +193,12 @@ type Group = Readonly<{
   sizeOrder: readonly number[];
   orients: readonly Orient[];
   orientsOf: readonly (readonly number[])[];
+  /** Per member, the orientation each quarter turn (0–3) lands on (a turn that gives the same shape shares one), or -1 when not allowed. */
+  turnOrient: readonly (readonly number[])[];
+  /** Best lattice of each member on an empty sheet, computed when first asked for. */
+  lattices: Map<number, Lattice | null>;
+  /** Indexed no-fit polygons for checking lattice copies. */
+  nfpIndex: NfpIndexCache;
   base: readonly NestShape[];
   nfps: Map<number, Paths64>;
   nfpBase: Map<string, Paths64>;
@@ -230,15 +238,23 @@ function prepareGroup(items: readonly NestItem[], members: readonly number[], op
   const base = members.map((i, j) => (items[i].part.features.length ? dilatedShape(items[i].part, half, -items[i].part.weaveRad, holdsAPart) : solid[j]));
   const orients: Orient[] = [];
   const orientsOf: number[][] = [];
+  const turnOrient: number[][] = [];
   members.forEach((i, j) => {
     const mine: number[] = [];
+    const byTurn = [-1, -1, -1, -1];
     for (const k of turnsOf[j]) {
       const shape = quarterTurn(base[j], k);
-      if (mine.some((o) => sameShape(orients[o].shape, shape))) continue;
+      const same = mine.find((o) => sameShape(orients[o].shape, shape));
+      if (same !== undefined) {
+        byTurn[k] = same;
+        continue;
+      }
+      byTurn[k] = orients.length;
       mine.push(orients.length);
       orients.push({ item: j, turn: k, shape, ifp: ifpOf(shape.box) });
     }
     orientsOf.push(mine);
+    turnOrient.push(byTurn);
     if (items[i].count > 0 && mine.every((o) => orients[o].ifp === null)) {
       throw new DesignError([{
         path: 'sheet',
@@ -254,6 +270,9 @@ function prepareGroup(items: readonly NestItem[], members: readonly number[], op
     sizeOrder: solid.map((sh) => ringArea2(sh.rings[0])),
     orients,
     orientsOf,
+    turnOrient,
+    lattices: new Map(),
+    nfpIndex: new Map(),
     base,
     nfps: new Map(),
     nfpBase: new Map(),
@@ -302,6 +321,8 @@ type Strategy = Readonly<{
   score: Score;
   /** Score for every kind but the largest (default `score`): big plates in rows, small ones in a grid round them. */
   scoreSmall?: Score;
+  /** Member whose best lattice is laid first (as many copies as are left), the rest then placed by the score. */
+  lattice?: number;
 }>;
 
 const boxAt = (x: number, y: number, o: Orient): IBox => [x + o.shape.box[0], y + o.shape.box[1], x + o.shape.box[2], y + o.shape.box[3]];
@@ -345,8 +366,25 @@ type SheetLayout = Readonly<{ placed: Placed[]; rule: string }>;
 
 /** Fill sheets until every copy is placed. */
 function fillGroup(g: Group, clock: Clock, progress: (done: number) => void): SheetLayout[] {
-  return fillSheets(g, g.counts, STRATEGIES, clock, progress);
+  // One more rule per kind of part: its best lattice first, the rest bottom-left round it.
+  const lattices = g.items.map((_, t): Strategy => ({ name: `lattice of ${g.names[t]}, then bottom-left`, order: 'area', score: STRATEGIES[0].score, lattice: t }));
+  return fillSheets(g, g.counts, [...STRATEGIES, ...lattices], clock, progress);
 }
+
+/** The best lattice of member t on an empty sheet (cached per group). */
+function latticeOf(g: Group, t: number): Lattice | null {
+  if (!g.lattices.has(t)) {
+    const half = (oi: number): number | null => {
+      const o = g.orients[oi];
+      const twin = g.turnOrient[t][(o.turn + 2) % 4];
+      return twin >= 0 ? twin : null;
+    };
+    g.lattices.set(t, bestLattice(latticeSource(g), { orients: g.orientsOf[t].filter((oi) => g.orients[oi].ifp), halfTurn: half, box: (oi) => g.orients[oi].shape.box }));
+  }
+  return g.lattices.get(t)!;
+}
+
+const latticeSource = (g: Group): LatticeSource => ({ ifp: (oi) => g.orients[oi].ifp, nfp: (a, b) => nfpOf(g, a, b) });
 
 /** Fill sheets one after the other with the best of the rules; a sheet whose situation repeats is copied. */
 function fillSheets(g: Group, counts: readonly number[], rules: readonly Strategy[], clock: Clock, progress: (done: number) => void): SheetLayout[] {
@@ -361,6 +399,9 @@ function fillSheets(g: Group, counts: readonly number[], rules: readonly Strateg
     else {
       const tries: Fill[] = [];
       for (const strategy of rules) {
+        // A lattice rule is tried while its kind has copies left for at least half its lattice (with
+        // fewer, any rule fits them and the lattice only costs time).
+        if (strategy.lattice !== undefined && 2 * remaining[strategy.lattice] < (latticeOf(g, strategy.lattice)?.points.length ?? Infinity)) continue;
         if (tries.length && clock.now && clock.now() > clock.deadline) {
           clock.timedOut = true;
           break;
@@ -441,8 +482,10 @@ function fillSheet(g: Group, counts: readonly number[], strategy: Strategy): Fil
       F.tiles.forEach((t, i) => {
         if (x0 >= t.box[2] || x1 <= t.box[0] || y0 >= t.box[3] || y1 <= t.box[1]) return;
         moved ??= nfpOf(g, p.oi, oj).map((ring) => ring.map((v) => ({ x: v.x + p.x, y: v.y + p.y })));
-        // Only the part of the no-fit polygon over this tile matters (a fast clip by rectangle).
-        clips[i].push(...rectClip({ left: t.box[0] - 1, top: t.box[1] - 1, right: t.box[2] + 1, bottom: t.box[3] + 1 }, moved));
+        // Only the part of the no-fit polygon over this tile matters. (clipper2's rectClip was faster but
+        // dropped pieces when a tile's corner fell on a no-fit polygon's vertex: rows of half-turned
+        // triangles then overlapped.)
+        clips[i].push(...intersect(moved, [rect([t.box[0] - 1, t.box[1] - 1, t.box[2] + 1, t.box[3] + 1])], FillRule.NonZero));
       });
     }
     F.seen = placed.length;
@@ -456,6 +499,24 @@ function fillSheet(g: Group, counts: readonly number[], strategy: Strategy): Fil
   };
   let box: IBox | null = null;
   let areaMm2 = 0;
+  const put = (t: number, oi: number, x: number, y: number) => {
+    const o = g.orients[oi];
+    placed.push({ o, oi, x, y });
+    remaining[t]--;
+    used[t]++;
+    areaMm2 += g.areaMm2[t];
+    const b = boxAt(x, y, o);
+    box = box ? [Math.min(box[0], b[0]), Math.min(box[1], b[1]), Math.max(box[2], b[2]), Math.max(box[3], b[3])] : b;
+  };
+  if (strategy.lattice !== undefined) {
+    const t = strategy.lattice;
+    const src = latticeSource(g);
+    for (const p of latticeOf(g, t)?.points ?? []) {
+      if (remaining[t] <= 0) break;
+      // Each copy checked on the exact integer no-fit polygons against those already placed.
+      if (placed.every((q) => clearOf(src, g.nfpIndex, q, p))) put(t, p.oi, p.x, p.y);
+    }
+  }
   for (;;) {
     const t = order.find((k) => remaining[k] > 0 && !full[k]);
     if (t === undefined) break;
@@ -478,13 +539,7 @@ function fillSheet(g: Group, counts: readonly number[], strategy: Strategy): Fil
       full[t] = true;
       continue;
     }
-    const o = g.orients[best.o];
-    placed.push({ o, oi: best.o, x: best.x, y: best.y });
-    remaining[t]--;
-    used[t]++;
-    areaMm2 += g.areaMm2[t];
-    const b = boxAt(best.x, best.y, o);
-    box = box ? [Math.min(box[0], b[0]), Math.min(box[1], b[1]), Math.max(box[2], b[2]), Math.max(box[3], b[3])] : b;
+    put(t, best.o, best.x, best.y);
   }
   return { placed: placed.map(({ o, x, y }) => ({ o, x, y })), used, exhausted: used.map((u, t) => u === counts[t]), areaMm2, box, rule: strategy.name };
 }
