@@ -1,5 +1,15 @@
 #!/usr/bin/env node
+import { setFlagsFromString } from 'node:v8';
 import { runCommandLine } from './run.js';
+
+// Most runs last a fraction of a second: V8's optimising compiler, tuned for long-lived pages,
+// would spend more CPU compiling hot functions (on a second thread, competing for the core) than
+// the optimised code then saves. A 15× larger interrupt budget (the bytecode a function runs
+// before V8 considers optimising it; Node 20's default is 67,584) lets short commands finish in
+// the interpreter and baseline code, while long runs (nesting, modes) still get optimised code
+// after a few milliseconds more. Measured in DEVELOPERS.md "Start-up"; only the command line sets
+// it, never the library.
+setFlagsFromString('--interrupt-budget=1000000');
 
 // A reader that stops early (`framewright schema | head`) closes the pipe: end quietly, as a shell
 // tool does, instead of a stack trace for the write that could not be delivered.

@@ -4,6 +4,7 @@ import { DesignSchema, type DesignParsed } from './schema.js';
 import { issuesFromZod, parseYamlText } from './yamlInput.js';
 import { typicalMotorMassG } from './motorTable.js';
 import { parseLengthMm } from './units.js';
+import { PARSE_ONCE } from './fields.js';
 
 /** Camera widths by size class, mm (common practice, no source). */
 export const CAMERA_WIDTH_MM = { nano: 14, micro: 19, mini: 21.5 } as const;
@@ -30,7 +31,7 @@ export function validateDesign(raw: unknown): Design {
   if (raw === null || typeof raw !== 'object' || Array.isArray(raw)) {
     throw new DesignError([{ path: '', value: raw, message: 'must be a mapping of design sections (name, layout, props, motor, arms, body...)' }]);
   }
-  const parsed = DesignSchema.safeParse(raw);
+  const parsed = DesignSchema.safeParse(raw, PARSE_ONCE);
   if (!parsed.success) throw new DesignError(issuesFromZod(parsed.error.issues, raw));
   return resolve(parsed.data);
 }

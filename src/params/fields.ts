@@ -19,3 +19,10 @@ export const int = (min: number, max: number, what: string) =>
     .min(min, { error: `is below the allowed range ${min} to ${max}` })
     .max(max, { error: `is above the allowed range ${min} to ${max}` })
     .describe(`${what} [${min} to ${max}]`);
+
+/**
+ * Parse options for a schema that parses a file once per run: zod's generated fast path (a
+ * function compiled with `new Function` per object schema, the first time it parses) costs more
+ * to build than it saves on one small document. Results and messages are the same either way.
+ */
+export const PARSE_ONCE = { jitless: true } as const;

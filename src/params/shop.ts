@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { DesignError, type DesignIssue } from './errors.js';
 import { issuesFromZod, parseYamlText } from './yamlInput.js';
+import { PARSE_ONCE } from './fields.js';
 
 /**
  * The shop profile: how one CNC shop turns cut data into time and money. Every number carries its
@@ -67,7 +68,7 @@ export function validateShop(raw: unknown): ShopProfile {
   if (raw === null || typeof raw !== 'object' || Array.isArray(raw)) {
     throw new DesignError([{ path: 'shop', value: raw, message: 'must be a mapping (name, currency, machineRatePerHour, feeds, stock...)' }]);
   }
-  const parsed = ShopSchema.safeParse(raw);
+  const parsed = ShopSchema.safeParse(raw, PARSE_ONCE);
   if (!parsed.success) {
     throw new DesignError(issuesFromZod(parsed.error.issues, raw, ['shop'], 'allowed keys are listed in the README (quote section)'));
   }

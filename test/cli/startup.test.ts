@@ -1,36 +1,38 @@
 import { existsSync, readFileSync } from 'node:fs';
-import { dirname, join, relative, resolve } from 'node:path';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { REPO } from '../helpers/demo.js';
 import { runCli } from '../helpers/cli.js';
 
 const DIST = join(REPO, 'dist');
 
-/** Static import and re-export specifiers of a compiled module (type-only imports are gone after tsc). */
-function staticImports(file: string): string[] {
-  const src = readFileSync(file, 'utf8');
-  const out: string[] = [];
-  for (const m of src.matchAll(/^\s*(?:import|export)\s+(?:[^'"`;]*?\s+from\s+)?['"]([^'"]+)['"]/gm)) out.push(m[1]);
-  return out;
-}
+/** What scripts/bundle-cli.mjs records: each output file's sources and the outputs it imports statically. */
+type BundleRecord = {
+  outputs: Record<string, { inputs: string[]; imports: string[] }>;
+  staticImportsOfSource: Record<string, number>;
+};
 
-/** Every module `framewright` loads before a command runs: the static import graph of dist/cli/main.js. */
-function startupGraph(): { modules: Map<string, string[]>; packages: Set<string> } {
-  const modules = new Map<string, string[]>();
-  const packages = new Set<string>();
-  const todo = [join(DIST, 'cli', 'main.js')];
+/** Every source `framewright` loads before a command runs: the sources of the outputs statically reachable from dist/cli/main.js. */
+function startupSources(): { sources: string[]; record: BundleRecord } {
+  const record = JSON.parse(readFileSync(join(DIST, 'cli', 'bundle.json'), 'utf8')) as BundleRecord;
+  const seen = new Set<string>();
+  const todo = ['cli/main.js'];
   while (todo.length) {
     const file = todo.pop()!;
-    if (modules.has(file)) continue;
-    const specs = staticImports(file);
-    modules.set(file, specs);
-    for (const s of specs) {
-      if (s.startsWith('.')) todo.push(resolve(dirname(file), s));
-      else if (!s.startsWith('node:')) packages.add(s.startsWith('@') ? s.split('/').slice(0, 2).join('/') : s.split('/')[0]);
-    }
+    if (seen.has(file)) continue;
+    seen.add(file);
+    const out = record.outputs[file];
+    if (!out) throw new Error(`${file} is not in dist/cli/bundle.json`);
+    todo.push(...out.imports);
   }
-  return { modules, packages };
+  return { sources: [...new Set([...seen].flatMap((f) => record.outputs[f].inputs))].sort(), record };
 }
+
+/** The npm package a source belongs to, or null for this project's own sources. */
+const packageOf = (source: string): string | null => {
+  const m = /node_modules\/((?:@[^/]+\/)?[^/]+)\//.exec(source);
+  return m ? m[1] : null;
+};
 
 describe('start-up loads only the command line (lazy imports, DEVELOPERS.md "How to add a command")', () => {
   it('the built CLI exists (npm test builds it first)', () => {
@@ -38,18 +40,27 @@ describe('start-up loads only the command line (lazy imports, DEVELOPERS.md "How
   });
 
   it('no npm package but the argument parser is loaded before a command runs', () => {
-    const { packages } = startupGraph();
-    expect([...packages].sort()).toEqual(['commander']);
+    const { sources } = startupSources();
+    expect([...new Set(sources.map(packageOf).filter((p) => p !== null))].sort()).toEqual(['commander']);
   });
 
-  it('every module loaded at start-up is the command line itself or a module that imports nothing', () => {
-    const { modules } = startupGraph();
-    const heavy = [...modules]
-      .filter(([file, specs]) => !file.startsWith(join(DIST, 'cli') + '/') && specs.length > 0)
-      .map(([file, specs]) => `${relative(DIST, file)} imports ${specs.join(', ')}`);
+  it('every source loaded at start-up is the command line itself or a module that imports nothing', () => {
+    const { sources, record } = startupSources();
+    const heavy = sources
+      .filter((s) => packageOf(s) === null && !s.startsWith('src/cli/') && record.staticImportsOfSource[s] > 0)
+      .map((s) => `${s} imports ${record.staticImportsOfSource[s]} module(s)`);
     // A failure here means a command file imports a stage at the top: move it into the action with `await import()`.
     expect(heavy).toEqual([]);
-    expect(modules.size).toBeGreaterThan(8);
+    expect(sources.filter((s) => s.startsWith('src/cli/')).length).toBeGreaterThan(8);
+  });
+
+  it('the stages are in the bundle, in chunks loaded by the commands that run them', () => {
+    const { sources, record } = startupSources();
+    const all = new Set(Object.values(record.outputs).flatMap((o) => o.inputs));
+    for (const stage of ['src/geometry/frame.ts', 'src/checks/report.ts', 'src/assembly/build.ts', 'src/quote/quote.ts', 'src/live/server.ts']) {
+      expect(all.has(stage), stage).toBe(true);
+      expect(sources, stage).not.toContain(stage);
+    }
   });
 
   it('--help lists every command and exits 0', () => {
