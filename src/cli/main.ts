@@ -1,6 +1,6 @@
 #!/usr/bin/env node
 import { setFlagsFromString } from 'node:v8';
-import { runCommandLine } from './run.js';
+import { codeCacheStatus, loadProgram, programFor, writeCodeCaches, type Program } from './program.js';
 
 // Most runs last a fraction of a second: V8's optimising compiler, tuned for long-lived pages,
 // would spend more CPU compiling hot functions (on a second thread, competing for the core) than
@@ -8,7 +8,7 @@ import { runCommandLine } from './run.js';
 // before V8 considers optimising it; Node 20's default is 67,584) lets short commands finish in
 // the interpreter and baseline code, while long runs (nesting, modes) still get optimised code
 // after a few milliseconds more. Measured in DEVELOPERS.md "Start-up"; only the command line sets
-// it, never the library.
+// it, never the library. The code caches are made with it set (a cache records V8's flags).
 setFlagsFromString('--interrupt-budget=1000000');
 
 // A reader that stops early (`framewright schema | head`) closes the pipe: end quietly, as a shell
@@ -20,4 +20,14 @@ for (const stream of [process.stdout, process.stderr]) {
   });
 }
 
-process.exitCode = await runCommandLine(process.argv);
+/** Set to true by scripts/bundle-cli.mjs; absent when the sources run directly (`npm run dev`). */
+declare const FRAMEWRIGHT_BUNDLE: boolean | undefined;
+
+// The built package runs its bundled program scripts with their code caches (program.ts); the
+// sources run as they are.
+const program: Program = typeof FRAMEWRIGHT_BUNDLE !== 'undefined' ? loadProgram(programFor(process.argv.slice(2))) : await import('./run.js');
+process.exitCode = await program.runCommandLine(process.argv);
+
+// The build's training runs (scripts/bundle-cli.mjs) and the bench's check of the caches.
+if (process.env.FRAMEWRIGHT_WRITE_CODE_CACHE === '1') writeCodeCaches();
+if (process.env.FRAMEWRIGHT_CODE_CACHE_STATUS === '1') process.stderr.write(`code cache: ${JSON.stringify(codeCacheStatus())}\n`);

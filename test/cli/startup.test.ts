@@ -6,27 +6,10 @@ import { runCli } from '../helpers/cli.js';
 
 const DIST = join(REPO, 'dist');
 
-/** What scripts/bundle-cli.mjs records: each output file's sources and the outputs it imports statically. */
-type BundleRecord = {
-  outputs: Record<string, { inputs: string[]; imports: string[] }>;
-  staticImportsOfSource: Record<string, number>;
-};
+/** What scripts/bundle-cli.mjs records: for each program script, its sources and how many modules each imports. */
+type BundleRecord = Record<'help' | 'full', Record<string, number>>;
 
-/** Every source `framewright` loads before a command runs: the sources of the outputs statically reachable from dist/cli/main.js. */
-function startupSources(): { sources: string[]; record: BundleRecord } {
-  const record = JSON.parse(readFileSync(join(DIST, 'cli', 'bundle.json'), 'utf8')) as BundleRecord;
-  const seen = new Set<string>();
-  const todo = ['cli/main.js'];
-  while (todo.length) {
-    const file = todo.pop()!;
-    if (seen.has(file)) continue;
-    seen.add(file);
-    const out = record.outputs[file];
-    if (!out) throw new Error(`${file} is not in dist/cli/bundle.json`);
-    todo.push(...out.imports);
-  }
-  return { sources: [...new Set([...seen].flatMap((f) => record.outputs[f].inputs))].sort(), record };
-}
+const bundleRecord = (): BundleRecord => JSON.parse(readFileSync(join(DIST, 'cli', 'bundle.json'), 'utf8')) as BundleRecord;
 
 /** The npm package a source belongs to, or null for this project's own sources. */
 const packageOf = (source: string): string | null => {
@@ -39,27 +22,26 @@ describe('start-up loads only the command line (lazy imports, DEVELOPERS.md "How
     expect(existsSync(join(DIST, 'cli', 'main.js'))).toBe(true);
   });
 
-  it('no npm package but the argument parser is loaded before a command runs', () => {
-    const { sources } = startupSources();
-    expect([...new Set(sources.map(packageOf).filter((p) => p !== null))].sort()).toEqual(['commander']);
+  it('the help program holds no npm package but the argument parser', () => {
+    const help = Object.keys(bundleRecord().help);
+    expect([...new Set(help.map(packageOf).filter((p) => p !== null))].sort()).toEqual(['commander']);
   });
 
-  it('every source loaded at start-up is the command line itself or a module that imports nothing', () => {
-    const { sources, record } = startupSources();
-    const heavy = sources
-      .filter((s) => packageOf(s) === null && !s.startsWith('src/cli/') && record.staticImportsOfSource[s] > 0)
-      .map((s) => `${s} imports ${record.staticImportsOfSource[s]} module(s)`);
+  it('every source of the help program is the command line itself or a module that imports nothing', () => {
+    const help = bundleRecord().help;
+    const heavy = Object.entries(help)
+      .filter(([s, imports]) => packageOf(s) === null && !s.startsWith('src/cli/') && imports > 0)
+      .map(([s, imports]) => `${s} imports ${imports} module(s)`);
     // A failure here means a command file imports a stage at the top: move it into the action with `await import()`.
     expect(heavy).toEqual([]);
-    expect(sources.filter((s) => s.startsWith('src/cli/')).length).toBeGreaterThan(8);
+    expect(Object.keys(help).filter((s) => s.startsWith('src/cli/')).length).toBeGreaterThan(8);
   });
 
-  it('the stages are in the bundle, in chunks loaded by the commands that run them', () => {
-    const { sources, record } = startupSources();
-    const all = new Set(Object.values(record.outputs).flatMap((o) => o.inputs));
-    for (const stage of ['src/geometry/frame.ts', 'src/checks/report.ts', 'src/assembly/build.ts', 'src/quote/quote.ts', 'src/live/server.ts']) {
-      expect(all.has(stage), stage).toBe(true);
-      expect(sources, stage).not.toContain(stage);
+  it('the stages are in the full program only', () => {
+    const { help, full } = bundleRecord();
+    for (const stage of ['src/geometry/frame.ts', 'src/checks/report.ts', 'src/assembly/build.ts', 'src/quote/quote.ts', 'src/live/server.ts', 'src/params/schema.ts']) {
+      expect(Object.keys(full), stage).toContain(stage);
+      expect(Object.keys(help), stage).not.toContain(stage);
     }
   });
 
