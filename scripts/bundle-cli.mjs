@@ -19,8 +19,9 @@
 import { build } from 'esbuild';
 import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { readdirSync, rmSync, writeFileSync } from 'node:fs';
-import { dirname, join } from 'node:path';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join, relative, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
@@ -41,16 +42,53 @@ const zodWithoutLocales = {
   },
 };
 
-/** The help program never runs a command: every stage a command would load becomes a loud failure. */
-const noStages = {
-  name: 'no-stages',
+/**
+ * A program for some commands only: a stage that the other commands' files would load becomes a
+ * loud failure instead of code to read and compile. `own` lists the command-line files whose
+ * `await import()`s are kept (a stage's own lazy imports are always kept); null keeps all.
+ */
+const onlyStagesOf = (own) => ({
+  name: 'only-stages-of',
   setup(b) {
-    b.onResolve({ filter: /.*/ }, (a) => (a.kind === 'dynamic-import' ? { path: a.path, namespace: 'no-stage' } : undefined));
+    if (own === null) return;
+    b.onResolve({ filter: /.*/ }, (a) => {
+      if (a.kind !== 'dynamic-import' || !a.path.startsWith('.')) return undefined;
+      const from = relative(root, a.importer).split(sep).join('/');
+      return from.startsWith('src/cli/') && !own.includes(from) ? { path: a.path, namespace: 'no-stage' } : undefined;
+    });
     b.onLoad({ filter: /.*/, namespace: 'no-stage' }, (a) => ({
-      contents: `throw new Error(${JSON.stringify(`internal: the help program cannot load ${a.path} (src/cli/program.ts programFor sent a command to it)`)});`,
+      contents: `throw new Error(${JSON.stringify(`internal: this program cannot load ${a.path} (src/cli/program.ts programFor sent another command to it)`)});`,
       loader: 'js',
     }));
   },
+});
+
+/**
+ * commander loads node:child_process at start-up for a feature framewright does not use (commands
+ * that are separate executables); loading it costs every run a few milliseconds. The bundle loads
+ * it on first use instead. Fails the build if commander's line changes.
+ */
+const commanderWithoutChildProcess = {
+  name: 'commander-without-child-process',
+  setup(b) {
+    b.onLoad({ filter: /[\\/]commander[\\/]lib[\\/]command\.js$/ }, (a) => {
+      const text = readFileSync(a.path, 'utf8');
+      const line = "const childProcess = require('node:child_process');";
+      if (!text.includes(line)) throw new Error(`${a.path}: the line "${line}" is gone; review the commander-without-child-process plugin`);
+      return { contents: text.replace(line, "const childProcess = { spawn: (...a) => require('node:child_process').spawn(...a) };"), loader: 'js' };
+    });
+  },
+};
+
+/**
+ * The programs, by the commands they run (src/cli/program.ts `programFor` picks one), each with the
+ * training run that makes its code cache. `check` gets a program of its own: it is the command
+ * people run most, on every edit; the rest share `full`.
+ */
+const PROGRAMS = {
+  help: { own: [], train: ['--help'] },
+  check: { own: ['src/cli/io.ts', 'src/cli/dxfInput.ts', 'src/cli/commands/check.ts', 'src/cli/commands/checkDxf.ts'], train: ['check', 'designs/tessel-5.yaml', 'designs/mote-3.yaml', 'designs/farline-7.yaml'] },
+  full: { own: null, train: ['build', 'designs/tessel-5.yaml', '--out', 'OUT'] },
 };
 
 const common = {
@@ -66,21 +104,25 @@ const common = {
 };
 
 /** A program script: CommonJS, run by src/cli/program.ts inside the module wrapper it adds. */
-async function program(kind, plugins) {
+async function program(kind) {
   const r = await build({
     ...common,
     entryPoints: ['src/cli/run.ts'],
     format: 'cjs',
     write: false,
     outfile: join(cliDir, `${kind}.cjs`),
-    plugins,
-    minifyWhitespace: process.env.FW_MIN === '1',
-    minifySyntax: process.env.FW_MIN === '1',
+    plugins: [onlyStagesOf(PROGRAMS[kind].own), zodWithoutLocales, commanderWithoutChildProcess],
+    // Less text to read at every start; names are kept, so a stack trace still names functions.
+    minifyWhitespace: true,
+    minifySyntax: true,
     // import.meta has no meaning in a script: its URL is the script's own (the package root is found from it).
     define: { 'import.meta.url': '__frameworkScriptUrl' },
     banner: { js: "const __frameworkScriptUrl = require('node:url').pathToFileURL(__filename).href;" },
   });
-  const code = r.outputFiles[0].contents;
+  // program.ts reads the script as Latin-1 (faster than UTF-8), which is exact for ASCII. esbuild
+  // escapes other characters in strings but leaves them in regular expressions (`[xX×]`): a \uXXXX
+  // escape means the same character in a string, a template, a regular expression and a comment.
+  const code = r.outputFiles[0].text.replace(/[^\x00-\x7f]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
   const hash = createHash('sha256').update(code).digest('hex').slice(0, 12);
   const script = `${kind}-${hash}.cjs`;
   writeFileSync(join(cliDir, script), code);
@@ -96,12 +138,13 @@ async function program(kind, plugins) {
 
 // Earlier builds' programs and caches carry other hashes: clear them, and the chunks of the
 // previous layout.
-for (const f of readdirSync(cliDir)) if (/^(help|full)-[0-9a-f]+\.(cjs|cache)$/.test(f)) rmSync(join(cliDir, f));
+for (const f of readdirSync(cliDir)) if (/^[a-z]+-[0-9a-f]{12}\.(cjs|cache)$/.test(f)) rmSync(join(cliDir, f));
 rmSync(join(cliDir, 'chunks'), { recursive: true, force: true });
 
-const [full, help] = await Promise.all([program('full', [zodWithoutLocales]), program('help', [noStages])]);
-writeFileSync(join(cliDir, 'programs.json'), `${JSON.stringify({ full: full.entry, help: help.entry }, null, 1)}\n`);
-writeFileSync(join(cliDir, 'bundle.json'), `${JSON.stringify({ help: help.sources, full: full.sources }, null, 1)}\n`);
+const kinds = Object.keys(PROGRAMS);
+const built = await Promise.all(kinds.map(program));
+writeFileSync(join(cliDir, 'programs.json'), `${JSON.stringify(Object.fromEntries(kinds.map((k, i) => [k, built[i].entry])), null, 1)}\n`);
+writeFileSync(join(cliDir, 'bundle.json'), `${JSON.stringify(Object.fromEntries(kinds.map((k, i) => [k, built[i].sources])), null, 1)}\n`);
 
 await Promise.all([
   build({ ...common, entryPoints: ['src/cli/main.ts'], outfile: join(cliDir, 'main.js'), format: 'esm', external: [...common.external, './run.js'], define: { FRAMEWRIGHT_BUNDLE: 'true' } }),
@@ -117,9 +160,15 @@ await Promise.all([
   }),
 ]);
 
-// Training runs: each program's code cache holds what a typical run compiles (help; checks of the
-// demo designs), made by the built CLI itself so V8's version and flags match the runs to come.
-for (const args of [['--help'], ['check', 'designs/tessel-5.yaml', 'designs/mote-3.yaml', 'designs/farline-7.yaml']]) {
-  const r = spawnSync(process.execPath, [join(cliDir, 'main.js'), ...args], { cwd: root, env: { ...process.env, FRAMEWRIGHT_WRITE_CODE_CACHE: '1' }, stdio: ['ignore', 'ignore', 'pipe'] });
-  if (r.status !== 0 && r.status !== 1) throw new Error(`training run framewright ${args.join(' ')} failed (${r.status}): ${r.stderr}`);
+// Training runs: each program's code cache holds what a typical run compiles, made by the built CLI
+// itself so that V8's version and flags match the runs to come.
+const scratch = mkdtempSync(join(tmpdir(), 'framewright-training-'));
+try {
+  for (const kind of kinds) {
+    const args = PROGRAMS[kind].train.map((a) => (a === 'OUT' ? join(scratch, 'out') : a));
+    const r = spawnSync(process.execPath, [join(cliDir, 'main.js'), ...args], { cwd: root, env: { ...process.env, FRAMEWRIGHT_WRITE_CODE_CACHE: '1' }, stdio: ['ignore', 'ignore', 'pipe'] });
+    if (r.status !== 0 && r.status !== 1) throw new Error(`training run framewright ${args.join(' ')} failed (${r.status}): ${r.stderr}`);
+  }
+} finally {
+  rmSync(scratch, { recursive: true, force: true });
 }

@@ -1,15 +1,19 @@
 #!/usr/bin/env node
-import { setFlagsFromString } from 'node:v8';
 import { codeCacheStatus, loadProgram, programFor, writeCodeCaches, type Program } from './program.js';
 
-// Most runs last a fraction of a second: V8's optimising compiler, tuned for long-lived pages,
-// would spend more CPU compiling hot functions (on a second thread, competing for the core) than
-// the optimised code then saves. A 15× larger interrupt budget (the bytecode a function runs
-// before V8 considers optimising it; Node 20's default is 67,584) lets short commands finish in
-// the interpreter and baseline code, while long runs (nesting, modes) still get optimised code
-// after a few milliseconds more. Measured in DEVELOPERS.md "Start-up"; only the command line sets
-// it, never the library. The code caches are made with it set (a cache records V8's flags).
-setFlagsFromString('--interrupt-budget=1000000');
+const kind = programFor(process.argv.slice(2));
+if (kind !== 'help') {
+  // Most runs last a fraction of a second: V8's optimising compiler, tuned for long-lived pages,
+  // would spend more CPU compiling hot functions (on a second thread, competing for the core) than
+  // the optimised code then saves. A 15× larger interrupt budget (the bytecode a function runs
+  // before V8 considers optimising it; Node 20's default is 67,584) lets short commands finish in
+  // the interpreter and baseline code, while long runs (nesting, modes) still get optimised code
+  // after a few milliseconds more. Measured in DEVELOPERS.md "Start-up"; only the command line
+  // sets it, never the library. Printing help is too short to care, and skips loading node:v8. A
+  // code cache records V8's flags: the build's training runs take this same path.
+  const { setFlagsFromString } = await import('node:v8');
+  setFlagsFromString('--interrupt-budget=1000000');
+}
 
 // A reader that stops early (`framewright schema | head`) closes the pipe: end quietly, as a shell
 // tool does, instead of a stack trace for the write that could not be delivered.
@@ -25,7 +29,7 @@ declare const FRAMEWRIGHT_BUNDLE: boolean | undefined;
 
 // The built package runs its bundled program scripts with their code caches (program.ts); the
 // sources run as they are.
-const program: Program = typeof FRAMEWRIGHT_BUNDLE !== 'undefined' ? loadProgram(programFor(process.argv.slice(2))) : await import('./run.js');
+const program: Program = typeof FRAMEWRIGHT_BUNDLE !== 'undefined' ? loadProgram(kind) : await import('./run.js');
 process.exitCode = await program.runCommandLine(process.argv);
 
 // The build's training runs (scripts/bundle-cli.mjs) and the bench's check of the caches.
