@@ -30,15 +30,16 @@ export class BooleanGuardError extends Error {
  */
 export function unionLoops(loops: readonly Loop[], guardRelTol = 1e-3): Loop[] {
   const bboxes = loops.map(loopBBox);
+  const segBoxes = loops.map((l) => l.map(segmentBBox));
   const pieces: Segment[] = [];
   for (let i = 0; i < loops.length; i++) {
-    for (const seg of loops[i]) {
-      const sb = segmentBBox(seg);
+    for (const [n, seg] of loops[i].entries()) {
+      const sb = segBoxes[i][n];
       const cuts: number[] = [0, 1];
       for (let k = 0; k < loops.length; k++) {
         if (k === i || !overlaps(sb, bboxes[k])) continue;
-        for (const other of loops[k]) {
-          if (!overlaps(sb, segmentBBox(other))) continue;
+        for (const [m, other] of loops[k].entries()) {
+          if (!overlaps(sb, segBoxes[k][m])) continue;
           for (const h of intersectSegments(seg, other, COINCIDENT_MM)) cuts.push(h.t);
         }
       }
