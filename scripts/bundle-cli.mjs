@@ -5,10 +5,14 @@
 //
 //   dist/cli/full-HASH.cjs   every command and stage (src/cli/run.ts), one script; a stage's module
 //                            body still runs only when a command imports it
+//   dist/cli/check-HASH.cjs  the command line with the stages `check` runs only
 //   dist/cli/help-HASH.cjs   the argument parser and the command descriptions only, for --help
-//   dist/cli/*.cache         V8 code caches of the two, made by training runs of the built CLI
+//   dist/cli/*.cache         V8 code caches of the three, made by training runs of the built CLI
+//                            (scripts/train-code-cache.mjs)
 //   dist/cli/programs.json   which script and cache each kind of run loads (src/cli/program.ts)
-//   dist/cli/main.js         the `bin` (src/cli/main.ts), overwriting tsc's: picks a program and runs it
+//   dist/cli/framewright.cjs the `bin` (src/cli/main.ts): picks a program and runs it; CommonJS,
+//                            as an ES module entry costs node a few milliseconds more to start
+//   dist/cli/main.js         overwriting tsc's: runs framewright.cjs (`node dist/cli/main.js ...`)
 //   dist/cli/run.js          runCommandLine of the full program for the tests' worker (src/cli/runBundled.ts)
 //   dist/live/modesWorker.js the live page's worker thread, self-contained
 //   dist/cli/bundle.json     the sources in each program and how many modules each imports, for
@@ -17,10 +21,9 @@
 // Files shipped beside the code are found from the package root (src/cli/packageRoot.ts), so a
 // module's place in a bundle does not matter.
 import { build } from 'esbuild';
-import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { chmodSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { TRAINING, trainCodeCache } from './train-code-cache.mjs';
 import { dirname, join, relative, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
@@ -81,15 +84,16 @@ const commanderWithoutChildProcess = {
 };
 
 /**
- * The programs, by the commands they run (src/cli/program.ts `programFor` picks one), each with the
- * training run that makes its code cache. `check` gets a program of its own: it is the command
+ * The programs, by the commands they run (src/cli/program.ts `programFor` picks one); the training
+ * run that makes each one's code cache is in scripts/train-code-cache.mjs. `check` gets a program of its own: it is the command
  * people run most, on every edit; the rest share `full`.
  */
 const PROGRAMS = {
-  help: { own: [], train: ['--help'] },
-  check: { own: ['src/cli/io.ts', 'src/cli/dxfInput.ts', 'src/cli/commands/check.ts', 'src/cli/commands/checkDxf.ts'], train: ['check', 'designs/tessel-5.yaml', 'designs/mote-3.yaml', 'designs/farline-7.yaml'] },
-  full: { own: null, train: ['build', 'designs/tessel-5.yaml', '--out', 'OUT'] },
+  help: { own: [] },
+  check: { own: ['src/cli/io.ts', 'src/cli/dxfInput.ts', 'src/cli/commands/check.ts', 'src/cli/commands/checkDxf.ts'] },
+  full: { own: null },
 };
+if (Object.keys(PROGRAMS).join() !== Object.keys(TRAINING).join()) throw new Error('scripts/train-code-cache.mjs TRAINING must name the same programs as PROGRAMS');
 
 const common = {
   absWorkingDir: root,
@@ -117,7 +121,7 @@ async function program(kind) {
     minifySyntax: true,
     // import.meta has no meaning in a script: its URL is the script's own (the package root is found from it).
     define: { 'import.meta.url': '__frameworkScriptUrl' },
-    banner: { js: "const __frameworkScriptUrl = require('node:url').pathToFileURL(__filename).href;" },
+    banner: { js: "'use strict';\nconst __frameworkScriptUrl = require('node:url').pathToFileURL(__filename).href;" },
   });
   // program.ts reads the script as Latin-1 (faster than UTF-8), which is exact for ASCII. esbuild
   // escapes other characters in strings but leaves them in regular expressions (`[xX×]`): a \uXXXX
@@ -147,7 +151,15 @@ writeFileSync(join(cliDir, 'programs.json'), `${JSON.stringify(Object.fromEntrie
 writeFileSync(join(cliDir, 'bundle.json'), `${JSON.stringify(Object.fromEntries(kinds.map((k, i) => [k, built[i].sources])), null, 1)}\n`);
 
 await Promise.all([
-  build({ ...common, entryPoints: ['src/cli/main.ts'], outfile: join(cliDir, 'main.js'), format: 'esm', external: [...common.external, './run.js'], define: { FRAMEWRIGHT_BUNDLE: 'true' } }),
+  build({
+    ...common,
+    entryPoints: ['src/cli/main.ts'],
+    outfile: join(cliDir, 'framewright.cjs'),
+    format: 'cjs',
+    external: [...common.external, './run.js'],
+    define: { FRAMEWRIGHT_BUNDLE: 'true', 'import.meta.url': '__frameworkScriptUrl' },
+    banner: { js: "'use strict';\nconst __frameworkScriptUrl = require('node:url').pathToFileURL(__filename).href;" },
+  }),
   build({ ...common, entryPoints: ['src/cli/runBundled.ts'], outfile: join(cliDir, 'run.js'), format: 'esm' }),
   build({
     ...common,
@@ -160,15 +172,8 @@ await Promise.all([
   }),
 ]);
 
-// Training runs: each program's code cache holds what a typical run compiles, made by the built CLI
-// itself so that V8's version and flags match the runs to come.
-const scratch = mkdtempSync(join(tmpdir(), 'framewright-training-'));
-try {
-  for (const kind of kinds) {
-    const args = PROGRAMS[kind].train.map((a) => (a === 'OUT' ? join(scratch, 'out') : a));
-    const r = spawnSync(process.execPath, [join(cliDir, 'main.js'), ...args], { cwd: root, env: { ...process.env, FRAMEWRIGHT_WRITE_CODE_CACHE: '1' }, stdio: ['ignore', 'ignore', 'pipe'] });
-    if (r.status !== 0 && r.status !== 1) throw new Error(`training run framewright ${args.join(' ')} failed (${r.status}): ${r.stderr}`);
-  }
-} finally {
-  rmSync(scratch, { recursive: true, force: true });
-}
+chmodSync(join(cliDir, 'framewright.cjs'), 0o755);
+// `node dist/cli/main.js` (the README's and the tests' way in) runs the same launcher.
+writeFileSync(join(cliDir, 'main.js'), "#!/usr/bin/env node\n// The command line is dist/cli/framewright.cjs (scripts/bundle-cli.mjs); this runs it.\nimport './framewright.cjs';\n");
+
+for (const kind of kinds) trainCodeCache(root, kind);

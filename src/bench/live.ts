@@ -52,7 +52,7 @@ const editCase = (name: string): BenchCase => ({
 
 /** Milliseconds from starting `framewright live` to the first page served. */
 function startUp(): Promise<number> {
-  const cli = fileURLToPath(new URL('../cli/main.js', import.meta.url));
+  const cli = fileURLToPath(new URL('../cli/framewright.cjs', import.meta.url));
   const t0 = performance.now();
   const p = spawn(process.execPath, [cli, 'live', designPath('tessel-5'), '--no-open'], { stdio: ['ignore', 'pipe', 'ignore'] });
   return new Promise((resolve, reject) => {
