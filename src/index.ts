@@ -11,8 +11,9 @@
  * const dxf = partToDxf(frame.parts[0]);
  *
  * Bad input throws `DesignError` (each issue names the parameter path, the value and the allowed
- * range); an impossible variant request throws `VariantRequestError`; an unreadable DXF throws
- * `DxfReadError`. Everything else thrown is a defect.
+ * range); an impossible variant request throws `VariantRequestError`, a variant that cannot pass every
+ * check throws `VariantRefusal` (the unmet constraint and the nearest valid alternative); an
+ * unreadable DXF throws `DxfReadError`. Everything else thrown is a defect.
  */
 
 // ── Design: parse, validate, schema, edit ─────────────────────────────────────────────────────
@@ -51,8 +52,11 @@ export { frameModes, partModes, armModes, bodyModes, type FrameModes, type Modal
 export { assembledFrameModes, type FrameModalResult, type FrameMode, type FrameModeKind, type FrameModesOptions } from './analysis/frameModes.js';
 
 // ── Size variants ─────────────────────────────────────────────────────────────────────────────
-export { makeVariant, type VariantRequest, type VariantResult } from './variant/variant.js';
-export { VariantRequestError } from './variant/errors.js';
+export { makeVariant, planVariant, type VariantRequest, type VariantResult, type VariantPlan } from './variant/variant.js';
+export { VariantRefusal, VariantRequestError } from './variant/errors.js';
+export { rangeRow, variantRow, sourceRow, bandSamples, type RangeRow } from './variant/sizeRange.js';
+export { rotationBandFromTipSpeed, rotationBandOf, fullThrustN, type RotationBand } from './analysis/rotation.js';
+export { frameModeShape, type FrameModeShape } from './analysis/frameShape.js';
 
 // ── Quotes: cut data, nesting, time and price ─────────────────────────────────────────────────
 export { quoteParts, type Quote, type QuoteOptions } from './quote/quote.js';
@@ -64,6 +68,7 @@ export { partToDxf, placedPartsToDxf, type DxfOptions } from './export/dxf.js';
 export { partToSvg, type SvgPartOptions } from './export/svgPart.js';
 export { frameOverviewSvg, type OverviewOptions } from './export/svgOverview.js';
 export { assemblyViewSvg, type AssemblyViewSvgOptions } from './export/svgAssemblyView.js';
+export { frameModeSvg, type FrameModePlot } from './export/svgFrameModes.js';
 export { hardwareCsv } from './export/hardwareCsv.js';
 export { quotePackage, type PackageFile, type QuotePackageMeta } from './export/quotePackage.js';
 export { zipStore, type ZipEntry } from './export/zip.js';

@@ -1,4 +1,4 @@
-import { cholesky, choleskySolveInPlace, type SparseSymmetric } from './sparse.js';
+import { cholesky, choleskySolveInPlace, type CholeskyFactor, type SparseSymmetric } from './sparse.js';
 
 /**
  * Eigen-decomposition of a small dense symmetric matrix (row-major n×n): Householder reduction to
@@ -131,7 +131,12 @@ export type EigenOptions = Readonly<{
   deflate?: readonly Float64Array[];
   /** Relative residual of the inverted operator, ‖Op x − θx‖_M / θ, accepted. Eigenvalue errors go as its square. Default 1e-3. */
   tolerance?: number;
+  /** A Cholesky factor of K − σM for this shift, from an earlier call (`EigenResult.factor`), to ask for more modes without factoring again. */
+  factor?: CholeskyFactor;
 }>;
+
+/** Default shift σ: −(2π · 10 Hz)², below every elastic mode of a frame part and above the rigid-body modes' zero. rad²/s². */
+export const DEFAULT_SHIFT = -((2 * Math.PI * 10) ** 2);
 
 export type EigenResult = Readonly<{
   /** Deflation vectors actually used (non-zero on the active DOFs and independent). */
@@ -142,6 +147,8 @@ export type EigenResult = Readonly<{
   vectors: Float64Array[];
   /** Size of the Krylov basis used. */
   basisSize: number;
+  /** The factor of K − σM used (pass it back in `options.factor` to ask for more modes). */
+  factor: CholeskyFactor | null;
 }>;
 
 const dot = (a: Float64Array, b: Float64Array): number => {
@@ -164,14 +171,15 @@ const axpy = (y: Float64Array, c: number, x: Float64Array): void => {
  * from being missed. Deterministic: the start block comes from a fixed-seed generator.
  * @throws NotPositiveDefiniteError when K − σM is not positive definite (a mechanism)
  */
-export function lowestEigenpairs(k: SparseSymmetric, m: SparseSymmetric, count: number, options: EigenOptions = {}): EigenResult {
+export function lowestEigenpairs(k: SparseSymmetric, mFull: SparseSymmetric, count: number, options: EigenOptions = {}): EigenResult {
   const n = k.n;
+  const m = mFull.compressed();
   const want = Math.min(count, n - (options.deflate?.length ?? 0));
-  if (want <= 0) return { values: [], vectors: [], basisSize: 0, deflated: 0 };
-  const sigma = options.shift ?? -((2 * Math.PI * 10) ** 2);
+  if (want <= 0) return { values: [], vectors: [], basisSize: 0, deflated: 0, factor: options.factor ?? null };
+  const sigma = options.shift ?? DEFAULT_SHIFT;
   const p = Math.max(1, Math.min(options.blockSize ?? 3, n));
   const tol = options.tolerance ?? 1e-3;
-  const factor = cholesky(k.plus(m, -sigma));
+  const factor = options.factor ?? cholesky(k.plus(mFull, -sigma));
   const lockedQ: Float64Array[] = [];
   const lockedMQ: Float64Array[] = [];
   const q: Float64Array[] = [];
@@ -185,14 +193,30 @@ export function lowestEigenpairs(k: SparseSymmetric, m: SparseSymmetric, count: 
     seed = (seed * 1103515245 + 12345) % 2147483648;
     return seed / 2147483648 - 0.5;
   };
-  /** Remove the components along the locked and basis vectors (two classical Gram–Schmidt passes); first-pass basis coefficients returned. */
-  const orthogonalise = (v: Float64Array): number[] => {
+  /**
+   * Remove the components along the locked and basis vectors by classical Gram–Schmidt, a second pass
+   * only when the first removed more than half of v's M-norm (the criterion of Daniel, Gragg, Kaufman &
+   * Stewart, Math. Comp. 30, 1976: the removed part, Σc², comes from the coefficients, M-orthonormal basis).
+   * @param norm0 v's M-norm before
+   * @returns the first pass's basis coefficients
+   */
+  const orthogonalise = (v: Float64Array, norm0: number): number[] => {
     let first: number[] = [];
     for (let pass = 0; pass < 2; pass++) {
-      for (let i = 0; i < lockedQ.length; i++) axpy(v, -dot(lockedMQ[i], v), lockedQ[i]);
+      let removed = 0;
+      for (let i = 0; i < lockedQ.length; i++) {
+        const c = dot(lockedMQ[i], v);
+        removed += c * c;
+        axpy(v, -c, lockedQ[i]);
+      }
       const c = q.map((_, i) => dot(mq[i], v));
-      for (let i = 0; i < q.length; i++) axpy(v, -c[i], q[i]);
-      if (pass === 0) first = c;
+      for (let i = 0; i < q.length; i++) {
+        removed += c[i] * c[i];
+        axpy(v, -c[i], q[i]);
+      }
+      if (pass > 0) break;
+      first = c;
+      if (norm0 * norm0 - removed > 0.5 * norm0 * norm0) break;
     }
     return first;
   };
@@ -205,7 +229,7 @@ export function lowestEigenpairs(k: SparseSymmetric, m: SparseSymmetric, count: 
       const norm = Math.sqrt(Math.max(dot(v, mv), 0));
       if (!(norm > 1e-10 * norms0[c])) return;
       for (let i = 0; i < n; i++) v[i] /= norm;
-      mv = mv.map((x) => x / norm);
+      for (let i = 0; i < n; i++) mv[i] /= norm;
       out.push({ v, mv });
     });
     return out;
@@ -230,13 +254,21 @@ export function lowestEigenpairs(k: SparseSymmetric, m: SparseSymmetric, count: 
     const mv = m.multiply(v);
     const norm = Math.sqrt(Math.max(dot(v, mv), 0));
     if (!(norm > 1e-8 * norm0)) continue;
-    lockedQ.push(v.map((x) => x / norm));
-    lockedMQ.push(mv.map((x) => x / norm));
+    for (let i = 0; i < n; i++) {
+      v[i] /= norm;
+      mv[i] /= norm;
+    }
+    lockedQ.push(v);
+    lockedMQ.push(mv);
   }
   const randomBlock = (): Array<{ v: Float64Array; mv: Float64Array }> => {
-    const cands = Array.from({ length: p }, () => Float64Array.from({ length: n }, rand));
+    const cands = Array.from({ length: p }, () => {
+      const v = new Float64Array(n);
+      for (let i = 0; i < n; i++) v[i] = rand();
+      return v;
+    });
     const norms = cands.map((v) => Math.sqrt(Math.max(dot(v, m.multiply(v)), 0)));
-    for (const v of cands) orthogonalise(v);
+    cands.forEach((v, i) => orthogonalise(v, norms[i]));
     return normaliseBlock(cands, norms);
   };
   addToBasis(randomBlock());
@@ -249,7 +281,7 @@ export function lowestEigenpairs(k: SparseSymmetric, m: SparseSymmetric, count: 
     for (let j = last; j < lastEnd; j++) {
       const v = Float64Array.from(z[j]);
       norms0.push(Math.sqrt(Math.max(dot(v, m.multiply(v)), 0)));
-      h[j] = orthogonalise(v);
+      h[j] = orthogonalise(v, norms0[norms0.length - 1]);
       cands.push(v);
     }
     // H over the current basis is now complete: entry (i, j) was formed when the later of the two
@@ -306,6 +338,6 @@ export function lowestEigenpairs(k: SparseSymmetric, m: SparseSymmetric, count: 
       for (let a = 0; a < s.length; a++) if (s[a] !== 0) axpy(x, s[a], q[a]);
       return x;
     });
-    return { values: ritz.map(({ theta }) => sigma + 1 / theta), vectors, basisSize: q.length, deflated: lockedQ.length };
+    return { values: ritz.map(({ theta }) => sigma + 1 / theta), vectors, basisSize: q.length, deflated: lockedQ.length, factor };
   }
 }

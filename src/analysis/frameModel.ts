@@ -1,10 +1,10 @@
-import { componentMassBody, inertiaAboutCentre, type Assembly, type BoltedJoint, type PlacedPlate, type Standoff, type Vec3 } from '../assembly/index.js';
+import { componentMassBody, inertiaAboutCentre, type Assembly, type BoltedJoint, type Component, type PlacedPlate, type Standoff, type Vec3 } from '../assembly/index.js';
 import type { Vec2 } from '../geometry/index.js';
 import { roundBar, type BeamSection } from './beamElement.js';
-import { laminate, type Laminate } from './laminate.js';
+import type { Laminate } from './laminate.js';
 import { meshPart, type PlateMesh, type RingRequest } from './mesh.js';
-import type { Beam, FeModel, PointMass, RigidGroup } from './model.js';
-import { defaultMeshSizeMm, G_TO_T } from './plateModel.js';
+import type { Beam, FeModel, PointMass, RigidGroup, Spring } from './model.js';
+import { defaultMeshSizeMm, G_TO_T, partLaminate } from './plateModel.js';
 
 /**
  * The assembled frame as one finite-element model, built from the assembly stage's model (plates at
@@ -26,8 +26,6 @@ import { defaultMeshSizeMm, G_TO_T } from './plateModel.js';
 const BEAM_ELEMENTS = 4;
 /** A vertical plate's edge within this fraction of its thickness of a plate face rests on that plate. */
 const REST_GAP_FRACTION = 0.5;
-/** Mount points of strapped or stuck components take the plate nodes this close. mm. */
-const MOUNT_RADIUS_MM = 3;
 
 /** Aluminium alloys of standoffs: E, ν (ASM handbook values; reference-values.md). */
 const ALLOY: Record<string, { youngGpa: number; poisson: number }> = {
@@ -80,6 +78,7 @@ class Builder {
   readonly beams: Beam[] = [];
   readonly masses: PointMass[] = [];
   readonly rigid: RigidGroup[] = [];
+  readonly springs: Spring[] = [];
   node(p: readonly number[]): number {
     this.xyz.push(p[0], p[1], p[2]);
     return this.xyz.length / 3 - 1;
@@ -130,6 +129,9 @@ export function buildFrameModel(asm: Assembly, options: FrameModelOptions = {}):
   }
   const sizeOf = frameMeshSizes(asm);
   const meshes = new Map<string, PlateMesh>();
+  /** First triangle of the first copy of each shared mesh (copies reuse its element matrices). */
+  const firstOfMesh = new Map<PlateMesh, number>();
+  const source: number[] = [];
   const lamIndex = new Map<number, number>();
   const plates: PlateInModel[] = asm.plates.map((pl) => {
     const rings = ringsOf.get(pl.id) ?? [];
@@ -142,13 +144,16 @@ export function buildFrameModel(asm: Assembly, options: FrameModelOptions = {}):
     }
     if (!lamIndex.has(pl.partIndex)) {
       lamIndex.set(pl.partIndex, b.laminates.length);
-      b.laminates.push(laminate(pl.part.material, pl.part.thicknessMm, pl.part.weaveRad));
+      b.laminates.push(partLaminate(pl.part, `plate ${pl.id}`));
     }
     const firstNode = b.xyz.length / 3;
     const firstTriangle = b.triangles.length / 3;
     for (let i = 0; i < mesh.xy.length / 2; i++) b.node(midPlane(pl, mesh.xy[2 * i], mesh.xy[2 * i + 1]));
     const e3 = cross(pl.pose.uAxis, pl.pose.vAxis);
     for (let t = 0; t < mesh.triangles.length; t++) b.triangles.push(firstNode + mesh.triangles[t]);
+    const first = firstOfMesh.get(mesh) ?? firstTriangle;
+    firstOfMesh.set(mesh, first);
+    for (let t = 0; t < mesh.triangles.length / 3; t++) source.push(first + t);
     for (let t = 0; t < mesh.triangles.length / 3; t++) {
       b.frames.push(...pl.pose.uAxis, ...pl.pose.vAxis, ...e3);
       b.triLam.push(lamIndex.get(pl.partIndex)!);
@@ -178,6 +183,19 @@ export function buildFrameModel(asm: Assembly, options: FrameModelOptions = {}):
       }
     }
     return best;
+  };
+  /** Nodes of a horizontal plate copy under a box's plan footprint (what a board or battery resting on it covers). */
+  const nodesUnder = (id: string, box: Component['boxes'][number]): number[] => {
+    const pm = inModel.get(id);
+    if (!pm || pm.plate.orientation !== 'horizontal') return [];
+    const out: number[] = [];
+    const [ax, ay] = box.axes;
+    for (let i = 0; i < pm.mesh.xy.length / 2; i++) {
+      const p = b.at(pm.firstNode + i);
+      const d = [p[0] - box.centreMm[0], p[1] - box.centreMm[1]];
+      if (Math.abs(d[0] * ax[0] + d[1] * ax[1]) <= box.halfSizeMm[0] + 1e-6 && Math.abs(d[0] * ay[0] + d[1] * ay[1]) <= box.halfSizeMm[1] + 1e-6) out.push(pm.firstNode + i);
+    }
+    return out;
   };
   // Standoffs and camera spacers: beams between the mid-planes of the plates their ends are screwed to.
   const endNodes = new Map<string, number>();
@@ -240,24 +258,34 @@ export function buildFrameModel(asm: Assembly, options: FrameModelOptions = {}):
     b.rigid.push({ master: node, slaves });
     return { id: `motor ${m.site}`, kind: 'motor' as const, node, massG: m.massG, site: m.site, baseMm: m.baseCentreMm };
   });
-  // Components: rigid masses tied to the joints at their mount points, else to the plate under them.
+  // Components, each a rigid mass on its mounts (see `componentMount`).
+  const stackScrews = new Map<string, number[]>();
   const components = asm.components.map((c) => {
     const node = b.node(c.cgMm);
-    const body = componentMassBody(c);
-    b.masses.push({ node, massT: c.massG * G_TO_T, inertiaTMm2: inertia(inertiaAboutCentre(body)) });
-    const slaves: number[] = [];
+    b.masses.push({ node, massT: c.massG * G_TO_T, inertiaTMm2: inertia(inertiaAboutCentre(componentMassBody(c))) });
     const onPlates = c.mountedOn.filter((id) => plateById.has(id));
+    const mount = c.mountedOn.find((id) => id.startsWith('stack mount'));
+    // Screws at its mount points (a stack's, the camera's pivots), else the screws of the stack it sits on.
+    const screws: number[] = [];
     for (const p of c.mountPointsMm) {
       const j = asm.joints.find((jj) => distanceToAxis(jj, p) < 0.5 && (jj.kind === 'stack' || jj.kind === 'camera-pivot' || jj.clamps.some((id) => onPlates.includes(id))));
-      if (j) {
-        slaves.push(joints.get(j.id)!);
-        continue;
-      }
-      const ids = onPlates.length ? onPlates : asm.plates.map((pl) => pl.id);
-      const near = ids.flatMap((id) => nodesNear(id, p, MOUNT_RADIUS_MM));
-      slaves.push(...(near.length ? near : [nearestNode(ids, p)].filter((n) => n >= 0)));
+      if (j && !screws.includes(joints.get(j.id)!)) screws.push(joints.get(j.id)!);
     }
-    b.rigid.push({ master: node, slaves });
+    if (!screws.length && mount) screws.push(...(stackScrews.get(mount) ?? []));
+    if (screws.length && mount && !stackScrews.has(mount)) stackScrews.set(mount, screws);
+    if (componentMount(c, screws.length > 0) === 'springs') {
+      for (const m of screws) {
+        const at = b.node(b.at(m));
+        b.rigid.push({ master: node, slaves: [at] });
+        const k = c.softMountNPerMm!;
+        b.springs.push({ nodes: [at, m], stiffnessNPerMm: [k, k, k] });
+      }
+    } else {
+      let slaves = screws;
+      if (!slaves.length) slaves = onPlates.flatMap((id) => nodesUnder(id, c.boxes[0]));
+      if (!slaves.length) slaves = [nearestNode(onPlates.length ? onPlates : asm.plates.map((pl) => pl.id), c.mountPointsMm[0] ?? c.cgMm)];
+      b.rigid.push({ master: node, slaves });
+    }
     return { id: c.id, kind: 'component' as const, node, massG: c.massG, componentKind: c.kind };
   });
   // Vertical plates resting between horizontal ones: their edge nodes at a plate face follow that plate.
@@ -288,6 +316,8 @@ export function buildFrameModel(asm: Assembly, options: FrameModelOptions = {}):
     fixed: new Uint8Array(6 * nNodes),
     beams: b.beams,
     rigid: b.rigid,
+    springs: b.springs,
+    triangleSource: Uint32Array.from(source),
   };
   const fm: FrameModel = {
     model,
@@ -302,21 +332,40 @@ export function buildFrameModel(asm: Assembly, options: FrameModelOptions = {}):
   return fm;
 }
 
-/** Elements across the narrowest strut of a part: enough for its in-plane bending (convergence study in the tests). */
-const ELEMENTS_ACROSS_STRUT = 3;
+/**
+ * Elements across the narrowest strut of a part, and the coarser size of braces and camera side
+ * plates (stiff small parts that hold little of the strain energy). Measured on Tessel 5 against a
+ * mesh at half the size everywhere: first four modes within 1.7 % (three across: 1.1 %, a third
+ * more unknowns); the coarser small parts move them by under 0.2 %.
+ */
+const ELEMENTS_ACROSS_STRUT = 2;
+const SMALL_PART_COARSENING = 1.5;
 
 /**
  * Element size per part in the frame model: the bottom plate's default size (a thirtieth of √area)
- * for every plate, finer only where a part has narrow struts (three elements across the narrowest),
- * so small parts are not meshed finer than the body that carries them. mm.
+ * for every plate, finer only where a part has narrow struts (two elements across the narrowest),
+ * coarser on braces and camera side plates, so small parts are not meshed finer than the body that
+ * carries them. mm.
  */
 export function frameMeshSizes(asm: Assembly): (part: PlacedPlate['part']) => number {
   const bottom = asm.plates.find((p) => p.part.role === 'bottom')?.part;
   const body = bottom ? defaultMeshSizeMm(bottom) : Math.max(...asm.plates.map((p) => defaultMeshSizeMm(p.part)));
   return (part) => {
     const widths = part.members.map((m) => m.widthMm).filter((w) => w > 0);
-    return widths.length ? Math.min(body, Math.min(...widths) / ELEMENTS_ACROSS_STRUT) : body;
+    if (widths.length) return Math.min(body, Math.min(...widths) / ELEMENTS_ACROSS_STRUT);
+    return part.role === 'brace' || part.role === 'camera-side' ? SMALL_PART_COARSENING * body : body;
   };
+}
+
+/**
+ * How a component hangs on the frame (the idealisation of the README): hard-mounted, a rigid body with
+ * what holds it — the screws at its mount points (a stack's boards, a board on a stack, the camera
+ * clamped between its side plates by its pivot screws), else the plate under its footprint (a
+ * strapped battery or a board stuck to a plate; an antenna at the point it leaves the frame);
+ * soft-mounted boards (`softMountNPerMm`) instead ride on one spring per mount screw.
+ */
+export function componentMount(c: Component, onScrews: boolean): 'rigid' | 'springs' {
+  return c.softMountNPerMm !== undefined && onScrews ? 'springs' : 'rigid';
 }
 
 /** Inertia tensor (row-major 3×3, g·mm²) as the model's [Ixx, Iyy, Izz, Ixy, Iyz, Izx] in t·mm². */
@@ -359,6 +408,7 @@ function checkConnected(fm: FrameModel): void {
   }
   for (const bm of model.beams ?? []) join(bm.nodes[0], bm.nodes[1]);
   for (const g of model.rigid ?? []) for (const s of g.slaves) join(g.master, s);
+  for (const sp of model.springs ?? []) join(sp.nodes[0], sp.nodes[1]);
   const bottom = fm.plates.find((p) => p.plate.part.role === 'bottom') ?? fm.plates[0];
   if (!bottom) return;
   const root = find(bottom.firstNode);

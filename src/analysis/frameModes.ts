@@ -3,11 +3,16 @@ import { lowestEigenpairs } from './eigen.js';
 import { beamMatrices } from './beamElement.js';
 import { buildFrameModel, type FrameModel, type FrameModelOptions } from './frameModel.js';
 import { assemble, expand, rigidBodyModes } from './model.js';
-import { shellStiffness, toGlobal } from './shellTriangle.js';
+import { BENDING_DOFS, MEMBRANE_DOFS, shellBlocksInto } from './shellTriangle.js';
+import type { PlateMesh } from './mesh.js';
 import { normaliseShape } from './solve.js';
+import type { RotationBand } from './rotation.js';
 
 /** What a pilot calls a frame mode, from the four motors' motion and the parts' share of the strain energy. */
-export type FrameModeKind = 'bounce' | 'body twist' | 'pitch bending' | 'roll bending' | 'in-plane / yaw' | 'single-arm' | 'top-plate' | 'mixed';
+export type FrameModeKind = 'bounce' | 'body twist' | 'pitch bending' | 'roll bending' | 'in-plane / yaw' | 'single-arm' | 'top-plate' | 'soft-mounted board' | 'mixed';
+
+/** The key of `sharesByPart` for the springs of soft-mounted boards. */
+export const SOFT_MOUNTS = 'soft mounts';
 
 const KIND_WORDS: Record<FrameModeKind, string> = {
   bounce: 'all motors in phase',
@@ -17,6 +22,7 @@ const KIND_WORDS: Record<FrameModeKind, string> = {
   'in-plane / yaw': 'motors move sideways in plan',
   'single-arm': 'one arm moves, the others nearly still',
   'top-plate': 'the top plate moves, the motors nearly still',
+  'soft-mounted board': 'a board rocks or bounces on its soft mounts',
   mixed: 'no single pattern',
 };
 
@@ -36,7 +42,7 @@ export type FrameMode = Readonly<{
   name: string;
   /** Vertical motion of each motor's base (assembly motor order), as a fraction of the mode's largest translation, signed. */
   motorsZ: readonly number[];
-  /** Share of the mode's strain energy per plate copy, and all standoffs and camera spacers together (sums to 1). */
+  /** Share of the mode's strain energy per plate copy, all standoffs, all camera spacers and all soft mounts together (sums to 1). */
   sharesByPart: Readonly<Record<string, number>>;
   /** The flight controller's mount (the stack board, else the bottom plate at the stack mount): what the gyro sees. */
   flightController: BodyMotion | null;
@@ -47,9 +53,6 @@ export type FrameMode = Readonly<{
   /** Six values per model node [u, v, w, rx, ry, rz], largest translation 1 mm. */
   shape: Float64Array;
 }>;
-
-/** The motors' rotation frequencies, Hz, and how the top one was found. */
-export type RotationBand = Readonly<{ lowHz: number; highHz: number; source: string }>;
 
 export type FrameModalResult = Readonly<{
   frame: FrameModel;
@@ -66,24 +69,6 @@ export type FrameModesOptions = FrameModelOptions &
     modes?: number;
     rotationBand?: RotationBand | null;
   }>;
-
-/**
- * Blade tip speed taken as the top of the rotation band when the design states none, m/s: it puts
- * the top rotation of a 5-inch prop near 590 Hz and of a 7-inch near 430 Hz, inside the ranges the
- * trade quotes (domain.md: 500–650 Hz and 350–450 Hz). Common practice, no source.
- */
-export const TOP_TIP_SPEED_MPS = 240;
-/** Bottom of the band as a fraction of the top rotation speed (idle to hover; common practice, no source). */
-export const BAND_LOW_FRACTION = 0.3;
-
-/**
- * The motors' rotation band from the prop diameter and a top blade tip speed: top f = v / (π D).
- * @param propDiameterMm prop diameter, mm (> 0)
- */
-export function rotationBandFromTipSpeed(propDiameterMm: number, tipSpeedMps = TOP_TIP_SPEED_MPS): RotationBand {
-  const high = tipSpeedMps / (Math.PI * propDiameterMm * 1e-3);
-  return { lowHz: BAND_LOW_FRACTION * high, highHz: high, source: `blade tip speed ${tipSpeedMps} m/s on a ${propDiameterMm.toFixed(1)} mm prop (top), ${Math.round(BAND_LOW_FRACTION * 100)} % of it (bottom)` };
-}
 
 /** Below this a mode of the free frame is rigid-body motion (or a mechanism). Hz. */
 const RIGID_HZ = 1;
@@ -161,12 +146,73 @@ function flightControllerNode(fm: FrameModel, asm: Assembly): number | null {
 
 /**
  * Strain energy ½ uᵀK u per plate copy and for the standoffs and spacers together, as shares of the
- * total, for every mode at once (each element matrix is formed once).
+ * total, for every mode at once. Each distinct triangle's matrices are formed once (copies of a
+ * plate share them) and the mode shapes turned into element axes instead.
  */
 function strainEnergyShares(fm: FrameModel, shapes: readonly Float64Array[]): Array<Record<string, number>> {
   const { model } = fm;
   const per = shapes.map(() => new Map<string, number>());
   const add = (i: number, key: string, e: number) => per[i].set(key, (per[i].get(key) ?? 0) + e);
+  const bend = new Float64Array(81);
+  const mem = new Float64Array(81);
+  const u = new Float64Array(18);
+  const x: [number, number, number] = [0, 0, 0];
+  const y: [number, number, number] = [0, 0, 0];
+  // Element DOF index (of 18) of each of the 9 rows of the bending and membrane blocks.
+  const bendAt = Int32Array.from({ length: 9 }, (_, i) => 6 * Math.floor(i / 3) + BENDING_DOFS[i % 3]);
+  const memAt = Int32Array.from({ length: 9 }, (_, i) => 6 * Math.floor(i / 3) + MEMBRANE_DOFS[i % 3]);
+  /** uᵀ K u over one 9×9 block of k starting at `at`. */
+  const quad = (k: Float64Array, at: number, dofs: Int32Array): number => {
+    let e = 0;
+    for (let i = 0; i < 9; i++) {
+      const ui = u[dofs[i]];
+      if (ui === 0) continue;
+      let row = 0;
+      for (let j = 0; j < 9; j++) row += k[at + i * 9 + j] * u[dofs[j]];
+      e += ui * row;
+    }
+    return e;
+  };
+  const blocksOf = new Map<PlateMesh, Float64Array[]>();
+  for (const pm of fm.plates) {
+    const lam = model.laminates[model.triangleLaminate[pm.firstTriangle]];
+    const r = model.frames!.subarray(9 * pm.firstTriangle, 9 * pm.firstTriangle + 9);
+    const tris = pm.mesh.triangles;
+    let blocks = blocksOf.get(pm.mesh);
+    if (!blocks) {
+      blocks = [];
+      for (let t = 0; t < tris.length; t += 3) {
+        for (let a = 0; a < 3; a++) {
+          x[a] = pm.mesh.xy[2 * tris[t + a]];
+          y[a] = pm.mesh.xy[2 * tris[t + a] + 1];
+        }
+        bend.fill(0);
+        mem.fill(0);
+        shellBlocksInto(x, y, lam.a, lam.d, lam.shearStiffnessNPerMm, bend, mem);
+        const both = new Float64Array(162);
+        both.set(bend, 0);
+        both.set(mem, 81);
+        blocks.push(both);
+      }
+      blocksOf.set(pm.mesh, blocks);
+    }
+    shapes.forEach((s, i) => {
+      let e = 0;
+      for (let t = 0; t < tris.length; t += 3) {
+        // The corners' six values in element axes: u_local = r · u_global for translations and rotations.
+        for (let a = 0; a < 3; a++) {
+          const g = 6 * (pm.firstNode + tris[t + a]);
+          for (let h = 0; h < 2; h++) {
+            const o = g + 3 * h;
+            for (let c = 0; c < 3; c++) u[6 * a + 3 * h + c] = r[3 * c] * s[o] + r[3 * c + 1] * s[o + 1] + r[3 * c + 2] * s[o + 2];
+          }
+        }
+        const kb = blocks![t / 3];
+        e += quad(kb, 0, bendAt) + quad(kb, 81, memAt);
+      }
+      add(i, pm.plate.id, e / 2);
+    });
+  }
   const energy = (k: Float64Array, dofs: number[], s: Float64Array) => {
     const n = dofs.length;
     let e = 0;
@@ -179,19 +225,6 @@ function strainEnergyShares(fm: FrameModel, shapes: readonly Float64Array[]): Ar
     }
     return e / 2;
   };
-  for (const pm of fm.plates) {
-    const lam = model.laminates[model.triangleLaminate[pm.firstTriangle]];
-    const r = Array.from(model.frames!.subarray(9 * pm.firstTriangle, 9 * pm.firstTriangle + 9));
-    const tris = pm.mesh.triangles;
-    for (let t = 0; t < tris.length; t += 3) {
-      const nodes = [tris[t], tris[t + 1], tris[t + 2]].map((v) => pm.firstNode + v);
-      const x = nodes.map((v) => r[0] * model.xyz[3 * v] + r[1] * model.xyz[3 * v + 1] + r[2] * model.xyz[3 * v + 2]) as [number, number, number];
-      const y = nodes.map((v) => r[3] * model.xyz[3 * v] + r[4] * model.xyz[3 * v + 1] + r[5] * model.xyz[3 * v + 2]) as [number, number, number];
-      const k = toGlobal(shellStiffness(x, y, lam.a, lam.d, lam.shearStiffnessNPerMm), r);
-      const dofs = nodes.flatMap((v) => [0, 1, 2, 3, 4, 5].map((d) => 6 * v + d));
-      shapes.forEach((s, i) => add(i, pm.plate.id, energy(k, dofs, s)));
-    }
-  }
   for (const c of fm.connectors) {
     for (let e = c.firstBeam; e < c.firstBeam + c.beams; e++) {
       const bm = model.beams![e];
@@ -202,14 +235,24 @@ function strainEnergyShares(fm: FrameModel, shapes: readonly Float64Array[]): Ar
       shapes.forEach((s, i) => add(i, key, energy(k, dofs, s)));
     }
   }
+  for (const sp of model.springs ?? []) {
+    const [p, q] = sp.nodes;
+    shapes.forEach((s, i) => {
+      let e = 0;
+      for (let d = 0; d < 3; d++) e += sp.stiffnessNPerMm[d] * (s[6 * p + d] - s[6 * q + d]) ** 2;
+      add(i, SOFT_MOUNTS, e / 2);
+    });
+  }
   return per.map((m) => {
     const total = [...m.values()].reduce((a, b) => a + b, 0);
     return Object.fromEntries([...m.entries()].map(([k, v]) => [k, total > 0 ? v / total : 0]));
   });
 }
 
-/** A motor moving less than this fraction of the mode's largest motion counts as still (judgement, no standard). */
-const STILL = 0.25;
+/** Motors moving less than this fraction of the mode's largest motion do not define it (judgement, no standard). */
+const MOTORS_STILL = 0.1;
+/** In a single-arm mode the second-largest motor motion is below this fraction of the largest (judgement, no standard). */
+const ONE_ARM = 0.25;
 /** A pattern must explain this much of the motors' vertical motion to name the mode (judgement). */
 const PATTERN_FIT = 0.8;
 
@@ -219,16 +262,17 @@ const PATTERN_FIT = 0.8;
  * patterns of the motors' vertical motion (bounce, body twist, pitch and roll bending).
  */
 function classify(asm: Assembly, z: readonly number[], h: readonly number[], shares: Readonly<Record<string, number>>): FrameModeKind {
+  if ((shares[SOFT_MOUNTS] ?? 0) > 0.5) return 'soft-mounted board';
   const zMax = Math.max(0, ...z.map(Math.abs));
   const hMax = Math.max(0, ...h);
   const topShare = Object.entries(shares)
     .filter(([k]) => asm.plates.some((p) => p.id === k && p.part.role === 'top'))
     .reduce((s, [, v]) => s + v, 0);
-  if (zMax < STILL && hMax < STILL) return topShare > 0.4 ? 'top-plate' : 'mixed';
+  if (zMax < MOTORS_STILL && hMax < MOTORS_STILL) return topShare > 0.4 ? 'top-plate' : 'mixed';
   if (hMax > 1.5 * zMax) return 'in-plane / yaw';
   if (z.length !== 4) return 'mixed';
   const sorted = z.map(Math.abs).sort((a, b) => b - a);
-  if (sorted[1] < STILL * sorted[0]) return 'single-arm';
+  if (sorted[1] < ONE_ARM * sorted[0]) return 'single-arm';
   const sites = asm.motors.map((m) => m.site);
   const front = sites.map((s) => (s.startsWith('front') ? 1 : -1));
   const left = sites.map((s) => (s.endsWith('left') ? 1 : -1));

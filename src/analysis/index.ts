@@ -10,5 +10,7 @@ export * from './solve.js';
 export * from './describe.js';
 export * from './statics.js';
 export * from './modes.js';
+export * from './rotation.js';
 export * from './frameModel.js';
 export * from './frameModes.js';
+export * from './frameShape.js';

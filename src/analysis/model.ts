@@ -1,7 +1,7 @@
 import { beamMatrices, type BeamSection } from './beamElement.js';
 import type { Laminate } from './laminate.js';
 import { blockGraph, fillReducingOrder, SparseSymmetric } from './sparse.js';
-import { BENDING_DOFS, DOF_PER_NODE, MEMBRANE_DOFS, shellLumpedMass, shellStiffness, toGlobal } from './shellTriangle.js';
+import { BENDING_DOFS, DOF_PER_NODE, MEMBRANE_DOFS, scatterBlock, shellBlocksInto, toGlobalInto, twiceArea } from './shellTriangle.js';
 
 /** A concentrated mass at a node: on its translations, and optionally a rotary inertia about the node. */
 export type PointMass = Readonly<{
@@ -20,6 +20,9 @@ export type Beam = Readonly<{ nodes: readonly [number, number]; section: BeamSec
  * stiffness and no ill-conditioning. Groups that share a node act as one body.
  */
 export type RigidGroup = Readonly<{ master: number; slaves: readonly number[] }>;
+
+/** A translational spring between two nodes, one stiffness per global axis (a soft mount's grommet). N/mm. */
+export type Spring = Readonly<{ nodes: readonly [number, number]; stiffnessNPerMm: readonly [number, number, number] }>;
 
 /**
  * A finite-element model in 3D, in consistent units (mm, N, tonne, s): flat shell triangles,
@@ -42,6 +45,12 @@ export type FeModel = Readonly<{
   fixed: Uint8Array;
   beams?: readonly Beam[];
   rigid?: readonly RigidGroup[];
+  springs?: readonly Spring[];
+  /**
+   * Optional, per triangle: an earlier triangle with the same corners in its own axes and the same
+   * laminate (copies of one plate mesh), whose element matrices it reuses.
+   */
+  triangleSource?: Uint32Array;
 }>;
 
 export const modelNodeCount = (m: FeModel): number => m.xyz.length / 3;
@@ -121,11 +130,13 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
   const tris = model.triangles;
   const beams = model.beams ?? [];
   // Blocks: independent nodes with at least one free active DOF.
+  const springs = model.springs ?? [];
   const width = new Int32Array(nNodes);
   for (let v = 0; v < nNodes; v++) if (masterOf[v] < 0) for (const d of dofs) if (!model.fixed[6 * v + d]) width[v]++;
   const used = new Uint8Array(nNodes);
   for (const v of tris) used[rep(v)] = 1;
   for (const b of beams) for (const v of b.nodes) used[rep(v)] = 1;
+  for (const s of springs) for (const v of s.nodes) used[rep(v)] = 1;
   for (const pm of model.pointMasses) used[rep(pm.node)] = 1;
   for (const g of model.rigid ?? []) used[rep(g.master)] = 1;
   const blockOfNode = new Int32Array(nNodes).fill(-1);
@@ -148,6 +159,7 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
   };
   for (let t = 0; t < tris.length; t += 3) cliques.push(cliqueOf(tris.subarray(t, t + 3)));
   for (const b of beams) cliques.push(cliqueOf(b.nodes));
+  for (const sp of springs) cliques.push(cliqueOf(sp.nodes));
   for (let b = 0; b < nb; b++) cliques.push([b]);
   const graph = blockGraph(nb, cliques);
   const order = fillReducingOrder(graph, Int32Array.from(blockNode, (v) => width[v]));
@@ -163,34 +175,54 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
     for (const d of dofs) if (!model.fixed[6 * v + d]) eq[6 * v + d] = neq++;
   }
   blockStart[nb] = neq;
-  // Pattern: each block column holds its own block and its later neighbours, by position.
+  // Pattern: each block column holds its own block and its later neighbours, by position. Sizes
+  // first, then typed arrays filled in place (the pattern of a frame has millions of entries).
   const lowPtr = new Int32Array(nb + 1);
-  const lowPos: number[] = [];
-  const lowOff: number[] = [];
   const colPtr = new Int32Array(neq + 1);
-  const rowIdx: number[] = [];
+  let lowCount = 0;
+  let nnz = 0;
   for (let k = 0; k < nb; k++) {
     const b = order[k];
-    const later: number[] = [];
-    for (let p = graph.ptr[b]; p < graph.ptr[b + 1]; p++) if (posOf[graph.adj[p]] > k) later.push(posOf[graph.adj[p]]);
-    later.sort((x, y) => x - y);
-    let off = blockStart[k + 1] - blockStart[k];
-    for (const q of later) {
-      lowPos.push(q);
-      lowOff.push(off);
-      off += blockStart[q + 1] - blockStart[q];
+    const w = blockStart[k + 1] - blockStart[k];
+    let below = 0;
+    for (let p = graph.ptr[b]; p < graph.ptr[b + 1]; p++) {
+      const q = posOf[graph.adj[p]];
+      if (q > k) {
+        lowCount++;
+        below += blockStart[q + 1] - blockStart[q];
+      }
     }
-    lowPtr[k + 1] = lowPos.length;
+    lowPtr[k + 1] = lowCount;
+    nnz += (w * (w + 1)) / 2 + w * below;
+  }
+  const lowPos = new Int32Array(lowCount);
+  const lowOff = new Int32Array(lowCount);
+  const rowIdx = new Int32Array(nnz);
+  let fill = 0;
+  for (let k = 0; k < nb; k++) {
+    const b = order[k];
+    const first = lowPtr[k];
+    let n = first;
+    for (let p = graph.ptr[b]; p < graph.ptr[b + 1]; p++) {
+      const q = posOf[graph.adj[p]];
+      if (q > k) lowPos[n++] = q;
+    }
+    lowPos.subarray(first, n).sort();
+    let off = blockStart[k + 1] - blockStart[k];
+    for (let e = first; e < n; e++) {
+      lowOff[e] = off;
+      off += blockStart[lowPos[e] + 1] - blockStart[lowPos[e]];
+    }
     for (let j = blockStart[k]; j < blockStart[k + 1]; j++) {
-      for (let i = j; i < blockStart[k + 1]; i++) rowIdx.push(i);
-      for (const q of later) for (let i = blockStart[q]; i < blockStart[q + 1]; i++) rowIdx.push(i);
-      colPtr[j + 1] = rowIdx.length;
+      for (let i = j; i < blockStart[k + 1]; i++) rowIdx[fill++] = i;
+      for (let e = first; e < n; e++) for (let i = blockStart[lowPos[e]]; i < blockStart[lowPos[e] + 1]; i++) rowIdx[fill++] = i;
+      colPtr[j + 1] = fill;
     }
   }
-  const k = new SparseSymmetric(colPtr, Int32Array.from(rowIdx), blockStart);
+  const k = new SparseSymmetric(colPtr, rowIdx, blockStart);
   const m = k.zerosLike();
-  const lowPosA = Int32Array.from(lowPos);
-  const lowOffA = Int32Array.from(lowOff);
+  const lowPosA = lowPos;
+  const lowOffA = lowOff;
   /** Offset of block position r's rows in the first column of block position c (r ≥ c). */
   const blockOffset = (r: number, c: number): number => {
     if (r === c) return 0;
@@ -213,18 +245,30 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
     for (let d = 0; d < 6; d++) if (eq[6 * v + d] >= 0) local[6 * v + d] = eq[6 * v + d] - s;
   }
   const scatter = new Scatter(model.xyz, masterOf, blockOfNode, posOf, blockStart, local, colPtr, blockOffset);
-  // Shells.
+  // Shells: element matrices in element axes once per distinct triangle (copies of a plate share
+  // them), turned to global axes only where the element's axes are not the global ones.
   const parts = model.frames
     ? { bending: true, membrane: true }
     : { bending: dofs.some((d) => BENDING_DOFS.includes(d as 2 | 3 | 4)), membrane: dofs.some((d) => MEMBRANE_DOFS.includes(d as 0 | 1 | 5)) };
   const xyz = model.xyz;
   const nodes3 = [0, 0, 0];
-  for (let t = 0; t < tris.length; t += 3) {
-    const tri = t / 3;
+  const x: [number, number, number] = [0, 0, 0];
+  const y: [number, number, number] = [0, 0, 0];
+  const source = model.triangleSource;
+  const nTri = tris.length / 3;
+  const cacheSlot = source ? new Int32Array(nTri).fill(-1) : null;
+  const cache: Float64Array[] = [];
+  const ke = new Float64Array(324);
+  const keG = new Float64Array(324);
+  const tmp = new Float64Array(324);
+  const bend = new Float64Array(81);
+  const mem = new Float64Array(81);
+  const me = new Float64Array(6);
+  for (let tri = 0; tri < nTri; tri++) {
+    const t = 3 * tri;
     const lam = model.laminates[model.triangleLaminate[tri]];
-    const r = model.frames ? Array.from(model.frames.subarray(9 * tri, 9 * tri + 9)) : null;
-    const x: [number, number, number] = [0, 0, 0];
-    const y: [number, number, number] = [0, 0, 0];
+    const f = model.frames;
+    const r = f ? f.subarray(9 * tri, 9 * tri + 9) : null;
     for (let a = 0; a < 3; a++) {
       const n = tris[t + a];
       nodes3[a] = n;
@@ -234,13 +278,36 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
       x[a] = r ? r[0] * p0 + r[1] * p1 + r[2] * p2 : p0;
       y[a] = r ? r[3] * p0 + r[4] * p1 + r[5] * p2 : p1;
     }
-    let ke = shellStiffness(x, y, lam.a, lam.d, lam.shearStiffnessNPerMm, parts);
-    if (r) ke = toGlobal(ke, r);
-    scatter.element(k.val, nodes3, ke);
+    const src = source ? source[tri] : tri;
+    let blocks: Float64Array | null = cacheSlot && src !== tri && cacheSlot[src] >= 0 ? cache[cacheSlot[src]] : null;
+    if (!blocks) {
+      bend.fill(0);
+      mem.fill(0);
+      shellBlocksInto(x, y, lam.a, lam.d, lam.shearStiffnessNPerMm, parts.bending ? bend : null, parts.membrane ? mem : null);
+      if (cacheSlot && src === tri) {
+        blocks = new Float64Array(162);
+        blocks.set(bend, 0);
+        blocks.set(mem, 81);
+        cacheSlot[tri] = cache.length;
+        cache.push(blocks);
+      }
+    }
+    ke.fill(0);
+    if (parts.bending) scatterBlock(ke, blocks ? blocks.subarray(0, 81) : bend, BENDING_DOFS);
+    if (parts.membrane) scatterBlock(ke, blocks ? blocks.subarray(81, 162) : mem, MEMBRANE_DOFS);
+    const turned = r !== null && !isIdentity(r);
+    if (turned) toGlobalInto(ke, r, tmp, keG);
+    scatter.element(k.val, nodes3, turned ? keG : ke);
     // Lumped mass in element axes; for a plate placed in 3D its rotary part is carried to global
     // axes by the diagonal of RᵀJR (exact when the element axes line up with the global ones).
-    const lm = shellLumpedMass(x, y, lam.arealMassTPerMm2, lam.rotaryInertiaT);
-    const me = r ? rotateRotaryMass(lm, r) : lm;
+    const area = twiceArea(x, y) / 2;
+    const mt = (lam.arealMassTPerMm2 * area) / 3;
+    const j = (lam.rotaryInertiaT * area) / 3;
+    me[0] = me[1] = me[2] = mt;
+    me[3] = j;
+    me[4] = j;
+    me[5] = (mt * area) / 12;
+    if (turned) rotateRotaryMassInPlace(me, r);
     for (let a = 0; a < 3; a++) scatter.nodeDiagonal(m.val, nodes3[a], me);
   }
   for (const b of beams) {
@@ -250,16 +317,16 @@ export function assemble(model: FeModel, dofs: readonly number[] = ALL_DOFS): As
     scatter.element(k.val, b.nodes, kb);
     scatter.element(m.val, b.nodes, mb);
   }
-  for (const pm of model.pointMasses) {
-    const me = new Float64Array(36);
-    me[0] = me[7] = me[14] = pm.massT;
-    if (pm.inertiaTMm2) {
-      const [ixx, iyy, izz, ixy, iyz, izx] = pm.inertiaTMm2;
-      const j = [ixx, ixy, izx, ixy, iyy, iyz, izx, iyz, izz];
-      for (let a = 0; a < 3; a++) for (let c = 0; c < 3; c++) me[(3 + a) * 6 + 3 + c] = j[3 * a + c];
+  for (const sp of springs) {
+    const ks = new Float64Array(144);
+    for (let d = 0; d < 3; d++) {
+      const kd = sp.stiffnessNPerMm[d];
+      ks[d * 12 + d] = ks[(6 + d) * 12 + 6 + d] = kd;
+      ks[d * 12 + 6 + d] = ks[(6 + d) * 12 + d] = -kd;
     }
-    scatter.element(m.val, [pm.node], me);
+    scatter.element(k.val, sp.nodes, ks);
   }
+  for (const pm of model.pointMasses) scatter.element(m.val, [pm.node], pointMassMatrix(pm));
   return { k, m, eq, dofs, masterOf, xyz: model.xyz };
 }
 
@@ -277,19 +344,27 @@ class Scatter {
   ) {}
 
   /** ke is (6·nodes)² row-major; slave nodes are carried onto their masters (Tᵀ ke T). */
+  private copy = new Float64Array(324);
+  private target = new Int32Array(3);
+
   element(val: Float64Array, nodes: ArrayLike<number>, ke0: Float64Array): void {
     const nn = nodes.length;
     const size = 6 * nn;
     let ke = ke0;
-    const target: number[] = [];
+    if (this.target.length < nn) this.target = new Int32Array(nn);
+    const target = this.target;
     for (let a = 0; a < nn; a++) {
       const v = nodes[a];
       const ms = this.masterOf[v];
       if (ms >= 0) {
-        if (ke === ke0) ke = Float64Array.from(ke0);
+        if (ke === ke0) {
+          if (this.copy.length < ke0.length) this.copy = new Float64Array(ke0.length);
+          ke = this.copy.subarray(0, ke0.length);
+          ke.set(ke0);
+        }
         carryToMaster(ke, size, a, this.offset(v, ms));
-        target.push(ms);
-      } else target.push(v);
+        target[a] = ms;
+      } else target[a] = v;
     }
     for (let a = 0; a < nn; a++) {
       const ra = target[a];
@@ -317,12 +392,17 @@ class Scatter {
     }
   }
 
+  private diag = new Float64Array(36);
+  private one = [0];
+
   /** A diagonal 6×6 node matrix (lumped mass). */
   nodeDiagonal(val: Float64Array, node: number, d: Float64Array): void {
     if (this.masterOf[node] >= 0) {
-      const me = new Float64Array(36);
+      const me = this.diag;
+      me.fill(0);
       for (let i = 0; i < 6; i++) me[7 * i] = d[i];
-      this.element(val, [node], me);
+      this.one[0] = node;
+      this.element(val, this.one, me);
       return;
     }
     const b = this.blockOfNode[node];
@@ -359,14 +439,25 @@ function carryToMaster(k: Float64Array, size: number, a: number, r: readonly num
   }
 }
 
-function rotateRotaryMass(local: Float64Array, r: readonly number[]): Float64Array {
-  const out = Float64Array.from(local);
-  for (let d = 0; d < 3; d++) {
-    let v = 0;
-    for (let a = 0; a < 3; a++) v += r[a * 3 + d] * r[a * 3 + d] * local[3 + a];
-    out[3 + d] = v;
+function rotateRotaryMassInPlace(m: Float64Array, r: ArrayLike<number>): void {
+  const j0 = m[3];
+  const j1 = m[4];
+  const j2 = m[5];
+  for (let d = 0; d < 3; d++) m[3 + d] = r[d] * r[d] * j0 + r[3 + d] * r[3 + d] * j1 + r[6 + d] * r[6 + d] * j2;
+}
+
+const isIdentity = (r: ArrayLike<number>): boolean => r[0] === 1 && r[4] === 1 && r[8] === 1 && r[1] === 0 && r[2] === 0 && r[3] === 0 && r[5] === 0 && r[6] === 0 && r[7] === 0;
+
+/** The 6×6 mass matrix of a point mass with its optional rotary inertia. */
+function pointMassMatrix(pm: PointMass): Float64Array {
+  const me = new Float64Array(36);
+  me[0] = me[7] = me[14] = pm.massT;
+  if (pm.inertiaTMm2) {
+    const [ixx, iyy, izz, ixy, iyz, izx] = pm.inertiaTMm2;
+    const j = [ixx, ixy, izx, ixy, iyy, iyz, izx, iyz, izz];
+    for (let a = 0; a < 3; a++) for (let c = 0; c < 3; c++) me[(3 + a) * 6 + 3 + c] = j[3 * a + c];
   }
-  return out;
+  return me;
 }
 
 /** The six DOF values of node v from its master's (rigid-body kinematics). */

@@ -1,6 +1,7 @@
 import { buildAssembly } from '../assembly/build.js';
 import { motorHeightMm } from '../assembly/parts.js';
-import { assembledFrameModes, rotationBandFromTipSpeed, type FrameModalResult } from './frameModes.js';
+import { assembledFrameModes, type FrameModalResult } from './frameModes.js';
+import { rotationBandOf } from './rotation.js';
 import { type Feature, type Frame, type Material, type Part, type PartRole, type Vec2 } from '../geometry/index.js';
 import { describeModes, motionAt, type PointMotion, type ShapeContext } from './describe.js';
 import type { PlateMesh } from './mesh.js';
@@ -31,6 +32,8 @@ export type ModeOptions = Readonly<{
   motor?: Readonly<{ bellDiameterMm: number; heightMm: number }>;
   /** frameModes: also solve the assembled frame (default true). */
   assembled?: boolean;
+  /** frameModes: elastic modes of the assembled frame (default `modes`, else 8). */
+  assembledModes?: number;
 }>;
 
 export type Boundary = 'free' | 'arm-root-clamped' | 'body-with-motors';
@@ -247,6 +250,6 @@ export function frameModes(frame: Frame, options: ModeOptions = {}): FrameModes 
   const assembled =
     options.assembled === false
       ? null
-      : assembledFrameModes(buildAssembly(frame.design, frame), { modes: options.modes ?? 8, rotationBand: rotationBandFromTipSpeed(frame.propDiameterMm) });
+      : assembledFrameModes(buildAssembly(frame.design, frame), { modes: options.assembledModes ?? options.modes ?? 8, rotationBand: rotationBandOf(frame.design, frame.propDiameterMm) });
   return { frame: frame.name, motorMassG, thrustN, parts, arms, body, rootTwist, assembled };
 }

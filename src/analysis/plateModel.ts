@@ -36,8 +36,8 @@ export function defaultMeshSizeMm(part: Part): number {
  * @param rings circles of nodes to lay (screw-head footprints, see `footprintRings`)
  */
 export function plateModel(part: Part, sizeMm = defaultMeshSizeMm(part), rings: readonly RingRequest[] = []): PlateModel {
+  const lam = partLaminate(part);
   const mesh = meshPart(part, sizeMm, { rings });
-  const lam = laminate(part.material, part.thicknessMm, part.weaveRad);
   const n = nodeCount(mesh);
   const xyz = new Float64Array(3 * n);
   for (let i = 0; i < n; i++) {
@@ -53,6 +53,19 @@ export function plateModel(part: Part, sizeMm = defaultMeshSizeMm(part), rings: 
     fixed: new Uint8Array(6 * n),
   };
   return { part, mesh, laminate: lam, model };
+}
+
+/**
+ * The part's laminate (its material, thickness and weave angle).
+ * @throws RangeError naming the part when its thickness or density is not positive (a zero-thickness part has no stiffness)
+ */
+export function partLaminate(part: Pick<Part, 'name' | 'material' | 'thicknessMm' | 'weaveRad'>, label = `part ${part.name}`): Laminate {
+  try {
+    return laminate(part.material, part.thicknessMm, part.weaveRad);
+  } catch (e) {
+    if (e instanceof RangeError) throw new RangeError(`${label}: ${e.message}`);
+    throw e;
+  }
 }
 
 /** Boundary nodes of the part's features with the given purpose, one list per feature. */

@@ -62,17 +62,6 @@ function quadraticGradients(x: Tri, y: Tri, L: readonly [number, number, number]
   return { dx, dy };
 }
 
-/** Add w·Bᵀ·C·B (B is r×c row-major, C 3×3) into the c×c matrix k. */
-function addBtCB(k: Float64Array, b: Float64Array, c: PlaneStiffness, cols: number, w: number): void {
-  const cb = new Float64Array(3 * cols);
-  for (let r = 0; r < 3; r++) for (let j = 0; j < cols; j++) cb[r * cols + j] = c[r * 3] * b[j] + c[r * 3 + 1] * b[cols + j] + c[r * 3 + 2] * b[2 * cols + j];
-  for (let i = 0; i < cols; i++) {
-    for (let j = 0; j < cols; j++) {
-      k[i * cols + j] += w * (b[i] * cb[j] + b[cols + i] * cb[cols + j] + b[2 * cols + i] * cb[2 * cols + j]);
-    }
-  }
-}
-
 /** Bending stiffness along direction (c, s): D_ss = n·D·n for the curvature of a cylinder bent about the normal. N·mm. */
 function bendingAlong(d: PlaneStiffness, c: number, s: number): number {
   const v = [c * c, s * s, c * s];
@@ -90,14 +79,22 @@ function bendingAlong(d: PlaneStiffness, c: number, s: number): number {
  * with φ > 0 it is a discrete Kirchhoff–Mindlin triangle in the manner of Katili's DKMT (1993).
  */
 function rotationMaps(x: Tri, y: Tri, d: PlaneStiffness, shearNPerMm: number): { bx: Float64Array; by: Float64Array; gs: Float64Array } {
-  const bx = new Float64Array(6 * 9);
-  const by = new Float64Array(6 * 9);
-  const gs = new Float64Array(3 * 9);
+  rotationMapsInto(x, y, d, shearNPerMm);
+  return { bx: Float64Array.from(S.rbx), by: Float64Array.from(S.rby), gs: Float64Array.from(S.gs) };
+}
+
+/** `rotationMaps` into the scratch arrays S.rbx, S.rby, S.gs. */
+function rotationMapsInto(x: Tri, y: Tri, d: PlaneStiffness, shearNPerMm: number): void {
+  const { rbx: bx, rby: by, gs } = S;
+  bx.fill(0);
+  by.fill(0);
+  gs.fill(0);
   for (let i = 0; i < 3; i++) {
     bx[i * 9 + 3 * i + 2] = 1;
     by[i * 9 + 3 * i + 1] = -1;
   }
-  SIDES.forEach(([i, j], side) => {
+  for (let side = 0; side < 3; side++) {
+    const [i, j] = SIDES[side];
     const row = (3 + side) * 9;
     const ex = x[j] - x[i];
     const ey = y[j] - y[i];
@@ -114,10 +111,9 @@ function rotationMaps(x: Tri, y: Tri, d: PlaneStiffness, shearNPerMm: number): {
     const kyy = a * sn * sn + (c * c) / 2;
     // Δβ = (a − 1/2)(β_si + β_sj) + bw (w_i − w_j); γ_s = −(2/3) φ Δβ
     const g = (-2 / 3) * phi;
-    for (const [node, sign] of [
-      [i, 1],
-      [j, -1],
-    ] as const) {
+    for (let e = 0; e < 2; e++) {
+      const node = e === 0 ? i : j;
+      const sign = e === 0 ? 1 : -1;
       bx[row + 3 * node] += sign * bw * c;
       by[row + 3 * node] += sign * bw * sn;
       // βx_node = ry, βy_node = −rx
@@ -129,8 +125,174 @@ function rotationMaps(x: Tri, y: Tri, d: PlaneStiffness, shearNPerMm: number): {
       gs[side * 9 + 3 * node + 2] += g * (a - 0.5) * c;
       gs[side * 9 + 3 * node + 1] += -g * (a - 0.5) * sn;
     }
-  });
-  return { bx, by, gs };
+  }
+}
+
+/** Scratch space of `shellBlocksInto` (one thread; reused so that assembling a frame allocates nothing per element). */
+const S = {
+  rbx: new Float64Array(54),
+  rby: new Float64Array(54),
+  gs: new Float64Array(27),
+  b: new Float64Array(27),
+  cb: new Float64Array(27),
+  dx: new Float64Array(6),
+  dy: new Float64Array(6),
+  t: new Float64Array(108),
+  par: new Float64Array(27),
+  am: new Float64Array(9),
+  gx: new Float64Array(9),
+  gy: new Float64Array(9),
+  h: new Float64Array(9),
+  gradX: new Float64Array(3),
+  gradY: new Float64Array(3),
+};
+
+/** k (9×9) += w·Bᵀ·C·B for the 3×9 matrix in S.b. */
+function addBtCBFast(k: Float64Array, c: PlaneStiffness, w: number): void {
+  const { b, cb } = S;
+  for (let r = 0; r < 3; r++) {
+    const c0 = c[r * 3];
+    const c1 = c[r * 3 + 1];
+    const c2 = c[r * 3 + 2];
+    for (let j = 0; j < 9; j++) cb[r * 9 + j] = c0 * b[j] + c1 * b[9 + j] + c2 * b[18 + j];
+  }
+  for (let i = 0; i < 9; i++) {
+    const b0 = w * b[i];
+    const b1 = w * b[9 + i];
+    const b2 = w * b[18 + i];
+    const row = i * 9;
+    for (let j = 0; j < 9; j++) k[row + j] += b0 * cb[j] + b1 * cb[9 + j] + b2 * cb[18 + j];
+  }
+}
+
+/** Gradients of the six quadratic shape functions at area coordinates (l0, l1, l2) into S.dx, S.dy. */
+function gradientsAt(l0: number, l1: number, l2: number): void {
+  const { dx, dy, gradX: gx, gradY: gy } = S;
+  dx[0] = (4 * l0 - 1) * gx[0];
+  dx[1] = (4 * l1 - 1) * gx[1];
+  dx[2] = (4 * l2 - 1) * gx[2];
+  dy[0] = (4 * l0 - 1) * gy[0];
+  dy[1] = (4 * l1 - 1) * gy[1];
+  dy[2] = (4 * l2 - 1) * gy[2];
+  dx[3] = 4 * (gx[0] * l1 + l0 * gx[1]);
+  dy[3] = 4 * (gy[0] * l1 + l0 * gy[1]);
+  dx[4] = 4 * (gx[1] * l2 + l1 * gx[2]);
+  dy[4] = 4 * (gy[1] * l2 + l1 * gy[2]);
+  dx[5] = 4 * (gx[2] * l0 + l2 * gx[0]);
+  dy[5] = 4 * (gy[2] * l0 + l2 * gy[0]);
+}
+
+/**
+ * The element's bending (9×9, DOFs [w, rx, ry] per corner) and membrane (9×9, DOFs [u, v, rz] per
+ * corner) stiffness blocks, added into `bend` and `mem` (zero them first). The same element as
+ * `plateBendingStiffness` and `allmanStiffness`, computed without allocating: assembling a frame of
+ * ten thousand triangles spends its time here. Either output may be null to skip that block.
+ * @throws RangeError on a degenerate or clockwise triangle
+ */
+export function shellBlocksInto(x: Tri, y: Tri, a: PlaneStiffness, d: PlaneStiffness, shearNPerMm: number, bend: Float64Array | null, mem: Float64Array | null): void {
+  const a2 = twiceArea(x, y);
+  const area = a2 / 2;
+  if (!(area > 0)) throw new RangeError(`degenerate or clockwise triangle (area ${area} mm²)`);
+  const { gradX, gradY, b } = S;
+  gradX[0] = (y[1] - y[2]) / a2;
+  gradX[1] = (y[2] - y[0]) / a2;
+  gradX[2] = (y[0] - y[1]) / a2;
+  gradY[0] = (x[2] - x[1]) / a2;
+  gradY[1] = (x[0] - x[2]) / a2;
+  gradY[2] = (x[1] - x[0]) / a2;
+  const w3 = area / 3;
+  if (bend) {
+    const shear = shearNPerMm > 0 && Number.isFinite(shearNPerMm) ? shearNPerMm : 0;
+    rotationMapsInto(x, y, d, shear);
+    const { rbx, rby } = S;
+    for (let p = 0; p < 3; p++) {
+      const L = MIDSIDE_POINTS[p];
+      gradientsAt(L[0], L[1], L[2]);
+      const { dx, dy } = S;
+      for (let k = 0; k < 9; k++) {
+        let b0 = 0;
+        let b1 = 0;
+        let b2 = 0;
+        for (let n = 0; n < 6; n++) {
+          const ux = rbx[n * 9 + k];
+          const uy = rby[n * 9 + k];
+          b0 += dx[n] * ux;
+          b1 += dy[n] * uy;
+          b2 += dy[n] * ux + dx[n] * uy;
+        }
+        b[k] = b0;
+        b[9 + k] = b1;
+        b[18 + k] = b2;
+      }
+      addBtCBFast(bend, d, w3);
+    }
+    if (shear > 0) {
+      const { gs, am, par, gx, gy } = S;
+      const xc = (x[0] + x[1] + x[2]) / 3;
+      const yc = (y[0] + y[1] + y[2]) / 3;
+      for (let side = 0; side < 3; side++) {
+        const [i, j] = SIDES[side];
+        const l = Math.hypot(x[j] - x[i], y[j] - y[i]);
+        const c = (x[j] - x[i]) / l;
+        const s = (y[j] - y[i]) / l;
+        am[3 * side] = c;
+        am[3 * side + 1] = s;
+        am[3 * side + 2] = c * ((y[i] + y[j]) / 2 - yc) - s * ((x[i] + x[j]) / 2 - xc);
+      }
+      const ai = invert3(am);
+      for (let r = 0; r < 3; r++) for (let k = 0; k < 9; k++) par[r * 9 + k] = ai[3 * r] * gs[k] + ai[3 * r + 1] * gs[9 + k] + ai[3 * r + 2] * gs[18 + k];
+      const w = w3 * shear;
+      for (let p = 0; p < 3; p++) {
+        const L = MIDSIDE_POINTS[p];
+        const px = L[0] * x[0] + L[1] * x[1] + L[2] * x[2] - xc;
+        const py = L[0] * y[0] + L[1] * y[1] + L[2] * y[2] - yc;
+        for (let k = 0; k < 9; k++) {
+          gx[k] = par[k] + py * par[18 + k];
+          gy[k] = par[9 + k] - px * par[18 + k];
+        }
+        for (let i = 0; i < 9; i++) {
+          const wx = w * gx[i];
+          const wy = w * gy[i];
+          for (let j = 0; j < 9; j++) bend[i * 9 + j] += wx * gx[j] + wy * gy[j];
+        }
+      }
+    }
+  }
+  if (mem) {
+    const t = S.t;
+    allmanMapInto(x, y, t);
+    for (let p = 0; p < 3; p++) {
+      const L = MIDSIDE_POINTS[p];
+      gradientsAt(L[0], L[1], L[2]);
+      const { dx, dy } = S;
+      for (let dd = 0; dd < 9; dd++) {
+        let b0 = 0;
+        let b1 = 0;
+        let b2 = 0;
+        for (let n = 0; n < 6; n++) {
+          const u = t[n * 9 + dd];
+          const v = t[(6 + n) * 9 + dd];
+          b0 += dx[n] * u;
+          b1 += dy[n] * v;
+          b2 += dy[n] * u + dx[n] * v;
+        }
+        b[dd] = b0;
+        b[9 + dd] = b1;
+        b[18 + dd] = b2;
+      }
+      addBtCBFast(mem, a, w3);
+    }
+    gradientsAt(1 / 3, 1 / 3, 1 / 3);
+    const { dx, dy, h } = S;
+    h.fill(0);
+    for (let n = 0; n < 6; n++) for (let dd = 0; dd < 9; dd++) h[dd] -= 0.5 * (dx[n] * t[(6 + n) * 9 + dd] - dy[n] * t[n * 9 + dd]);
+    for (let i = 0; i < 3; i++) h[3 * i + 2] += 1 / 3;
+    const pen = DRILL_PENALTY * a[8] * area;
+    for (let i = 0; i < 9; i++) {
+      const hi = pen * h[i];
+      for (let j = 0; j < 9; j++) mem[i * 9 + j] += hi * h[j];
+    }
+  }
 }
 
 /**
@@ -160,41 +322,8 @@ export function plateCurvatureMatrix(x: Tri, y: Tri, L: readonly [number, number
  * Throws RangeError on a degenerate triangle.
  */
 export function plateBendingStiffness(x: Tri, y: Tri, d: PlaneStiffness, shearNPerMm = 0): Float64Array {
-  const area = twiceArea(x, y) / 2;
-  if (!(area > 0)) throw new RangeError(`degenerate or clockwise triangle (area ${area} mm²)`);
   const k = new Float64Array(81);
-  for (const L of MIDSIDE_POINTS) addBtCB(k, plateCurvatureMatrix(x, y, L, d, shearNPerMm), d, 9, area / 3);
-  if (shearNPerMm > 0 && Number.isFinite(shearNPerMm)) {
-    const { gs } = rotationMaps(x, y, d, shearNPerMm);
-    const xc = (x[0] + x[1] + x[2]) / 3;
-    const yc = (y[0] + y[1] + y[2]) / 3;
-    // Rows: tangential component at each side's mid-point of the field's parameters (a1, a2, c).
-    const a = new Float64Array(9);
-    SIDES.forEach(([i, j], side) => {
-      const l = Math.hypot(x[j] - x[i], y[j] - y[i]);
-      const c = (x[j] - x[i]) / l;
-      const s = (y[j] - y[i]) / l;
-      const xm = (x[i] + x[j]) / 2 - xc;
-      const ym = (y[i] + y[j]) / 2 - yc;
-      a.set([c, s, c * ym - s * xm], 3 * side);
-    });
-    const ai = invert3(a);
-    // parameters (3×9) = A⁻¹ · gs
-    const par = new Float64Array(27);
-    for (let r = 0; r < 3; r++) for (let k2 = 0; k2 < 9; k2++) par[r * 9 + k2] = ai[3 * r] * gs[k2] + ai[3 * r + 1] * gs[9 + k2] + ai[3 * r + 2] * gs[18 + k2];
-    for (const L of MIDSIDE_POINTS) {
-      const px = L[0] * x[0] + L[1] * x[1] + L[2] * x[2] - xc;
-      const py = L[0] * y[0] + L[1] * y[1] + L[2] * y[2] - yc;
-      const gx = new Float64Array(9);
-      const gy = new Float64Array(9);
-      for (let k2 = 0; k2 < 9; k2++) {
-        gx[k2] = par[k2] + py * par[18 + k2];
-        gy[k2] = par[9 + k2] - px * par[18 + k2];
-      }
-      const w = (area / 3) * shearNPerMm;
-      for (let i = 0; i < 9; i++) for (let j = 0; j < 9; j++) k[i * 9 + j] += w * (gx[i] * gx[j] + gy[i] * gy[j]);
-    }
-  }
+  shellBlocksInto(x, y, d, d, shearNPerMm, k, null);
   return k;
 }
 
@@ -214,11 +343,19 @@ function invert3(m: Float64Array): Float64Array {
  */
 function allmanMap(x: Tri, y: Tri): Float64Array {
   const t = new Float64Array(12 * 9);
+  allmanMapInto(x, y, t);
+  return t;
+}
+
+/** `allmanMap` into t (12×9, overwritten). */
+function allmanMapInto(x: Tri, y: Tri, t: Float64Array): void {
+  t.fill(0);
   for (let i = 0; i < 3; i++) {
     t[i * 9 + 3 * i] = 1;
     t[(6 + i) * 9 + 3 * i + 1] = 1;
   }
-  SIDES.forEach(([i, j], s) => {
+  for (let s = 0; s < 3; s++) {
+    const [i, j] = SIDES[s];
     const ru = (3 + s) * 9;
     const rv = (9 + s) * 9;
     t[ru + 3 * i] += 0.5;
@@ -231,24 +368,7 @@ function allmanMap(x: Tri, y: Tri): Float64Array {
     t[ru + 3 * i + 2] -= fu;
     t[rv + 3 * j + 2] += fv;
     t[rv + 3 * i + 2] -= fv;
-  });
-  return t;
-}
-
-/** Membrane strain matrix (3×9) of the Allman triangle at L: [εx, εy, γxy]. */
-function allmanStrainMatrix(x: Tri, y: Tri, L: readonly [number, number, number], t: Float64Array): Float64Array {
-  const { dx, dy } = quadraticGradients(x, y, L);
-  const b = new Float64Array(27);
-  for (let n = 0; n < 6; n++) {
-    for (let d = 0; d < 9; d++) {
-      const u = t[n * 9 + d];
-      const v = t[(6 + n) * 9 + d];
-      b[d] += dx[n] * u;
-      b[9 + d] += dy[n] * v;
-      b[18 + d] += dy[n] * u + dx[n] * v;
-    }
   }
-  return b;
 }
 
 /**
@@ -257,17 +377,8 @@ function allmanStrainMatrix(x: Tri, y: Tri, L: readonly [number, number, number]
  * removes the element's one zero-energy drilling mode without touching rigid-body motion.
  */
 export function allmanStiffness(x: Tri, y: Tri, a: PlaneStiffness): Float64Array {
-  const area = twiceArea(x, y) / 2;
-  if (!(area > 0)) throw new RangeError(`degenerate or clockwise triangle (area ${area} mm²)`);
-  const t = allmanMap(x, y);
   const k = new Float64Array(81);
-  for (const L of MIDSIDE_POINTS) addBtCB(k, allmanStrainMatrix(x, y, L, t), a, 9, area / 3);
-  const { dx, dy } = quadraticGradients(x, y, [1 / 3, 1 / 3, 1 / 3]);
-  const h = new Float64Array(9);
-  for (let n = 0; n < 6; n++) for (let d = 0; d < 9; d++) h[d] -= 0.5 * (dx[n] * t[(6 + n) * 9 + d] - dy[n] * t[n * 9 + d]);
-  for (let i = 0; i < 3; i++) h[3 * i + 2] += 1 / 3;
-  const pen = DRILL_PENALTY * a[8] * area;
-  for (let i = 0; i < 9; i++) for (let j = 0; j < 9; j++) k[i * 9 + j] += pen * h[i] * h[j];
+  shellBlocksInto(x, y, a, a, 0, null, k);
   return k;
 }
 
@@ -278,12 +389,16 @@ export function allmanStiffness(x: Tri, y: Tri, a: PlaneStiffness): Float64Array
  */
 export function shellStiffness(x: Tri, y: Tri, a: PlaneStiffness, d: PlaneStiffness, shearNPerMm = 0, parts: Readonly<{ bending: boolean; membrane: boolean }> = { bending: true, membrane: true }): Float64Array {
   const k = new Float64Array(18 * 18);
-  if (parts.bending) scatter(k, plateBendingStiffness(x, y, d, shearNPerMm), BENDING_DOFS);
-  if (parts.membrane) scatter(k, allmanStiffness(x, y, a), MEMBRANE_DOFS);
+  const bend = parts.bending ? new Float64Array(81) : null;
+  const mem = parts.membrane ? new Float64Array(81) : null;
+  shellBlocksInto(x, y, a, d, shearNPerMm, bend, mem);
+  if (bend) scatterBlock(k, bend, BENDING_DOFS);
+  if (mem) scatterBlock(k, mem, MEMBRANE_DOFS);
   return k;
 }
 
-function scatter(k18: Float64Array, k9: Float64Array, dofs: readonly number[]): void {
+/** Add a 9×9 block over DOFs `dofs` of each corner into an 18×18 element matrix. */
+export function scatterBlock(k18: Float64Array, k9: Float64Array, dofs: readonly number[]): void {
   for (let i = 0; i < 9; i++) {
     const gi = 6 * Math.floor(i / 3) + dofs[i % 3];
     for (let j = 0; j < 9; j++) k18[gi * 18 + 6 * Math.floor(j / 3) + dofs[j % 3]] += k9[i * 9 + j];
@@ -308,28 +423,33 @@ export function shellLumpedMass(x: Tri, y: Tri, arealMass: number, rotary: numbe
  * the 3×3 direction-cosine matrix r (rows: element x, y, z axes in global components) for the
  * translations and rotations of each corner.
  */
-export function toGlobal(k: Float64Array, r: readonly number[]): Float64Array {
+export function toGlobal(k: Float64Array, r: ArrayLike<number>): Float64Array {
+  const out = new Float64Array(324);
+  toGlobalInto(k, r, new Float64Array(324), out);
+  return out;
+}
+
+/** `toGlobal` into `out` with `tmp` as scratch (both 324 long; neither may be k). */
+export function toGlobalInto(k: Float64Array, r: ArrayLike<number>, tmp: Float64Array, out: Float64Array): void {
   const n = 18;
-  const tmp = new Float64Array(n * n);
   // tmp = K T (T block-diagonal with r)
   for (let i = 0; i < n; i++) {
     for (let b = 0; b < 6; b++) {
-      for (let c = 0; c < 3; c++) {
-        let s = 0;
-        for (let a = 0; a < 3; a++) s += k[i * n + 3 * b + a] * r[a * 3 + c];
-        tmp[i * n + 3 * b + c] = s;
-      }
+      const kb = i * n + 3 * b;
+      const k0 = k[kb];
+      const k1 = k[kb + 1];
+      const k2 = k[kb + 2];
+      for (let c = 0; c < 3; c++) tmp[kb + c] = k0 * r[c] + k1 * r[3 + c] + k2 * r[6 + c];
     }
   }
-  const out = new Float64Array(n * n);
   for (let b = 0; b < 6; b++) {
     for (let c = 0; c < 3; c++) {
-      for (let j = 0; j < n; j++) {
-        let s = 0;
-        for (let a = 0; a < 3; a++) s += r[a * 3 + c] * tmp[(3 * b + a) * n + j];
-        out[(3 * b + c) * n + j] = s;
-      }
+      const r0 = r[c];
+      const r1 = r[3 + c];
+      const r2 = r[6 + c];
+      const row = (3 * b + c) * n;
+      const t0 = 3 * b * n;
+      for (let j = 0; j < n; j++) out[row + j] = r0 * tmp[t0 + j] + r1 * tmp[t0 + n + j] + r2 * tmp[t0 + 2 * n + j];
     }
   }
-  return out;
 }

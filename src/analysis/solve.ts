@@ -1,5 +1,6 @@
 import { lowestEigenpairs } from './eigen.js';
-import { ALL_DOFS, assemble, expand, rigidBodyModes } from './model.js';
+import { ALL_DOFS, assemble, expand, rigidBodyModes, type Assembly } from './model.js';
+import type { CholeskyFactor } from './sparse.js';
 import type { PlateModel } from './plateModel.js';
 import { BENDING_DOFS, MEMBRANE_DOFS } from './shellTriangle.js';
 
@@ -34,12 +35,20 @@ export function solvePlateModes(pm: PlateModel, count: number): PlateSolution {
   const modes: RawMode[] = [];
   let dof = 0;
   let rigid = 0;
+  // Each block is assembled and factored once, however many times its modes are asked for.
+  const systems = new Map<string, { a: Assembly; deflate: Float64Array[]; factor?: CholeskyFactor }>();
   const solveBlock = (dofs: readonly number[], plane: RawMode['plane'], want: number): RawMode[] => {
-    const a = assemble(pm.model, dofs);
+    let sys = systems.get(plane);
+    if (!sys) {
+      const a0 = assemble(pm.model, dofs);
+      const free = !pm.model.fixed.some((f) => f === 1);
+      sys = { a: a0, deflate: free && a0.k.n ? rigidBodyModes(pm.model, a0) : [] };
+      systems.set(plane, sys);
+    }
+    const a = sys.a;
     if (a.k.n === 0) return [];
-    const free = !pm.model.fixed.some((f) => f === 1);
-    const deflate = free ? rigidBodyModes(pm.model, a) : [];
-    const r = lowestEigenpairs(a.k, a.m, want, { deflate });
+    const r = lowestEigenpairs(a.k, a.m, want, { deflate: sys.deflate, factor: sys.factor });
+    sys.factor = r.factor ?? undefined;
     dof = Math.max(dof, 0);
     blockDofs.set(plane, a.k.n);
     rigidBy.set(plane, r.deflated);
@@ -105,16 +114,22 @@ function solveCoupled(pm: PlateModel, count: number): PlateSolution {
 
 /** Scale so the largest nodal translation is 1 and the largest component is positive (a stable sign). */
 export function normaliseShape(s: Float64Array): Float64Array {
-  let big = 0;
+  let big2 = 0;
   let signed = 0;
   for (let i = 0; i < s.length; i += 6) {
-    const t = Math.hypot(s[i], s[i + 1], s[i + 2]);
-    if (t > big + 1e-12 * big) {
-      big = t;
-      const c = [s[i], s[i + 1], s[i + 2]];
-      signed = c.reduce((a, b) => (Math.abs(b) > Math.abs(a) ? b : a), 0);
+    const x = s[i];
+    const y = s[i + 1];
+    const z = s[i + 2];
+    const t2 = x * x + y * y + z * z;
+    if (t2 > big2 * (1 + 2e-12)) {
+      big2 = t2;
+      // The largest component of the largest translation fixes the sign.
+      signed = Math.abs(x) >= Math.abs(y) && Math.abs(x) >= Math.abs(z) ? x : Math.abs(y) >= Math.abs(z) ? y : z;
     }
   }
+  const big = Math.sqrt(big2);
   const k = big > 0 ? Math.sign(signed || 1) / big : 1;
-  return s.map((x) => x * k);
+  const out = new Float64Array(s.length);
+  for (let i = 0; i < s.length; i++) out[i] = s[i] * k;
+  return out;
 }

@@ -99,6 +99,35 @@ export class SparseSymmetric {
     return new SparseSymmetric(this.colPtr, this.rowIdx, this.blockStart);
   }
 
+  /**
+   * The same matrix without its stored zeros, for fast products (a lumped mass matrix on a stiffness
+   * pattern is mostly zeros). Its pattern differs from this one: use it for `multiply` only.
+   */
+  compressed(): SparseSymmetric {
+    const { colPtr, rowIdx, val, n } = this;
+    const ptr = new Int32Array(n + 1);
+    let count = 0;
+    for (let j = 0; j < n; j++) {
+      // Keep the diagonal (first entry) even when zero: `multiply` reads it first.
+      count++;
+      for (let p = colPtr[j] + 1; p < colPtr[j + 1]; p++) if (val[p] !== 0) count++;
+      ptr[j + 1] = count;
+    }
+    const rows = new Int32Array(count);
+    const vals = new Float64Array(count);
+    let q = 0;
+    for (let j = 0; j < n; j++) {
+      rows[q] = j;
+      vals[q++] = val[colPtr[j]];
+      for (let p = colPtr[j] + 1; p < colPtr[j + 1]; p++) {
+        if (val[p] === 0) continue;
+        rows[q] = rowIdx[p];
+        vals[q++] = val[p];
+      }
+    }
+    return new SparseSymmetric(ptr, rows, this.blockStart, vals);
+  }
+
   /** The diagonal. */
   diagonal(): Float64Array {
     const d = new Float64Array(this.n);
@@ -517,16 +546,36 @@ export function cholesky(a: SparseSymmetric, symbolic: Symbolic = symbolicFactor
   const ns = superStart.length - 1;
   const panels = new Float64Array(symbolic.factorSize);
   const pos = new Int32Array(a.n);
-  const updates: Array<Float64Array | null> = new Array(ns).fill(null);
   const childrenOf: number[][] = Array.from({ length: ns }, () => []);
   for (let s = 0; s < ns; s++) if (parent[s] >= 0) childrenOf[parent[s]].push(s);
-  let front = new Float64Array(0);
+  // Update matrices live on one stack (supernodes come in postorder, so a supernode's children's
+  // updates are the topmost ones when it is reached): one allocation instead of one per supernode.
+  const updateSize = (s: number) => {
+    const mu = rowPtr[s + 1] - rowPtr[s] - (superStart[s + 1] - superStart[s]);
+    return mu * mu;
+  };
+  let depth = 0;
+  let deepest = 0;
+  for (let s = 0; s < ns; s++) {
+    for (const c of childrenOf[s]) depth -= updateSize(c);
+    depth += updateSize(s);
+    deepest = Math.max(deepest, depth);
+  }
+  const stack = new Float64Array(deepest);
+  const updateAt = new Float64Array(ns);
+  let top = 0;
+  let maxFront = 0;
+  for (let s = 0; s < ns; s++) maxFront = Math.max(maxFront, rowPtr[s + 1] - rowPtr[s]);
+  const front = new Float64Array(maxFront * maxFront);
+  let maxPanel = 0;
+  for (let s = 0; s < ns; s++) maxPanel = Math.max(maxPanel, (rowPtr[s + 1] - rowPtr[s]) * (superStart[s + 1] - superStart[s]));
+  const rowsT = new Float64Array(maxPanel);
+  const map = new Int32Array(maxFront);
   for (let s = 0; s < ns; s++) {
     const c0 = superStart[s];
     const nc = superStart[s + 1] - c0;
     const r0 = rowPtr[s];
     const m = rowPtr[s + 1] - r0;
-    if (front.length < m * m) front = new Float64Array(m * m);
     const f = front;
     for (let j = 0; j < m; j++) f.fill(0, j * m + j, j * m + m);
     for (let k = 0; k < m; k++) pos[rows[r0 + k]] = k;
@@ -535,20 +584,21 @@ export function cholesky(a: SparseSymmetric, symbolic: Symbolic = symbolicFactor
       const col = c0 + j;
       for (let p = a.colPtr[col]; p < a.colPtr[col + 1]; p++) f[j * m + pos[a.rowIdx[p]]] += a.val[p];
     }
-    // Extend-add of the children's update matrices.
+    // Extend-add of the children's update matrices, then pop them.
+    let lowest = top;
     for (const c of childrenOf[s]) {
-      const u = updates[c]!;
+      const u0 = updateAt[c];
+      lowest = Math.min(lowest, u0);
       const cr0 = rowPtr[c] + (superStart[c + 1] - superStart[c]);
       const mc = rowPtr[c + 1] - cr0;
-      const map = new Int32Array(mc);
       for (let k = 0; k < mc; k++) map[k] = pos[rows[cr0 + k]];
       for (let j = 0; j < mc; j++) {
         const fj = map[j] * m;
-        const uj = j * mc;
-        for (let i = j; i < mc; i++) f[fj + map[i]] += u[uj + i];
+        const uj = u0 + j * mc;
+        for (let i = j; i < mc; i++) f[fj + map[i]] += stack[uj + i];
       }
-      updates[c] = null;
     }
+    top = lowest;
     // Dense partial Cholesky of the front's first nc columns (right-looking inside the panel).
     for (let k = 0; k < nc; k++) {
       const kk = k * m + k;
@@ -567,25 +617,26 @@ export function cholesky(a: SparseSymmetric, symbolic: Symbolic = symbolicFactor
       }
     }
     panels.set(f.subarray(0, nc * m), panelPtr[s]);
-    // Schur complement: the update matrix for the parent.
+    // Schur complement: the update matrix for the parent, pushed on the stack.
     const mu = m - nc;
     if (mu > 0) {
-      const u = new Float64Array(mu * mu);
+      const u = top;
+      updateAt[s] = u;
+      // U = F22 − L21 L21ᵀ entry by entry as dot products over the panel's rows, which are first
+      // copied row by row (contiguous): each entry of U is written once instead of once per column.
+      for (let i = 0; i < mu; i++) for (let k = 0; k < nc; k++) rowsT[i * nc + k] = f[k * m + nc + i];
       for (let j = 0; j < mu; j++) {
-        const uj = j * mu;
+        const uj = u + j * mu;
         const fj = (nc + j) * m + nc;
-        for (let i = j; i < mu; i++) u[uj + i] = f[fj + i];
-      }
-      for (let k = 0; k < nc; k++) {
-        const kb = k * m + nc;
-        for (let j = 0; j < mu; j++) {
-          const l = f[kb + j];
-          if (l === 0) continue;
-          const uj = j * mu;
-          for (let i = j; i < mu; i++) u[uj + i] -= f[kb + i] * l;
+        const tj = j * nc;
+        for (let i = j; i < mu; i++) {
+          const ti = i * nc;
+          let acc = 0;
+          for (let k = 0; k < nc; k++) acc += rowsT[ti + k] * rowsT[tj + k];
+          stack[uj + i] = f[fj + i] - acc;
         }
       }
-      updates[s] = u;
+      top += mu * mu;
     }
   }
   return { symbolic, panels };
@@ -624,7 +675,41 @@ function sweepSupernode(l: CholeskyFactor, s: number, xs: Float64Array[], w: Flo
     const x = xs[v];
     for (let i = 0; i < m; i++) w[i * nv + v] = x[rows[r0 + i]];
   }
-  if (forward) {
+  if (forward && nv === 3) {
+    // The usual case (Lanczos blocks of three), unrolled.
+    for (let k = 0; k < nc; k++) {
+      const col = base + k * m;
+      const d = p[col + k];
+      const kv = 3 * k;
+      const a = (w[kv] /= d);
+      const b = (w[kv + 1] /= d);
+      const c = (w[kv + 2] /= d);
+      for (let i = k + 1, iv = 3 * (k + 1); i < m; i++, iv += 3) {
+        const lik = p[col + i];
+        w[iv] -= lik * a;
+        w[iv + 1] -= lik * b;
+        w[iv + 2] -= lik * c;
+      }
+    }
+  } else if (nv === 3) {
+    for (let k = nc - 1; k >= 0; k--) {
+      const col = base + k * m;
+      const kv = 3 * k;
+      let a = w[kv];
+      let b = w[kv + 1];
+      let c = w[kv + 2];
+      for (let i = k + 1, iv = 3 * (k + 1); i < m; i++, iv += 3) {
+        const lik = p[col + i];
+        a -= lik * w[iv];
+        b -= lik * w[iv + 1];
+        c -= lik * w[iv + 2];
+      }
+      const d = p[col + k];
+      w[kv] = a / d;
+      w[kv + 1] = b / d;
+      w[kv + 2] = c / d;
+    }
+  } else if (forward) {
     for (let k = 0; k < nc; k++) {
       const col = base + k * m;
       const d = p[col + k];

@@ -51,7 +51,8 @@ export function placeComponents(d: Design, plates: readonly PlacedPlate[], stack
     const id = spec.name ?? `${spec.kind} ${n}`;
     const placed = place(ctx, spec, i, piled);
     const body = componentMassBody({ boxes: placed.boxes, massG: spec.massG });
-    return { id, kind: spec.kind, sourcePath: `components.${i}`, massG: spec.massG, cgMm: centreOfMass(body), ...placed };
+    const soft = 'softMountNPerMm' in spec && spec.softMountNPerMm !== undefined ? { softMountNPerMm: spec.softMountNPerMm } : {};
+    return { id, kind: spec.kind, sourcePath: `components.${i}`, massG: spec.massG, cgMm: centreOfMass(body), ...placed, ...soft };
   });
 }
 

@@ -102,8 +102,17 @@ export function standoffMassBody(so: Standoff): MassBody {
   return placeBody(spacerBody(so), so.startMm, [u, v, w]);
 }
 
-/** Height of the motor: the design's, or from the arm top to the lower face of the prop band. mm. */
-export const motorHeightMm = (d: Design): number => d.motor.heightMm ?? d.props.heightAboveArmMm - d.props.bandMm / 2;
+/**
+ * Height of an outrunner motor's bell over its bell diameter when the design gives none: 22xx–28xx
+ * motors stand 0.6–0.7 D tall from base to bell top (domain.md: a 28 mm bell ≈ 18–20 mm; common practice, no source).
+ */
+export const MOTOR_HEIGHT_PER_BELL = 0.6;
+
+/**
+ * Height of the motor, one rule for every stage (fit checks, mass and balance, modes): the design's,
+ * else 0.6 × its bell diameter, never reaching into the prop band (the prop sits on top of the motor). mm.
+ */
+export const motorHeightMm = (d: Design): number => d.motor.heightMm ?? Math.min(MOTOR_HEIGHT_PER_BELL * d.motor.bellDiameterMm, d.props.heightAboveArmMm - d.props.bandMm / 2);
 
 /** Mass body of a motor: a uniform cylinder of the bell diameter and motor height on the arm top. */
 export function motorMassBody(m: Motor): MassBody {

@@ -91,7 +91,9 @@ function plateId(part: Part, pl: Placement, copy: number, site: PlacedPlate['sit
 
 /** The site this arm copy carries: placed by the site's own arm line, its motor lands on the site. */
 function siteOfArmCopy(frame: Frame, pl: Placement): PlacedPlate['site'] {
-  const start = frame.design.arms.root.reachMm - frame.design.arms.root.edgeMarginMm;
+  const a = frame.design.arms;
+  // Arm copies exist only for separate arms.
+  const start = a.construction === 'separate' ? a.root.reachMm - a.root.edgeMarginMm : 0;
   let best: { id: PlacedPlate['site']; d: number } = { id: null, d: Infinity };
   for (const s of frame.sites) {
     const at = transformPoint([s.motorAlongMm - start, 0], { rotateRad: pl.rotateRad, translate: pl.translateMm, mirrorY: pl.mirrorY });

@@ -67,6 +67,7 @@ export function assemblyReport(a: Assembly, mb: MassBalance) {
       massG: r(c.massG),
       cgMm: v(c.cgMm),
       mountedOn: c.mountedOn,
+      mountPointsMm: c.mountPointsMm.map(v),
       boxes: c.boxes.map((b) => ({ centreMm: v(b.centreMm), sizeMm: v(b.halfSizeMm.map((h) => 2 * h) as unknown as Vec3), axes: b.axes.map(v) })),
     })),
   };

@@ -208,6 +208,8 @@ export type Component = Readonly<{
   pivot?: Readonly<{ atMm: Vec3; minRad: number; maxRad: number; setRad: number }>;
   /** Battery only: straps through the top-plate slots (or round the bottom plate). */
   straps?: Readonly<{ slotsXMm: readonly number[]; strapLengthMm: number; strapWidthMm: number; side: 'top' | 'bottom' }>;
+  /** Soft-mounted boards: the stiffness of each grommet, N/mm (the modes model puts a spring at each mount screw). */
+  softMountNPerMm?: number;
   /** Stack only: the stack mount index and pattern it sits on; board plan size. */
   stack?: Readonly<{ mount: number; patternMm: number; boardMm: Vec2; heightMm: number }>;
 }>;

@@ -1,42 +1,145 @@
-import { readFileSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { checkFrame, checkOptions, checkParts } from '../checks/index.js';
-import type { Feature, Part } from '../geometry/part.js';
-import { circle, roundedRect } from '../geometry/primitives.js';
 import { buildFrame } from '../geometry/index.js';
+import { importDxf } from '../import/index.js';
 import { parseDesignText } from '../params/index.js';
-import type { BenchCase } from './types.js';
+import { BARE_NODE, median, timeOnce } from './measure.js';
+import { drilledPlate, drilledPlateDxf, LIGHTENING_GRID, METRE_PLATE, SQUARES_PLATE, type HoleGrid } from './plates.js';
+import { RULES, type RuleName } from './checkScale.js';
+import type { BenchCase, BenchFigure } from './types.js';
 
-/** A 2 mm plate with a 50 × 40 grid of 6 mm lightening holes on a 10 mm pitch (2,000 holes, 4 mm webs). */
-export function lighteningPlate(): Part {
-  const features: Feature[] = [];
-  for (let i = 0; i < 50; i++) {
-    for (let j = 0; j < 40; j++) {
-      const c = [-245 + 10 * i, -195 + 10 * j] as const;
-      features.push({ loop: circle(c, 3, false), kind: 'hole', purpose: 'lightening', centerMm: c, diameterMm: 6 });
-    }
-  }
+const CLI = fileURLToPath(new URL('../cli/main.js', import.meta.url));
+const SCALE = fileURLToPath(new URL('./checkScale.js', import.meta.url));
+const NUMPY_REF = fileURLToPath(new URL('../../test/reference/holes_numpy.py', import.meta.url));
+const PYTHON = '/usr/bin/python3';
+
+/** Write a drilled plate's DXF to a temporary file (once per run). */
+const dxfFile = (name: string, g: HoleGrid): string => {
+  const file = join(mkdtempSync(join(tmpdir(), 'fw-bench-')), `${name}.dxf`);
+  writeFileSync(file, drilledPlateDxf(g));
+  return file;
+};
+
+/** What `check FILE.dxf --json` does once the process is up: read, import, check, report as JSON. */
+function checkDxfWork(file: string): string {
+  const r = importDxf(readFileSync(file, 'utf8'), { name: 'plate', thicknessMm: 2 });
+  return JSON.stringify(checkParts(r.parts, checkOptions({ toolDiameterMm: 3.175 })));
+}
+
+/** The numpy/scipy reference's own time for one pass over the file (its interpreter start not counted). s. */
+function numpySeconds(file: string): number {
+  const r = spawnSync(PYTHON, [NUMPY_REF, file], { input: '{}', encoding: 'utf8' });
+  if (r.status !== 0) throw new Error(`holes_numpy.py failed: ${r.stderr.slice(0, 200)}`);
+  return (JSON.parse(r.stdout) as { seconds: number }).seconds;
+}
+
+/** Processor ms of one rule on a drilled plate of n holes, each size in fresh processes (so one size's garbage does not bill the next). */
+function ruleMs(rule: RuleName, holes: number): number {
+  const once = () => {
+    const r = spawnSync(process.execPath, ['--expose-gc', SCALE, rule, String(holes)], { encoding: 'utf8' });
+    if (r.status !== 0) throw new Error(`checkScale ${rule} ${holes} failed: ${r.stderr.slice(0, 200)}`);
+    return Number(r.stdout.trim());
+  };
+  // The median of three processes: one process's luck with the machine's other work does not decide a row.
+  return median([once(), once(), once()]);
+}
+
+const SIZES = [500, 2000, 8000, 32000] as const;
+
+/** A row: one rule at 500 / 2,000 / 8,000 / 32,000 holes, the worst growth per 4× the holes against 4.5×. */
+function growthFigure(rule: RuleName, order: number): BenchFigure {
   return {
-    name: 'lightening-grid',
-    role: 'imported',
-    quantity: 1,
-    thicknessMm: 2,
-    material: { name: 'woven-cf', e1Gpa: 65, e2Gpa: 65, g12Gpa: 4, nu12: 0.07, densityGPerCm3: 1.57 },
-    weaveRad: 0,
-    outline: roundedRect([0, 0], 510, 410, 8),
-    features,
-    members: [],
-    placements: [],
-    sourcePath: 'bench',
+    figure: `${RULES[rule]} at 500 / 2,000 / 8,000 / 32,000 holes`,
+    goal: '≤ 4.5× per 4× holes',
+    order,
+    measure: async () => {
+      const ms = SIZES.map((n) => ruleMs(rule, n));
+      // Below a millisecond the clock and the process dominate: growth is only judged above it.
+      const steps = ms.slice(1).map((t, i) => (ms[i] >= 1 ? t / ms[i] : 0));
+      const worst = Math.max(...steps);
+      return { value: ms.map((t) => t.toFixed(1)).join(' / ') + ' ms CPU', peer: '4.00× (linear)', ratio: `${worst.toFixed(2)}×`, met: worst <= 4.5 };
+    },
   };
 }
 
+/** A command on a plate beyond a limit: done within 10 s, or refused (exit 2) within 1 s, whole process. */
+function limitFigure(figure: string, order: number, args: () => string[]): BenchFigure {
+  return {
+    figure,
+    goal: '≤ 10 s, or refused (exit 2) in < 1 s',
+    order,
+    measure: async () => {
+      const argv = [process.execPath, CLI, ...args()];
+      const times: number[] = [];
+      let code = -1;
+      for (let i = 0; i < 3; i++) {
+        const t0 = performance.now();
+        code = spawnSync(argv[0], argv.slice(1), { stdio: ['ignore', 'ignore', 'pipe'] }).status ?? -1;
+        times.push(performance.now() - t0);
+      }
+      const node: number[] = [];
+      for (let i = 0; i < 3; i++) node.push(await timeOnce(BARE_NODE));
+      const ms = median(times);
+      return { value: `${ms.toFixed(0)} ms, exit ${code}`, peer: `${median(node).toFixed(0)} ms bare \`node -e 0\``, met: code === 2 ? ms < 1000 : ms <= 10_000 && (code === 0 || code === 1) };
+    },
+  };
+}
+
+let metre: string | null = null;
+let squares: string | null = null;
+const metreFile = () => (metre ??= dxfFile('metre-99999-holes', METRE_PLATE));
+const squaresFile = () => (squares ??= dxfFile('squares-25000', SQUARES_PLATE));
+
+/** The check figures of issue 15, each beside its peer. */
+export const figures: BenchFigure[] = [
+  {
+    figure: '`check` on a 2,000-hole plate DXF, minus start-up',
+    goal: '≤ 2× a vectorised numpy/scipy reference',
+    order: 3,
+    measure: async () => {
+      if (!existsSync(PYTHON)) return { value: '-', peer: 'python3 missing', met: false };
+      const file = dxfFile('grid-2000', LIGHTENING_GRID);
+      checkDxfWork(file);
+      numpySeconds(file);
+      const ours: number[] = [];
+      const ref: number[] = [];
+      for (let i = 0; i < 9; i++) {
+        const t0 = performance.now();
+        checkDxfWork(file);
+        ours.push(performance.now() - t0);
+        ref.push(numpySeconds(file) * 1000);
+      }
+      const ratio = median(ours) / median(ref);
+      return { value: `${median(ours).toFixed(0)} ms`, peer: `${median(ref).toFixed(0)} ms numpy/scipy (test/reference/holes_numpy.py)`, ratio: `${ratio.toFixed(2)}×`, met: ratio <= 2, note: 'read + import + every rule + JSON, in one warm process' };
+    },
+  },
+  {
+    figure: 'growth of `check` from 2,000 to 8,000 holes (DXF, whole command after start-up)',
+    goal: '≤ 4.5× for 4× the holes',
+    order: 4,
+    measure: async () => {
+      const a = ruleMs('check-dxf', 2000);
+      const b = ruleMs('check-dxf', 8000);
+      return { value: `${a.toFixed(0)} → ${b.toFixed(0)} ms CPU`, peer: '4.00× (linear)', ratio: `${(b / a).toFixed(2)}×`, met: b / a <= 4.5 };
+    },
+  },
+  ...(Object.keys(RULES) as RuleName[]).filter((r) => r !== 'check-dxf').map((r, i) => growthFigure(r, 4.1 + i / 100)),
+  limitFigure('`check` on a 1 m plate with 99,999 holes', 5.2, () => ['check', metreFile(), '--thickness', '2', '--json']),
+  limitFigure('`modes` on a 1 m plate with 99,999 holes', 5.3, () => ['modes', metreFile(), '--thickness', '2']),
+  limitFigure('`modes` on 25,000 squares', 5.4, () => ['modes', squaresFile(), '--thickness', '2']),
+];
+
 export const cases: BenchCase[] = [
   {
-    name: 'check a plate with 2,000 holes (webs, edges, bit reach)',
+    name: 'check a plate with 2,000 holes (every part rule)',
     target: 'under 200 ms',
     budgetMs: 200,
-    setup: () => lighteningPlate(),
-    run: (plate) => checkParts([plate as Part], checkOptions({ toolDiameterMm: 3.175 })),
+    setup: () => drilledPlate(LIGHTENING_GRID),
+    run: (plate) => checkParts([plate as ReturnType<typeof drilledPlate>], checkOptions({ toolDiameterMm: 3.175 })),
     note: (r) => {
       const rep = r as ReturnType<typeof checkParts>;
       return `min web ${rep.parts[0].metrics.minWebMm} mm, ${rep.findings.length} findings`;

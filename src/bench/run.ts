@@ -2,11 +2,11 @@ import { performance } from 'node:perf_hooks';
 import type { BenchCase, BenchFigure, FigureResult } from './types.js';
 import { median } from './measure.js';
 import { cases as geometryCases } from './geometry.js';
-import { cases as analysisCases } from './analysis.js';
+import { cases as analysisCases, figures as analysisFigures } from './analysis.js';
 import { cases as importCases } from './import.js';
-import { cases as checksCases } from './checks.js';
+import { cases as checksCases, figures as checksFigures } from './checks.js';
 import { cases as variantCases } from './variant.js';
-import { cases as quoteCases } from './quote.js';
+import { cases as quoteCases, figures as quoteFigures } from './quote.js';
 import { figures as startupFigures } from './startup.js';
 import { cases as assemblyCases } from './assembly.js';
 import { cases as liveCases } from './live.js';
@@ -15,7 +15,7 @@ import { cases as liveCases } from './live.js';
 const ALL: BenchCase[] = [...geometryCases, ...importCases, ...checksCases, ...assemblyCases, ...variantCases, ...quoteCases, ...analysisCases, ...liveCases];
 
 /** The promised figures, each beside its peer (one table, `order` sorts rows from several files); add one import per file. */
-const FIGURES: BenchFigure[] = [...startupFigures].sort((a, b) => a.order - b.order);
+const FIGURES: BenchFigure[] = [...startupFigures, ...checksFigures, ...quoteFigures, ...analysisFigures].sort((a, b) => a.order - b.order);
 
 function table(header: readonly string[], rows: readonly (readonly string[])[]): string {
   const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));

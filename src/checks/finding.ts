@@ -4,6 +4,22 @@ import type { Finding, Severity } from './types.js';
 /** Round a reported number to 4 decimals so reports are stable across platforms' last-bit noise. */
 export const r4 = (x: number): number => Math.round(x * 1e4) / 1e4 + 0;
 
+/**
+ * Messages already given, so that the thousands of identical findings of a drilled plate share one
+ * string instead of each keeping its own (memory that otherwise grows the garbage collector's work
+ * faster than the hole count). Cleared when large; it only ever returns a string equal to its input.
+ */
+const texts = new Map<string, string>();
+const MAX_TEXTS = 4096;
+
+function shared(message: string): string {
+  const known = texts.get(message);
+  if (known !== undefined) return known;
+  if (texts.size >= MAX_TEXTS) texts.clear();
+  texts.set(message, message);
+  return message;
+}
+
 /** A finding with rounded numbers. */
 export function finding(
   rule: string,
@@ -23,7 +39,7 @@ export function finding(
     limit: limit === null ? null : r4(limit),
     unit,
     atMm: at ? [r4(at[0]), r4(at[1])] : null,
-    message,
+    message: shared(message),
   };
 }
 

@@ -8,7 +8,7 @@ import { radToDeg } from '../params/units.js';
 import { finding, mid, mm } from './finding.js';
 import { heywoodKtn, lekhnitskiiKt } from './laminate.js';
 import type { CheckOptions } from './options.js';
-import type { PartIndex } from './partIndex.js';
+import { edgeFirst, type PartIndex } from './partIndex.js';
 import { buildBoxGrid, queryBoxGrid, type BoxGrid } from './spatial.js';
 import type { Finding } from './types.js';
 
@@ -63,28 +63,33 @@ export function freeEdges(ix: PartIndex): FreeEdges {
  * e: distance from the bolt centre to the nearest free edge, searching outward with a doubling
  * radius (exact on lines and arcs). For a slot the bolt may sit anywhere on its centre line, and
  * since the slot is that line grown by D/2, e = (slot contour to free edge) + D/2. mm.
+ * With `capMm`, the search stops there: null means e > capMm (or no free edge at all).
  */
-export function edgeDistance(ix: PartIndex, h: BoltHole, free: FreeEdges = freeEdges(ix)): { eMm: number; at: Vec2; edge: number } | null {
+export function edgeDistance(ix: PartIndex, h: BoltHole, free: FreeEdges = freeEdges(ix), capMm = Infinity): { eMm: number; at: Vec2; edge: number } | null {
   const own = ix.contours[h.contour];
   const box = h.slot ? own.bbox : ([h.center[0], h.center[1], h.center[0], h.center[1]] as const);
+  // The cap on e as a cap on the searched distance (a slot's contour lies D/2 nearer the edge).
+  const capGap = h.slot ? capMm - h.diameterMm / 2 : capMm;
+  if (capGap < 0) return null;
   for (let r = h.diameterMm; ; r *= 2) {
+    const reach = Math.min(r, capGap);
     let best: { eMm: number; at: Vec2; edge: number } | null = null;
-    for (const k of queryBoxGrid(free.grid, box, r)) {
+    for (const k of queryBoxGrid(free.grid, box, reach)) {
       const s = ix.segs[free.ids[k]];
       if (s.contour === h.contour) continue;
       if (h.slot) {
         for (const seg of own.loop) {
           const c = segmentDistance(seg, s.s);
           const e = c.distance + h.diameterMm / 2;
-          if (c.distance <= r && (!best || e < best.eMm)) best = { eMm: e, at: c.p, edge: s.contour };
+          if (c.distance <= reach && (!best || e < best.eMm)) best = { eMm: e, at: c.p, edge: s.contour };
         }
       } else {
         const c = closestPoint(s.s, h.center);
-        if (c.distance <= r && (!best || c.distance < best.eMm)) best = { eMm: c.distance, at: c.point, edge: s.contour };
+        if (c.distance <= reach && (!best || c.distance < best.eMm)) best = { eMm: c.distance, at: c.point, edge: s.contour };
       }
     }
     if (best) return best;
-    if (r > 2 * ix.spanMm) return null;
+    if (reach >= capGap || r > 2 * ix.spanMm) return null;
   }
 }
 
@@ -98,8 +103,14 @@ export function holeEdgeRule(ix: PartIndex, o: CheckOptions, holes: readonly Bol
   const findings: Finding[] = [];
   let minRatio: number | null = null;
   const free = freeEdges(ix);
-  for (const h of holes) {
-    const e = edgeDistance(ix, h, free);
+  // Holes nearest the edge first; each search stops at the larger of the warning level and the
+  // smallest e/D so far (a hole beyond both neither warns nor lowers the metric): linear in holes.
+  const order = edgeFirst(ix);
+  const rank = new Map(order.map((k, i) => [k, i]));
+  const byEdge = [...holes].sort((a, b) => (rank.get(a.contour) ?? 0) - (rank.get(b.contour) ?? 0));
+  for (const h of byEdge) {
+    const capRatio = Math.max(lim.enabled ? lim.warnEdgeRatio : 0, minRatio ?? Infinity);
+    const e = edgeDistance(ix, h, free, capRatio * h.diameterMm);
     if (!e) continue;
     const ratio = e.eMm / h.diameterMm;
     minRatio = minRatio === null ? ratio : Math.min(minRatio, ratio);
@@ -134,35 +145,58 @@ export function holeEdgeRule(ix: PartIndex, o: CheckOptions, holes: readonly Bol
   return { findings, minEdgeRatio: minRatio };
 }
 
-/** Holes whose stress concentration the member carries: bolt holes in or at the end of a strut. */
-function memberOf(h: BoltHole, members: readonly Member[]): Member | null {
-  let best: { m: Member; d: number } | null = null;
-  for (const m of members) {
-    const d = closestPoint(line(m.startMm, m.endMm), h.center).distance;
-    const inBand = d <= m.widthMm / 2 + h.diameterMm / 2;
-    const atTip = h.feature.purpose === 'motor-bolt';
-    if ((inBand || atTip) && (!best || d < best.d)) best = { m, d };
-  }
-  return best?.m ?? null;
+/** A part's members with a grid over their centrelines, for finding the member a hole belongs to. */
+type MemberIndex = Readonly<{ members: readonly Member[]; grid: BoxGrid; halfWidthMm: number; spanMm: number }>;
+
+function indexMembers(members: readonly Member[], spanMm: number): MemberIndex {
+  const boxes = members.map((m) => [Math.min(m.startMm[0], m.endMm[0]), Math.min(m.startMm[1], m.endMm[1]), Math.max(m.startMm[0], m.endMm[0]), Math.max(m.startMm[1], m.endMm[1])] as const);
+  return { members, grid: buildBoxGrid(boxes), halfWidthMm: Math.max(0, ...members.map((m) => m.widthMm / 2)), spanMm };
 }
 
-/** Distance from the hole edge to the first boundary along direction dir. mm. */
+/**
+ * The member whose stress concentration a bolt hole adds to: the nearest member whose band (width
+ * plus the hole) holds the hole, or for a motor bolt (at a strut's tip) the nearest member at all.
+ * Ties go to the member listed first.
+ */
+function memberOf(h: BoltHole, mi: MemberIndex): Member | null {
+  const atTip = h.feature.purpose === 'motor-bolt';
+  const pt = [h.center[0], h.center[1], h.center[0], h.center[1]] as const;
+  for (let r = mi.halfWidthMm + h.diameterMm / 2; ; r *= 2) {
+    let best: { m: Member; d: number } | null = null;
+    for (const k of queryBoxGrid(mi.grid, pt, r).sort((a, b) => a - b)) {
+      const m = mi.members[k];
+      const d = closestPoint(line(m.startMm, m.endMm), h.center).distance;
+      const inBand = d <= m.widthMm / 2 + h.diameterMm / 2;
+      if ((inBand || (atTip && d <= r)) && (!best || d < best.d)) best = { m, d };
+    }
+    // Every band that can hold the hole lies within the first radius; a motor bolt searches on.
+    if (best || !atTip || r > 2 * mi.spanMm + 1) return best?.m ?? null;
+  }
+}
+
+/**
+ * Distance from the hole edge to the first boundary along direction dir. mm. The ray grows from the
+ * hole in doubling steps, so finding the nearest wall costs about what lies near the hole.
+ */
 function ligament(ix: PartIndex, h: BoltHole, dir: Vec2): number | null {
   const r = h.diameterMm / 2;
   const a = add(h.center, scale(dir, r * (1 + 1e-6)));
-  const b = add(h.center, scale(dir, ix.spanMm + r));
-  const ray = line(a, b);
-  const box = [Math.min(a[0], b[0]), Math.min(a[1], b[1]), Math.max(a[0], b[0]), Math.max(a[1], b[1])] as const;
-  let best: number | null = null;
-  for (const id of queryBoxGrid(ix.segGrid, box)) {
-    const s = ix.segs[id];
-    if (s.contour === h.contour) continue;
-    for (const hit of intersectSegments(ray, s.s, 1e-9)) {
-      const d = dot(sub(hit.point, h.center), dir) - r;
-      if (best === null || d < best) best = d;
+  for (let reach = 2 * h.diameterMm; ; reach *= 2) {
+    const len = Math.min(reach, ix.spanMm + r);
+    const b = add(a, scale(dir, len));
+    const ray = line(a, b);
+    const box = [Math.min(a[0], b[0]), Math.min(a[1], b[1]), Math.max(a[0], b[0]), Math.max(a[1], b[1])] as const;
+    let best: number | null = null;
+    for (const id of queryBoxGrid(ix.segGrid, box)) {
+      const s = ix.segs[id];
+      if (s.contour === h.contour) continue;
+      for (const hit of intersectSegments(ray, s.s, 1e-9)) {
+        const d = dot(sub(hit.point, h.center), dir) - r;
+        if (best === null || d < best) best = d;
+      }
     }
+    if (best !== null || len >= ix.spanMm + r) return best;
   }
-  return best;
 }
 
 /**
@@ -174,9 +208,10 @@ export function holeStressRule(ix: PartIndex, o: CheckOptions, holes: readonly B
   if (!o.limits['hole-stress'].enabled) return [];
   const part = ix.part;
   const out: Finding[] = [];
+  const mi = indexMembers(part.members, ix.spanMm);
   for (const h of holes) {
     if (h.slot || !['motor-bolt', 'arm-root-bolt', 'imported'].includes(h.feature.purpose)) continue;
-    const m = memberOf(h, part.members);
+    const m = memberOf(h, mi);
     if (!m) continue;
     const along = unit(sub(m.endMm, m.startMm));
     const across = perp(along);

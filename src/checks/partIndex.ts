@@ -68,3 +68,20 @@ export function distanceToBoundary(ix: PartIndex, p: Vec2, radiusMm: number, sto
   }
   return best;
 }
+
+/**
+ * Inner contours in the order of their bounding box's distance to the outline's bounding box, nearest
+ * first: a cheap guess at which are near the edge, so that the searches below find a small distance
+ * early and can stop the rest at it.
+ */
+export function edgeFirst(ix: PartIndex): number[] {
+  const o = ix.contours[0].bbox;
+  const gap = (k: number): number => {
+    const b = ix.contours[k].bbox;
+    return Math.min(b[0] - o[0], b[1] - o[1], o[2] - b[2], o[3] - b[3]);
+  };
+  const ids = ix.contours.slice(1).map((c) => c.index);
+  const key = new Float64Array(ix.contours.length);
+  for (const k of ids) key[k] = gap(k);
+  return ids.sort((a, b) => key[a] - key[b] || a - b);
+}

@@ -1,6 +1,7 @@
 import type { Frame } from '../geometry/frame.js';
-import { partArea, partBBox, partCutLength } from '../geometry/metrics.js';
+import { partArea, partCutLength } from '../geometry/metrics.js';
 import type { Part } from '../geometry/part.js';
+import type { Vec2 } from '../geometry/types.js';
 import { bitReachRule } from './bitReach.js';
 import { loopChords } from './chords.js';
 import { r4 } from './finding.js';
@@ -35,7 +36,8 @@ export function checkPart(part: Part, o: CheckOptions): PartCheck {
   const holes = boltHoles(ix);
   const edge = holeEdgeRule(ix, o, holes);
   const findings = [...webs.findings, ...edge.findings, ...holeStressRule(ix, o, holes), ...bitReachRule(ix, o, chords), ...weaveRule(part, o)];
-  const bb = partBBox(part);
+  // The outline's box is the part's (every inner contour lies inside it), already computed by the index.
+  const bb = ix.contours[0].bbox;
   const num = (x: number | null): number | null => (x === null ? null : r4(x));
   return {
     findings,
@@ -84,36 +86,41 @@ function badness(f: Finding): [number, number] {
  * at least MERGE_DISTANCE_MM apart. Uses a 1 mm grid, so it stays linear in the finding count.
  */
 export function mergeFindings(findings: readonly Finding[]): Finding[] {
-  const ranked = [...findings].sort((a, b) => {
-    const [sa, ma] = badness(a);
-    const [sb, mb] = badness(b);
-    return sa - sb || ma - mb;
-  });
-  const cells = new Map<string, Finding[]>();
+  // Badness computed once per finding; the sort is stable, so ties keep the findings' order.
+  const ranked = findings.map((f) => ({ f, b: badness(f) })).sort((x, y) => x.b[0] - y.b[0] || x.b[1] - y.b[1]);
+  // Per part and rule, kept places by grid cell (a number: thousands of findings build no strings).
+  const groups = new Map<string, Map<number, Vec2[]>>();
   const seenMessages = new Set<string>();
   const kept = new Set<Finding>();
-  const cellKey = (f: Finding, i: number, j: number): string => `${f.part}\u0000${f.rule}\u0000${i}\u0000${j}`;
-  for (const f of ranked) {
+  const CELL_SPAN = 2 ** 22;
+  const cellKey = (i: number, j: number): number => (i + CELL_SPAN / 2) * CELL_SPAN + (j + CELL_SPAN / 2);
+  for (const { f } of ranked) {
+    const group = `${f.part}\u0000${f.rule}`;
     if (!f.atMm) {
-      const key = `${f.part}\u0000${f.rule}\u0000${f.message}`;
+      const key = `${group}\u0000${f.message}`;
       if (!seenMessages.has(key)) kept.add(f);
       seenMessages.add(key);
       continue;
     }
-    const i = Math.floor(f.atMm[0] / MERGE_DISTANCE_MM);
-    const j = Math.floor(f.atMm[1] / MERGE_DISTANCE_MM);
+    let cells = groups.get(group);
+    if (!cells) groups.set(group, (cells = new Map()));
+    const [x, y] = f.atMm;
+    const i = Math.floor(x / MERGE_DISTANCE_MM);
+    const j = Math.floor(y / MERGE_DISTANCE_MM);
     let near = false;
     for (let di = -1; di <= 1 && !near; di++) {
       for (let dj = -1; dj <= 1 && !near; dj++) {
-        for (const g of cells.get(cellKey(f, i + di, j + dj)) ?? []) {
-          if (Math.hypot(g.atMm![0] - f.atMm[0], g.atMm![1] - f.atMm[1]) < MERGE_DISTANCE_MM) near = true;
+        for (const g of cells.get(cellKey(i + di, j + dj)) ?? []) {
+          if (Math.hypot(g[0] - x, g[1] - y) < MERGE_DISTANCE_MM) near = true;
         }
       }
     }
     if (near) continue;
     kept.add(f);
-    const k = cellKey(f, i, j);
-    cells.set(k, [...(cells.get(k) ?? []), f]);
+    const k = cellKey(i, j);
+    const list = cells.get(k);
+    if (list) list.push(f.atMm);
+    else cells.set(k, [f.atMm]);
   }
   return findings.filter((f) => kept.has(f));
 }
@@ -124,15 +131,10 @@ export function mergeFindings(findings: readonly Finding[]): Finding[] {
  */
 export function makeReport(parts: readonly PartMetrics[], findings: readonly Finding[]): CheckReport {
   const order = new Map(parts.map((p, i) => [p.name, i]));
-  const sorted = mergeFindings(findings).sort(
-    (a, b) =>
-      (order.get(a.part) ?? parts.length) - (order.get(b.part) ?? parts.length) ||
-      SEVERITY_ORDER[a.severity] - SEVERITY_ORDER[b.severity] ||
-      cmp(a.rule, b.rule) ||
-      (a.atMm?.[0] ?? 0) - (b.atMm?.[0] ?? 0) ||
-      (a.atMm?.[1] ?? 0) - (b.atMm?.[1] ?? 0) ||
-      cmp(a.message, b.message),
-  );
+  // Sort keys computed once per finding (thousands of findings on a drilled plate).
+  const keyed = mergeFindings(findings).map((f) => ({ f, part: order.get(f.part) ?? parts.length, sev: SEVERITY_ORDER[f.severity], x: f.atMm?.[0] ?? 0, y: f.atMm?.[1] ?? 0 }));
+  keyed.sort((a, b) => a.part - b.part || a.sev - b.sev || cmp(a.f.rule, b.f.rule) || a.x - b.x || a.y - b.y || cmp(a.f.message, b.f.message));
+  const sorted = keyed.map((k) => k.f);
   return {
     units: 'mm',
     parts,

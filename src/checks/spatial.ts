@@ -3,102 +3,139 @@ import type { BBox } from '../geometry/types.js';
 /**
  * A uniform grid over bounding boxes: each item is listed in every cell its box touches, so a
  * query returns every item whose box meets the query box (and some near it), each once. Cell size
- * is chosen from the typical item size; queries cost about the number of items near the box, which
- * keeps a 2,000-hole plate far from all-pairs work.
+ * is chosen from the data (`gridCellMm`); queries cost about the number of items near the box, so
+ * every rule that asks about neighbours stays linear in the number of holes. Cells are stored as one
+ * flat list (offsets per cell), which the cell size keeps to about one cell per item.
  */
 export type BoxGrid = Readonly<{
   boxes: readonly BBox[];
   cellMm: number;
   originMm: readonly [number, number];
-  cells: ReadonlyMap<number, readonly number[]>;
+  /** Cells across and up. */
+  nx: number;
+  ny: number;
+  /** Items of cell (ix, iy) are items[start[ix * ny + iy] .. start[ix * ny + iy + 1]). */
+  start: Int32Array;
+  items: Int32Array;
+  /** Items spanning many cells (a long outline edge), scanned once by every query. */
+  spill: Int32Array;
   /** Scratch marks for de-duplicating a query (each query fills its result before the next starts). */
   marks: { stamp: number; seen: Int32Array };
 }>;
 
-const KEY_SPAN = 1 << 20;
-
-/** Items spanning more cells than this are kept in one spill list instead. */
+/** Items spanning more cells than this are kept in the spill list instead. */
 const SPILL_CELLS = 64;
-const key = (ix: number, iy: number): number => ix * KEY_SPAN + iy;
 
-/** Build a grid over the boxes (index = item id). cellMm defaults to twice the median box size. */
-export function buildBoxGrid(boxes: readonly BBox[], cellMm?: number): BoxGrid {
-  let cell = cellMm;
-  if (cell === undefined) {
-    const sizes = boxes.map((b) => Math.max(b[2] - b[0], b[3] - b[1])).sort((a, b) => a - b);
-    cell = Math.max(2 * (sizes[Math.floor(sizes.length / 2)] ?? 1), 1e-3);
-  }
-  let ox = Infinity;
-  let oy = Infinity;
+/** At most this many cells per item (plus a constant): a caller's tiny cell is widened to it. */
+const CELLS_PER_ITEM = 4;
+
+/**
+ * Cell size from the data: twice the median item size, but never below the mean spacing of the items
+ * (the side of the square each item would have if they were spread evenly over their extent). Points
+ * (zero-size boxes, e.g. hole centres) thus get about one item per cell instead of a degenerate cell
+ * that makes every query walk the whole grid. mm.
+ */
+export function gridCellMm(boxes: readonly BBox[]): number {
+  if (boxes.length === 0) return 1;
+  const sizes = boxes.map((b) => Math.max(b[2] - b[0], b[3] - b[1])).sort((a, b) => a - b);
+  const [x0, y0, x1, y1] = extent(boxes);
+  // A line of items (zero width or height) spreads along its length only.
+  const w = x1 - x0;
+  const h = y1 - y0;
+  const spread = w > 0 && h > 0 ? Math.sqrt((w * h) / boxes.length) : Math.max(w, h) / boxes.length;
+  const cell = Math.max(2 * sizes[Math.floor(sizes.length / 2)], spread);
+  return cell > 0 && Number.isFinite(cell) ? cell : 1;
+}
+
+function extent(boxes: readonly BBox[]): [number, number, number, number] {
+  let x0 = Infinity;
+  let y0 = Infinity;
+  let x1 = -Infinity;
+  let y1 = -Infinity;
   for (const b of boxes) {
-    ox = Math.min(ox, b[0]);
-    oy = Math.min(oy, b[1]);
+    if (b[0] < x0) x0 = b[0];
+    if (b[1] < y0) y0 = b[1];
+    if (b[2] > x1) x1 = b[2];
+    if (b[3] > y1) y1 = b[3];
   }
-  if (!Number.isFinite(ox)) ox = oy = 0;
-  const cells = new Map<number, number[]>();
-  const grid: BoxGrid = { boxes, cellMm: cell, originMm: [ox, oy], cells, marks: { stamp: 0, seen: new Int32Array(boxes.length) } };
+  return Number.isFinite(x0) ? [x0, y0, x1, y1] : [0, 0, 0, 0];
+}
+
+/** Build a grid over the boxes (index = item id); cellMm defaults to `gridCellMm(boxes)`. */
+export function buildBoxGrid(boxes: readonly BBox[], cellMm?: number): BoxGrid {
+  const [ox, oy, ex, ey] = extent(boxes);
+  let cell = cellMm ?? gridCellMm(boxes);
+  const dims = (c: number): [number, number] => [Math.floor((ex - ox) / c) + 1, Math.floor((ey - oy) / c) + 1];
+  let [nx, ny] = dims(cell);
+  while (nx * ny > CELLS_PER_ITEM * boxes.length + 1024) {
+    cell *= 2;
+    [nx, ny] = dims(cell);
+  }
+  const count = new Int32Array(nx * ny + 1);
+  const spill: number[] = [];
+  const range = (b: BBox): [number, number, number, number] => [
+    Math.floor((b[0] - ox) / cell),
+    Math.floor((b[1] - oy) / cell),
+    Math.floor((b[2] - ox) / cell),
+    Math.floor((b[3] - oy) / cell),
+  ];
+  const big = new Uint8Array(boxes.length);
   boxes.forEach((b, id) => {
-    const [ix0, iy0, ix1, iy1] = cellRange(grid, b, 0);
+    const [ix0, iy0, ix1, iy1] = range(b);
     // A large item (a long outline edge) would sit in many cells and be met again and again by
     // wide queries: it goes to the spill list, which every query scans once.
     if ((ix1 - ix0 + 1) * (iy1 - iy0 + 1) > SPILL_CELLS) {
-      const spill = cells.get(-1) ?? [];
+      big[id] = 1;
       spill.push(id);
-      cells.set(-1, spill);
       return;
     }
-    for (let ix = ix0; ix <= ix1; ix++) {
-      for (let iy = iy0; iy <= iy1; iy++) {
-        const k = key(ix, iy);
-        const list = cells.get(k);
-        if (list) list.push(id);
-        else cells.set(k, [id]);
-      }
-    }
+    for (let ix = ix0; ix <= ix1; ix++) for (let iy = iy0; iy <= iy1; iy++) count[ix * ny + iy + 1]++;
   });
-  return grid;
-}
-
-function cellRange(g: BoxGrid, b: BBox, padMm: number): [number, number, number, number] {
-  const c = g.cellMm;
-  return [
-    Math.max(0, Math.floor((b[0] - padMm - g.originMm[0]) / c)),
-    Math.max(0, Math.floor((b[1] - padMm - g.originMm[1]) / c)),
-    Math.min(KEY_SPAN - 1, Math.floor((b[2] + padMm - g.originMm[0]) / c)),
-    Math.min(KEY_SPAN - 1, Math.floor((b[3] + padMm - g.originMm[1]) / c)),
-  ];
+  for (let k = 1; k <= nx * ny; k++) count[k] += count[k - 1];
+  const start = count;
+  const items = new Int32Array(start[nx * ny]);
+  const fill = start.slice(0, nx * ny);
+  boxes.forEach((b, id) => {
+    if (big[id]) return;
+    const [ix0, iy0, ix1, iy1] = range(b);
+    for (let ix = ix0; ix <= ix1; ix++) for (let iy = iy0; iy <= iy1; iy++) items[fill[ix * ny + iy]++] = id;
+  });
+  return { boxes, cellMm: cell, originMm: [ox, oy], nx, ny, start, items, spill: Int32Array.from(spill), marks: { stamp: 0, seen: new Int32Array(boxes.length) } };
 }
 
 /** Ids of items whose box comes within padMm of the query box (each once, in a deterministic order). */
 export function queryBoxGrid(g: BoxGrid, b: BBox, padMm = 0): number[] {
   const out: number[] = [];
-  const marks = g.marks;
+  const { boxes, marks, start, items, ny } = g;
+  const seen = marks.seen;
   const stamp = ++marks.stamp;
   const x0 = b[0] - padMm;
   const y0 = b[1] - padMm;
   const x1 = b[2] + padMm;
   const y1 = b[3] + padMm;
-  const visit = (list: readonly number[]): void => {
-    for (const id of list) {
-      if (marks.seen[id] === stamp) continue;
-      marks.seen[id] = stamp;
-      const o = g.boxes[id];
-      if (o[0] > x1 || x0 > o[2] || o[1] > y1 || y0 > o[3]) continue;
-      out.push(id);
-    }
-  };
-  const [ix0, iy0, ix1, iy1] = cellRange(g, b, padMm);
-  if ((ix1 - ix0 + 1) * (iy1 - iy0 + 1) > g.cells.size) {
-    // The query covers more cells than exist: scanning the occupied ones is cheaper.
-    for (const [k, list] of g.cells) if (k !== -1) visit(list);
-  } else {
-    for (let ix = ix0; ix <= ix1; ix++) {
-      for (let iy = iy0; iy <= iy1; iy++) {
-        const list = g.cells.get(key(ix, iy));
-        if (list) visit(list);
+  const c = g.cellMm;
+  const ix0 = Math.max(0, Math.floor((x0 - g.originMm[0]) / c));
+  const iy0 = Math.max(0, Math.floor((y0 - g.originMm[1]) / c));
+  const ix1 = Math.min(g.nx - 1, Math.floor((x1 - g.originMm[0]) / c));
+  const iy1 = Math.min(ny - 1, Math.floor((y1 - g.originMm[1]) / c));
+  for (let ix = ix0; ix <= ix1; ix++) {
+    for (let iy = iy0; iy <= iy1; iy++) {
+      const k = ix * ny + iy;
+      for (let n = start[k]; n < start[k + 1]; n++) {
+        const id = items[n];
+        if (seen[id] === stamp) continue;
+        seen[id] = stamp;
+        const o = boxes[id];
+        if (o[0] > x1 || x0 > o[2] || o[1] > y1 || y0 > o[3]) continue;
+        out.push(id);
       }
     }
   }
-  visit(g.cells.get(-1) ?? []);
+  for (let n = 0; n < g.spill.length; n++) {
+    const id = g.spill[n];
+    const o = boxes[id];
+    if (o[0] > x1 || x0 > o[2] || o[1] > y1 || y0 > o[3]) continue;
+    out.push(id);
+  }
   return out;
 }

@@ -3,8 +3,8 @@ import type { Vec2 } from '../geometry/types.js';
 import type { Chord } from './chords.js';
 import { finding, mid, mm } from './finding.js';
 import type { CheckOptions } from './options.js';
-import { type PartIndex } from './partIndex.js';
-import { buildBoxGrid, queryBoxGrid } from './spatial.js';
+import { edgeFirst, type PartIndex, type SegRef } from './partIndex.js';
+import { buildBoxGrid, queryBoxGrid, type BoxGrid } from './spatial.js';
 import type { Finding } from './types.js';
 import { withArticle } from '../params/words.js';
 
@@ -47,49 +47,49 @@ export function contourPairsWithin(ix: PartIndex, radiusMm: number, want: (a: nu
 }
 
 /**
- * Smallest distance from any inner contour to the outline: each inner contour searches an
- * outline-only grid with a radius that doubles until it meets the outline (exact), so holes deep
- * inside a large plate cost a few cheap queries each. Null for a part without inner contours.
+ * Smallest distance from an inner contour to a contour accepted by `accept(a, b)` among the segments
+ * in `grid` (ids mapped by `segOf`): each inner contour searches with a radius that doubles until it
+ * meets something (exact: every segment nearer than the radius is seen). The radius never grows past
+ * the smallest distance found so far, and contours nearest the edge go first, so holes deep inside a
+ * large plate cost one or two cheap queries each: linear in the number of holes.
  */
-export function nearestToOutline(ix: PartIndex, startMm: number): ContourPair | null {
-  const outline = ix.contours[0].loop.map((_, k) => ix.segs[ix.firstSeg[0] + k]);
-  const grid = buildBoxGrid(outline.map((s) => s.box));
+function nearestBySearch(ix: PartIndex, startMm: number, grid: BoxGrid, segOf: (id: number) => SegRef, accept: (a: number, b: number) => boolean): ContourPair | null {
   let best: ContourPair | null = null;
-  for (let a = 1; a < ix.contours.length; a++) {
+  for (const a of edgeFirst(ix)) {
     const box = ix.contours[a].bbox;
-    for (let r = Math.max(startMm, 1e-3); r <= 4 * ix.spanMm + 1; r *= 2) {
+    // Once something is found, one query at the best distance so far settles each further contour.
+    for (let r = Math.max(startMm, 1e-3, best ? best.distance : 0); r <= 4 * ix.spanMm + 1; r *= 2) {
+      const cap = best ? Math.min(r, best.distance) : r;
       let found: ContourPair | null = null;
-      const near = queryBoxGrid(grid, box, r);
+      const near = queryBoxGrid(grid, box, cap);
       for (let k = 0; k < ix.contours[a].loop.length; k++) {
         const sa = ix.segs[ix.firstSeg[a] + k];
-        for (const o of near) {
-          const so = outline[o];
-          const bound = Math.min(r, found ? found.distance : Infinity);
+        for (const id of near) {
+          const so = segOf(id);
+          if (!accept(a, so.contour)) continue;
+          const bound = Math.min(cap, found ? found.distance : Infinity);
           if (bboxGap(sa.box, so.box) > bound) continue;
           const c = segmentDistance(sa.s, so.s);
-          if (c.distance <= bound && (!found || c.distance < found.distance)) found = { ...c, a, b: 0 };
+          if (c.distance <= bound && (!found || c.distance < found.distance)) found = { ...c, a, b: so.contour };
         }
       }
-      if (found) {
-        if (!best || found.distance < best.distance) best = found;
-        break;
-      }
+      if (found && (!best || found.distance < best.distance)) best = found;
+      // Nothing nearer than the best so far can lie beyond it.
+      if (found || (best && r >= best.distance)) break;
     }
   }
   return best;
 }
 
-/**
- * Smallest distance between an inner contour and a contour accepted by `want`, searching with a
- * radius that doubles until something is found (exact: every pair nearer than the radius is seen).
- */
+/** Smallest distance from any inner contour to the outline (an outline-only grid). Null without inner contours. */
+export function nearestToOutline(ix: PartIndex, startMm: number): ContourPair | null {
+  const outline = ix.contours[0].loop.map((_, k) => ix.segs[ix.firstSeg[0] + k]);
+  return nearestBySearch(ix, startMm, buildBoxGrid(outline.map((s) => s.box)), (id) => outline[id], () => true);
+}
+
+/** Smallest distance between an inner contour and another contour accepted by `want` (exact). */
 export function nearestPair(ix: PartIndex, startMm: number, want: (a: number, b: number) => boolean): ContourPair | null {
-  if (ix.contours.length < 2) return null;
-  for (let r = Math.max(startMm, 1e-3); ; r *= 2) {
-    const pairs = contourPairsWithin(ix, r, want);
-    if (pairs.length) return pairs.reduce((m, p) => (p.distance < m.distance ? p : m));
-    if (r > 2 * ix.spanMm) return null;
-  }
+  return nearestBySearch(ix, startMm, ix.segGrid, (id) => ix.segs[id], (a, b) => b !== a && want(a, b));
 }
 
 export type WebMetrics = { minWebMm: number | null; minHoleEdgeWebMm: number | null; minHoleHoleWebMm: number | null };
@@ -114,8 +114,10 @@ export function webRule(ix: PartIndex, o: CheckOptions, chords: readonly Chord[]
         `${what}: web ${mm(width)} is below the ${error ? 'minimum' : 'warning level'} ${mm(need)} for ${plate}; ${fix(mm(need - width))}`),
     );
   };
+  let holeHole: ContourPair | null = null;
   for (const p of contourPairsWithin(ix, warn)) {
     report(p.distance, mid(p.p, p.q), `${ix.contours[p.a].label} to ${ix.contours[p.b].label}`, (more) => `move the two contours ${more} further apart`);
+    if (p.b !== 0 && (!holeHole || p.distance < holeHole.distance)) holeHole = p;
   }
   let minNeck: number | null = null;
   for (const c of chords) {
@@ -124,7 +126,8 @@ export function webRule(ix: PartIndex, o: CheckOptions, chords: readonly Chord[]
     report(c.widthMm, mid(c.p, c.q), `narrow neck in the ${ix.contours[c.contour].label}`, (more) => `widen the material there by ${more}`);
   }
   const edge = nearestToOutline(ix, warn);
-  const holeHole = nearestPair(ix, warn, (_a, b) => b !== 0);
+  // The pass above saw every pair nearer than the warning level; search further only when it found none.
+  holeHole ??= nearestPair(ix, warn, (_a, b) => b !== 0);
   const candidates = [edge?.distance, holeHole?.distance, minNeck ?? undefined].filter((x): x is number => x !== undefined);
   return {
     findings,

@@ -21,15 +21,20 @@ export type ArmShape = Readonly<{
 /** Width of the arm where it is clamped: the truss spread, or the (root) width of a bar arm. mm. */
 export const armRootWidthMm = (d: Design): number => (d.arms.style === 'truss' ? d.arms.truss!.spreadMm : (d.arms.widthMm ?? 0));
 
-/** Distance from the arm's root end to the outermost root bolt plus its margin. mm. */
+/**
+ * Length of the arm's root block: for separate arms the root bolts with their edge margins; a
+ * unibody arm's block lies inside the body and only needs to hold the struts' ends (two bit widths). mm.
+ */
 export const rootBlockLength = (d: Design): number =>
-  2 * d.arms.root.edgeMarginMm + (d.arms.root.boltCount - 1) * d.arms.root.boltSpacingMm;
+  d.arms.construction === 'separate'
+    ? 2 * d.arms.root.edgeMarginMm + (d.arms.root.boltCount - 1) * d.arms.root.boltSpacingMm
+    : 2 * d.cutting.toolDiameterMm;
 
 /**
- * Arm in its own frame. `lengthMm` is root end to motor centre. `withRoot` adds the root bolts
- * (separate arms); a unibody arm has none.
+ * Arm in its own frame. `lengthMm` is root end to motor centre. Separate arms carry their root
+ * bolts; a unibody arm has none.
  */
-export function armShape(d: Design, lengthMm: number, withRoot: boolean, sourcePath = 'arms'): ArmShape {
+export function armShape(d: Design, lengthMm: number, sourcePath = 'arms'): ArmShape {
   const a = d.arms;
   const L = lengthMm;
   const padR = motorPadRadius(d);
@@ -68,7 +73,7 @@ export function armShape(d: Design, lengthMm: number, withRoot: boolean, sourceP
       return assertNever(a.style);
   }
   const features: SourcedFeature[] = [];
-  if (withRoot) {
+  if (a.construction === 'separate') {
     for (let i = 0; i < a.root.boltCount; i++) {
       features.push(screwHole(d, [a.root.edgeMarginMm + i * a.root.boltSpacingMm, 0], a.root.boltSize, 'arm-root-bolt', `${sourcePath}.root`));
     }

@@ -16,6 +16,10 @@ export type ClosestPair = Readonly<{ distance: number; p: Vec2; t: number; q: Ve
  * @example segmentDistance(line([0,0],[10,0]), arc([5,5],2,0,Math.PI*2)).distance // 3
  */
 export function segmentDistance(a: Segment, b: Segment): ClosestPair {
+  if (a.kind === 'arc' && b.kind === 'arc') {
+    const c = separateCircles(a, b);
+    if (c) return c;
+  }
   let best: ClosestPair = endCandidates(a, b);
   const consider = (c: ClosestPair | null): void => {
     if (c && c.distance < best.distance) best = c;
@@ -31,6 +35,21 @@ export function segmentDistance(a: Segment, b: Segment): ClosestPair {
     }
   }
   return best;
+}
+
+/**
+ * Two full circles, each outside the other: the closest pair lies on the line of centres, at
+ * |c1c2| − r1 − r2 (the common case of two round holes, answered without the general search).
+ */
+function separateCircles(a: Arc, b: Arc): ClosestPair | null {
+  const full = (s: Arc) => Math.abs(s.sweepRad) >= 2 * Math.PI;
+  if (!full(a) || !full(b)) return null;
+  const d = dist(a.center, b.center);
+  if (d <= a.radius + b.radius || d === 0) return null;
+  const ang = Math.atan2(b.center[1] - a.center[1], b.center[0] - a.center[0]);
+  const p = add(a.center, polar(a.radius, ang));
+  const q = add(b.center, polar(b.radius, ang + Math.PI));
+  return { distance: d - a.radius - b.radius, p, t: arcParamOfAngle(a, ang, 1e-9), q, u: arcParamOfAngle(b, ang + Math.PI, 1e-9) };
 }
 
 function swap(c: ClosestPair): ClosestPair {

@@ -1,4 +1,4 @@
-import type { Design } from '../params/design.js';
+import type { Design, SeparateArms } from '../params/design.js';
 import { DesignError, type DesignIssue } from '../params/errors.js';
 import { clearanceHoleMm } from '../params/screws.js';
 import { degToRad } from '../params/units.js';
@@ -38,14 +38,14 @@ export type Frame = Readonly<{
 export function buildFrame(d: Design): Frame {
   const sites = motorSites(d);
   const parts: Part[] = [];
-  const unibody = d.arms.construction === 'unibody';
+  const a = d.arms;
   parts.push(bottomPlate(d, sites));
-  if (!unibody) parts.push(...arms(d, sites));
+  if (a.construction === 'separate') parts.push(...arms(d, a, sites));
   parts.push(topPlate(d));
-  if (d.braces && !unibody) parts.push(...braces(d, sites));
+  if (d.braces && a.construction === 'separate') parts.push(...braces(d, a, sites));
   if (d.camera) parts.push(cameraSide(d));
   const relieved = parts.map((p) => withReliefs(d, p));
-  const armTopZMm = armLayerZMm(d) + (unibody ? d.body.thicknessMm : d.arms.thicknessMm);
+  const armTopZMm = armLayerZMm(d) + (a.construction === 'separate' ? a.thicknessMm : d.body.thicknessMm);
   return { name: d.name, revision: d.revision, parts: relieved, sites, propDiameterMm: d.props.diameterMm, armTopZMm, cameraPlanMm: cameraPlan(d), design: d };
 }
 
@@ -65,14 +65,16 @@ function withReliefs(d: Design, part: Part): Part {
  * or on top of it; a unibody's arms are the bottom plate.
  */
 export function armLayerZMm(d: Design): number {
-  if (d.arms.construction === 'unibody') return 0;
-  return d.assembly.armStacking === 'under-body' ? -d.arms.thicknessMm : d.body.thicknessMm;
+  const a = d.arms;
+  if (a.construction === 'unibody') return 0;
+  return d.assembly.armStacking === 'under-body' ? -a.thicknessMm : d.body.thicknessMm;
 }
 
 /** Lower face of the brace plates: below the arms under the body, above them on top of it. mm. */
 export function braceZMm(d: Design): number {
   const armZ = armLayerZMm(d);
-  return d.assembly.armStacking === 'under-body' ? armZ - (d.braces?.thicknessMm ?? 0) : armZ + d.arms.thicknessMm;
+  const armT = d.arms.construction === 'separate' ? d.arms.thicknessMm : 0;
+  return d.assembly.armStacking === 'under-body' ? armZ - (d.braces?.thicknessMm ?? 0) : armZ + armT;
 }
 
 /** Where to point the designer when an outline cannot be built, by what went wrong. */
@@ -120,7 +122,8 @@ export function stackCentre(d: Design, i: number): Vec2 {
 }
 
 function bottomPlate(d: Design, sites: readonly MotorSite[]): Part {
-  const unibody = d.arms.construction === 'unibody';
+  const a = d.arms;
+  const unibody = a.construction === 'unibody';
   const body = roundedRect([0, 0], d.body.lengthMm, d.body.widthMm, d.body.cornerRadiusMm);
   const pieces: Loop[] = [body];
   const features: SourcedFeature[] = [...standoffHoles(d)];
@@ -129,20 +132,21 @@ function bottomPlate(d: Design, sites: readonly MotorSite[]): Part {
     s.patternsMm.forEach((side, k) => features.push(...squareHoles(d, stackCentre(d, i), side, d.stackBoltSizes[i][k], `stacks.${i}.patternsMm`, s.countersunk)));
   });
   for (const site of sites) {
-    if (unibody) {
-      const shape = armShape(d, site.motorAlongMm, false);
+    if (a.construction === 'unibody') {
+      const shape = armShape(d, site.motorAlongMm);
       const tf: Transform = { rotateRad: site.armDirRad, translate: site.armLineOriginMm, mirrorY: site.left };
       pieces.push(...shape.pieces.map((p) => transformLoop(p, tf)));
       features.push(...shape.features.map((f) => moveFeature(f, tf)));
       members.push(...shape.members.map((m) => ({ ...m, name: `${site.id} ${m.name}`, startMm: transformPoint(m.startMm, tf), endMm: transformPoint(m.endMm, tf) })));
     } else {
       // A pad under each arm root carries the root bolts.
-      const end = d.arms.root.reachMm + (d.arms.root.boltCount - 1) * d.arms.root.boltSpacingMm + d.arms.root.edgeMarginMm;
+      const r = a.root;
+      const end = r.reachMm + (r.boltCount - 1) * r.boltSpacingMm + r.edgeMarginMm;
       const centre = alongArm(site, end / 2);
       const w = armRootWidthMm(d);
       pieces.push(roundedRect(centre, end, w, Math.min(2, w / 2 - 0.01), site.armDirRad));
-      for (let i = 0; i < d.arms.root.boltCount; i++) {
-        features.push(screwHole(d, alongArm(site, d.arms.root.reachMm + i * d.arms.root.boltSpacingMm), d.arms.root.boltSize, 'arm-root-bolt', 'arms.root.reachMm'));
+      for (let i = 0; i < r.boltCount; i++) {
+        features.push(screwHole(d, alongArm(site, r.reachMm + i * r.boltSpacingMm), r.boltSize, 'arm-root-bolt', 'arms.root.reachMm'));
       }
     }
   }
@@ -175,8 +179,8 @@ function moveFeature(f: SourcedFeature, tf: Transform): SourcedFeature {
   };
 }
 
-function arms(d: Design, sites: readonly MotorSite[]): Part[] {
-  const start = d.arms.root.reachMm - d.arms.root.edgeMarginMm;
+function arms(d: Design, a: SeparateArms, sites: readonly MotorSite[]): Part[] {
+  const start = a.root.reachMm - a.root.edgeMarginMm;
   const groups = new Map<number, MotorSite[]>();
   for (const s of sites) {
     const key = Math.round((s.motorAlongMm - start) * 1e6) / 1e6;
@@ -186,9 +190,9 @@ function arms(d: Design, sites: readonly MotorSite[]): Part[] {
   return [...groups.entries()].map(([length, group]) => {
     const path = 'arms';
     if (length <= rootBlockLength(d)) {
-      throw new DesignError([{ path: 'arms.root.reachMm', value: d.arms.root.reachMm, message: `leaves a ${length.toFixed(1)} mm arm, shorter than its root block (${rootBlockLength(d).toFixed(1)} mm)` }]);
+      throw new DesignError([{ path: 'arms.root.reachMm', value: a.root.reachMm, message: `leaves a ${length.toFixed(1)} mm arm, shorter than its root block (${rootBlockLength(d).toFixed(1)} mm)` }]);
     }
-    const shape = armShape(d, length, true, path);
+    const shape = armShape(d, length, path);
     const blame: Blame = { fillet: ['arms.rootFilletMm', d.arms.rootFilletMm], disjoint: ['arms.truss', 'present'], hint: 'the struts do not meet' };
     const { outline, windows } = guarded(blame, 'the arm outline', () => filletedUnion(shape.pieces, d.arms.rootFilletMm));
     const placements: Placement[] = group.map((s) => ({
@@ -201,8 +205,8 @@ function arms(d: Design, sites: readonly MotorSite[]): Part[] {
       name: symmetric ? 'arm' : group[0].front ? 'arm-front' : 'arm-rear',
       role: 'arm' as PartRole,
       quantity: group.length,
-      thicknessMm: d.arms.thicknessMm,
-      ...material(d, d.arms),
+      thicknessMm: a.thicknessMm,
+      ...material(d, a),
       outline,
       features: [...shape.features, ...windows.map((w) => ({ loop: w, kind: 'cutout' as const, purpose: 'truss-window' as const, sourcePath: 'arms.truss' }))],
       members: shape.members,
@@ -243,9 +247,9 @@ function topPlate(d: Design): Part {
   });
 }
 
-function braces(d: Design, sites: readonly MotorSite[]): Part[] {
+function braces(d: Design, a: SeparateArms, sites: readonly MotorSite[]): Part[] {
   const b = d.braces!;
-  const r = d.arms.root;
+  const r = a.root;
   const holeR = clearanceHoleMm(r.boltSize, d.cutting.holeSeries) / 2;
   const make = (front: boolean): { part: Omit<Part, 'features'> & { features: SourcedFeature[] }; key: string } => {
     const pair = sites.filter((s) => s.front === front);
@@ -302,7 +306,7 @@ function cameraSide(d: Design): Part {
   const c = d.camera!;
   const frontStandoffX = Math.max(...d.body.standoffs.positionsMm.map((p) => p[0]));
   const pivot = cameraPivot(d);
-  const slotW = clearanceHoleMm(c.pivotBoltSize, d.cutting.holeSeries);
+  const slotW = c.tiltSlotWidthMm;
   const mountD = clearanceHoleMm(c.mountBoltSize, d.cutting.holeSeries);
   const zLow = d.body.thicknessMm + c.plateMarginMm + mountD / 2;
   const zHigh = d.body.thicknessMm + d.body.standoffs.heightMm - c.plateMarginMm - mountD / 2;

@@ -15,14 +15,17 @@ export function windingNumber(loop: Loop, p: Vec2): number {
   if (onSomeChord(loop, p)) return windingNumber(loop, [p[0] + 3e-8, p[1] + 7e-8]);
   let w = 0;
   const [px, py] = p;
-  for (const s of loop) {
+  for (let k = 0; k < loop.length; k++) {
+    const s = loop[k];
     if (s.kind === 'arc' && Math.abs(s.sweepRad) >= 2 * Math.PI - 1e-12) {
       // A full circle has no chord; its ends differ only by rounding.
       if (inCircularSegment(s, p)) w += Math.sign(s.sweepRad);
       continue;
     }
+    // The polygon's vertices are the segments' starts: an arc's computed end may differ from the next
+    // start in the last bit, and a ray through that vertex would then cross twice or not at all.
     const a = startOf(s);
-    const b = endOf(s);
+    const b = loop.length > 1 ? startOf(loop[(k + 1) % loop.length]) : endOf(s);
     if (a[1] <= py && b[1] > py) {
       if ((b[0] - a[0]) * (py - a[1]) - (px - a[0]) * (b[1] - a[1]) > 0) w++;
     } else if (b[1] <= py && a[1] > py) {

@@ -39,8 +39,13 @@ export function motorSites(d: Design): MotorSite[] {
     const y = (left ? 1 : -1) * reach * Math.sin(angle);
     const id = `${front ? 'front' : 'rear'}-${left ? 'left' : 'right'}` as SiteId;
     if (L.kind === 'h') {
-      // H: arms run fore and aft along the motor's y, starting at the body's cross axis.
-      return { id, front, left, motorMm: [x, y], armDirRad: front ? 0 : Math.PI, armLineOriginMm: [0, y], motorAlongMm: Math.abs(x) };
+      // H: each arm runs from its start on the body (mirrored in y for the right side) to its motor;
+      // a start level with the motor gives an arm parallel to the body axis.
+      const start = front ? L.frontArmStartMm : L.rearArmStartMm;
+      const origin: Vec2 = [start[0], left ? start[1] : -start[1]];
+      const dx = x - origin[0];
+      const dy = y - origin[1];
+      return { id, front, left, motorMm: [x, y], armDirRad: Math.atan2(dy, dx), armLineOriginMm: origin, motorAlongMm: Math.hypot(dx, dy) };
     }
     return { id, front, left, motorMm: [x, y], armDirRad: Math.atan2(y, x), armLineOriginMm: [0, 0], motorAlongMm: reach };
   };

@@ -7,7 +7,7 @@ import { ellipseCurve, fitArcs, fitPointCurve, nurbsCurve, type ParamCurve } fro
 import type { Block, DxfDocument, RawEntity } from './document.js';
 import { DxfReadError } from './errors.js';
 import { num, type Pair } from './groupCodes.js';
-import type { ImportLimits } from './limits.js';
+import { limitWords, type ImportLimits } from './limits.js';
 
 /** Where a segment came from, for findings: entity type, effective layer and the file line. */
 export type SourceRef = Readonly<{ entity: string; layer: string; line: number }>;
@@ -355,8 +355,8 @@ function push(ctx: Ctx, seg: Segment, source: SourceRef, approximated: boolean):
       throw new DxfReadError(`${source.entity} on layer ${source.layer} (line ${source.line}) has a coordinate of ${x} mm, beyond the reader's limit of ±${lim} mm`);
     }
   }
-  if (ctx.segments.length >= ctx.opts.limits.maxEntities * 4) {
-    throw new DxfReadError(`the drawing explodes into more than ${ctx.opts.limits.maxEntities * 4} segments, the reader's limit`);
+  if (ctx.segments.length >= ctx.opts.limits.maxSegments) {
+    throw new DxfReadError(`the drawing explodes into more than ${ctx.opts.limits.maxSegments} lines and arcs${limitWords(ctx.opts.limits)}`);
   }
   ctx.layersUsed.add(source.layer);
   ctx.segments.push({ seg, source, approximated });

@@ -11,7 +11,7 @@ import { cleanSegments } from './clean.js';
 import { headerValue, parseDocument, type DxfDocument, type RawEntity } from './document.js';
 import { DxfReadError } from './errors.js';
 import { explode, type LayerDecision } from './explode.js';
-import { DEFAULT_LIMITS, type ImportLimits } from './limits.js';
+import { DEFAULT_LIMITS, limitWords, type ImportLimits } from './limits.js';
 import { findMeetings } from './loops.js';
 import { nestLoops } from './nest.js';
 import { DEFAULT_IMPORT_MATERIAL } from './settings.js';
@@ -68,6 +68,7 @@ const MAX_PER_RULE = 50;
 export function importDxf(text: string, options: ImportOptions): ImportResult {
   const limits = options.limits ?? DEFAULT_LIMITS;
   const gapTolMm = options.gapTolMm ?? 0.01;
+  refuseByCount(text, limits);
   const doc = parseDocument(text, limits.maxPairs);
   const findings: Finding[] = [];
   const units = resolveUnits(doc, options.units, findings);
@@ -75,10 +76,14 @@ export function importDxf(text: string, options: ImportOptions): ImportResult {
   const k = MM_PER_UNIT[units.unit];
   const exploded = explode(doc, { toMm: scaling(k, k), layerDecision, curveTolMm: options.curveTolMm ?? 0.002, limits });
   findings.push(...exploded.findings);
+  // Every full circle is a contour of its own: a drawing beyond the contour limit is refused before
+  // the slower chaining and containment steps.
+  refuseContours(exploded.segments.reduce((n, d) => n + (d.seg.kind === 'arc' && Math.abs(d.seg.sweepRad) >= 2 * Math.PI - 1e-9 ? 1 : 0), 0), limits, true);
   const cleaned = cleanSegments(exploded.segments, { gapTolMm, tinySegmentMm: options.tinySegmentMm ?? 0.05 });
   findings.push(...cleaned.findings);
   const chained = chainLoops(cleaned.segments, gapTolMm);
   findings.push(...chained.findings);
+  refuseContours(chained.loops.length, limits);
   const meetings = findMeetings(chained.loops);
   findings.push(...meetings.findings);
   const nested = nestLoops(chained.loops.filter((_, i) => !meetings.selfIntersecting.has(i)));
@@ -104,6 +109,35 @@ export function importDxf(text: string, options: ImportOptions): ImportResult {
   findings.push(...farFromOrigin(parts, options.farFromOriginMm ?? 1000));
   findings.push(...unitDoubt(cleaned.segments.map((d) => segmentBBox(d.seg)), units));
   return { parts, findings: cap(attachParts(findings, parts)), units, cutLayers: [...exploded.layersUsed].sort() };
+}
+
+/** Entity types that each give at least one line or arc of cut geometry. */
+const DRAWN = /\n[ \t]*0\r?\n(LINE|ARC|CIRCLE|LWPOLYLINE|POLYLINE|SPLINE|ELLIPSE)\r?\n/g;
+
+/**
+ * Before parsing anything, count the drawn entities of the ENTITIES section in the text (a scan far
+ * cheaper than reading the file's group codes): more CIRCLEs than the contour limit, or more drawn
+ * entities than the line-and-arc limit, is refused at once. Blocks are not expanded here; entities on
+ * layers that are not cut (frozen, annotation) are counted too, which only matters for a drawing with
+ * tens of thousands of them.
+ */
+function refuseByCount(text: string, limits: ImportLimits): void {
+  const start = text.search(/\n[ \t]*2\r?\nENTITIES\r?\n/);
+  if (start < 0) return;
+  const end = text.indexOf('ENDSEC', start);
+  const section = text.slice(start, end < 0 ? text.length : end);
+  let drawn = 0;
+  let circles = 0;
+  for (const m of section.matchAll(DRAWN)) {
+    drawn++;
+    if (m[1] === 'CIRCLE') circles++;
+  }
+  refuseContours(circles, limits, true);
+  if (drawn > limits.maxSegments) throw new DxfReadError(`the drawing has ${drawn} drawn entities: more than ${limits.maxSegments} lines and arcs${limitWords(limits)}`);
+}
+
+function refuseContours(n: number, limits: ImportLimits, atLeast = false): void {
+  if (n > limits.maxContours) throw new DxfReadError(`the drawing has ${atLeast ? 'at least ' : ''}${n} closed contours (outlines and holes), more than ${limits.maxContours}${limitWords(limits)}`);
 }
 
 function fileFinding(rule: string, severity: Finding['severity'], message: string, measured: number | null, unit: string, limit: number | null = null): Finding {

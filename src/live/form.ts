@@ -147,11 +147,21 @@ function field(path: string, key: string, n: SchemaNode, value: unknown, require
 const asRecord = (v: unknown): Record<string, unknown> | undefined =>
   v !== null && typeof v === 'object' && !Array.isArray(v) ? (v as Record<string, unknown>) : undefined;
 
-/** The alternative of a `oneOf` by `kind` that the value names (the first when it names none). */
+/** The key every alternative of a `oneOf` fixes to a constant: `kind` (layouts, components) or `construction` (arms). */
+export function discriminatorOf(n: SchemaNode): string {
+  const alts = n.oneOf ?? [];
+  return Object.keys(alts[0]?.properties ?? {}).find((k) => alts.every((a) => a.properties?.[k]?.const !== undefined)) ?? 'kind';
+}
+
+/**
+ * The alternative of a `oneOf` that the value names by its discriminator; when it names none, the
+ * one whose discriminator is the default (arms are separate unless said), else the first.
+ */
 export function chooseKind(n: SchemaNode, value: unknown): SchemaNode {
   const alts = n.oneOf ?? [];
-  const kind = asRecord(value)?.kind;
-  return alts.find((a) => a.properties?.kind?.const === kind) ?? alts[0] ?? n;
+  const key = discriminatorOf(n);
+  const kind = asRecord(value)?.[key];
+  return alts.find((a) => a.properties?.[key]?.const === kind) ?? alts.find((a) => a.properties?.[key]?.default !== undefined) ?? alts[0] ?? n;
 }
 
 function section(path: string, title: string, n0: SchemaNode, value: unknown): FormSection {
@@ -160,13 +170,14 @@ function section(path: string, title: string, n0: SchemaNode, value: unknown): F
   const fields: FormField[] = [];
   const sections: FormSection[] = [];
   const at = (k: string | number): string => (path ? `${path}.${k}` : String(k));
-  if (n0.oneOf) {
-    const kinds = n0.oneOf.map((a) => String(a.properties?.kind?.const ?? ''));
-    const kindNode: SchemaNode = { type: 'string', enum: kinds, description: n0.oneOf.map((a) => `${String(a.properties?.kind?.const)}: ${a.properties?.kind?.description ?? ''}`).join('; ') };
-    fields.push(field(at('kind'), 'kind', kindNode, rec?.kind, true));
+  const key = n0.oneOf ? discriminatorOf(n0) : null;
+  if (n0.oneOf && key) {
+    const kinds = n0.oneOf.map((a) => String(a.properties?.[key]?.const ?? ''));
+    const kindNode: SchemaNode = { type: 'string', enum: kinds, description: n0.oneOf.map((a) => `${String(a.properties?.[key]?.const)}: ${a.properties?.[key]?.description ?? ''}`).join('; ') };
+    fields.push(field(at(key), key, kindNode, rec?.[key], !n0.oneOf.some((a) => a.properties?.[key]?.default !== undefined)));
   }
   for (const [k, child] of Object.entries(n.properties ?? {})) {
-    if (k === '$schema' || (n0.oneOf && k === 'kind')) continue;
+    if (k === '$schema' || k === key) continue;
     const v = rec?.[k];
     const required = (n.required ?? []).includes(k);
     const items = typeof child.items === 'object' ? child.items : null;

@@ -5,8 +5,10 @@ import type { Change } from '../variant/changes.js';
  * Changing `layout.kind` alone would leave the layout with the other kind's keys (x and h take a
  * wheelbase and an arm angle; asymmetric a front and a rear reach and angle), which no schema
  * accepts. The page's kind change therefore rewrites the layout's keys so the frame keeps its size:
- * x ↔ h keep wheelbase and angle (the same motor rectangle); x/h → asymmetric keep every motor
- * where it was; asymmetric → x/h keep the wheelbase (front-left to rear-right) and its direction.
+ * x ↔ h keep wheelbase and angle (the same motor rectangle); an h layout's arms start at the frame
+ * centre when it is made (the same arms as the x layout; move the starts along the body from there)
+ * and lose their starts when it is left; x/h → asymmetric keep every motor where it was;
+ * asymmetric → x/h keep the wheelbase (front-left to rear-right) and its direction.
  */
 
 const r1 = (x: number): number => Math.round(x * 10) / 10;
@@ -25,10 +27,12 @@ export function convertLayoutKind(changes: readonly Change[], raw: unknown): Cha
   if (from === to || typeof to !== 'string') return [...changes];
   const set = (key: string, v: unknown): Change => ({ path: ['layout', key], old: layout[key], new: v, why: `layout kind ${String(from)} → ${to}` });
   const out: Change[] = [];
+  const starts = (kind: unknown): Change[] =>
+    kind === 'h' ? [set('frontArmStartMm', layout.frontArmStartMm ?? [0, 0]), set('rearArmStartMm', layout.rearArmStartMm ?? [0, 0])] : from === 'h' ? [set('frontArmStartMm', undefined), set('rearArmStartMm', undefined)] : [];
   if (to === 'asymmetric' && (from === 'x' || from === 'h')) {
     const half = r1(num(layout.wheelbaseMm, 200) / 2);
     const angle = num(layout.armAngleDeg, 45);
-    out.push(set('kind', to), set('wheelbaseMm', undefined), set('armAngleDeg', undefined), set('front', { reachMm: half, angleDeg: angle }), set('rear', { reachMm: half, angleDeg: angle }));
+    out.push(set('kind', to), set('wheelbaseMm', undefined), set('armAngleDeg', undefined), set('front', { reachMm: half, angleDeg: angle }), set('rear', { reachMm: half, angleDeg: angle }), ...starts(to));
   } else if ((to === 'x' || to === 'h') && from === 'asymmetric') {
     const f = rec(layout.front);
     const r = rec(layout.rear);
@@ -39,9 +43,9 @@ export function convertLayoutKind(changes: readonly Change[], raw: unknown): Cha
     // Front-left minus rear-right: the diagonal the wheelbase is measured along.
     const dx = rf * Math.cos(af) + rr * Math.cos(ar);
     const dy = rf * Math.sin(af) + rr * Math.sin(ar);
-    out.push(set('kind', to), set('front', undefined), set('rear', undefined), set('wheelbaseMm', r1(Math.hypot(dx, dy))), set('armAngleDeg', r1(radToDeg(Math.atan2(dy, dx)))));
+    out.push(set('kind', to), set('front', undefined), set('rear', undefined), set('wheelbaseMm', r1(Math.hypot(dx, dy))), set('armAngleDeg', r1(radToDeg(Math.atan2(dy, dx)))), ...starts(to));
   } else {
-    out.push(set('kind', to));
+    out.push(set('kind', to), ...starts(to));
   }
   return [...changes.slice(0, i), ...out, ...changes.slice(i + 1)];
 }

@@ -138,12 +138,12 @@ export function liveRoutes(session: LiveSession, shop: ShopProfile): { routes: R
       const built = builtOr409(session, res);
       if (!built) return;
       const props = (url.searchParams.get('props') ?? '').trim();
-      const motor = url.searchParams.get('motor') === 'auto' ? 'auto' : undefined;
+      const motor = url.searchParams.get('motor') === 'auto' ? 'auto' : 'keep';
       if (props === '' || props.length > 20) return sendJson(res, 400, errorBody('give a prop size with a unit, e.g. 7in', 'props'));
-      const [{ makeVariant }, { pathText }] = await Promise.all([import('../variant/variant.js'), import('../variant/changes.js')]);
+      const [{ makeVariant }, { pathText }, { VariantRefusal }] = await Promise.all([import('../variant/variant.js'), import('../variant/changes.js'), import('../variant/errors.js')]);
       try {
-        const v = makeVariant(session.text, { props, ...(motor ? { motor } : {}) }, session.label);
-        const report = checkFrame(v.frame);
+        const v = makeVariant(session.text, { props, motor }, session.label);
+        const report = v.report;
         const preview: VariantPreview = {
           props,
           name: v.design.name,
@@ -159,6 +159,7 @@ export function liveRoutes(session: LiveSession, shop: ShopProfile): { routes: R
         sendJson(res, 200, preview);
       } catch (e) {
         if (e instanceof VariantRequestError) return sendJson(res, 422, errorBody(e.message, e.option));
+        if (e instanceof VariantRefusal) return sendJson(res, 422, errorBody(`no ${e.props} variant passes every check: ${e.constraint}. Nearest valid alternative: ${e.alternative}`, 'props'));
         if (e instanceof DesignError) return sendJson(res, 422, errorBody(e.message, e.issues[0]?.path ?? ''));
         throw e;
       }

@@ -32,6 +32,9 @@ const size3 = z
   .tuple([num(1, 400, 'mm', 'length (x)'), num(1, 400, 'mm', 'width (y)'), num(0.5, 200, 'mm', 'height (z)')])
   .describe('[length, width, height] in mm');
 const name = z.string().min(1).max(40).optional().describe('label for findings and drawings (default: the kind and its number)');
+// A silicone grommet of the usual size (3 mm tall, 6 mm across, Shore 40A) works out at roughly
+// 10–20 N/mm (E·A/h); the design states its own figure (common practice, no source).
+const softMount = num(0.1, 100000, 'N/mm', 'soft mounts: the stiffness of each grommet, the same along every axis; the boards then ride on springs at their screws, which lowers the board modes and isolates them above √2 × their own frequency (omit for a hard mount)').optional();
 const mass = (max: number) => num(0.1, max, 'g', 'mass');
 
 /** Where a box-shaped board sits: on a stack mount's stack, or on a plate face at a plan position. */
@@ -53,6 +56,7 @@ const stackComponent = z
     boardMm: z.tuple([num(5, 200, 'mm', 'board length (x)'), num(5, 200, 'mm', 'board width (y)')]).describe('board size [length, width] in mm'),
     heightMm: num(1, 100, 'mm', 'stack height from the bottom plate, soft mounts and connectors included'),
     massG: mass(500),
+    softMountNPerMm: softMount,
   })
   .strict();
 
@@ -64,6 +68,7 @@ const boxComponent = (kind: 'video-transmitter' | 'receiver', what: string) =>
       ...mounted,
       sizeMm: size3,
       massG: mass(300),
+      softMountNPerMm: softMount,
     })
     .strict();
 

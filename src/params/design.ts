@@ -1,6 +1,8 @@
 import type { Material, ScrewSize } from './types.js';
 import { DesignError, type DesignIssue } from './errors.js';
-import { DesignSchema, type DesignParsed } from './schema.js';
+import { DesignSchema, SEPARATE_ONLY_ARM_KEYS, type DesignParsed } from './schema.js';
+import { cuttableSlotWidthMm, edgeDistanceMm, motorBellMm, motorBoreMm, STRAP_SLOT_MIN_MM, tipPadMarginMm } from './derived.js';
+import { clearanceHoleMm } from './screws.js';
 import { issuesFromZod, parseYamlText } from './yamlInput.js';
 import { typicalMotorMassG } from './motorTable.js';
 import { parseLengthMm } from './units.js';
@@ -9,11 +11,23 @@ import { PARSE_ONCE } from './fields.js';
 /** Camera widths by size class, mm (common practice, no source). */
 export const CAMERA_WIDTH_MM = { nano: 14, micro: 19, mini: 21.5 } as const;
 
-/** A validated design with every unit resolved to mm and every reference resolved. */
+type ParsedArms = DesignParsed['arms'];
+type ParsedRoot = Extract<ParsedArms, { construction: 'separate' }>['root'];
+/** Separate arm plates, with their derived defaults filled in. */
+export type SeparateArms = Readonly<Omit<Extract<ParsedArms, { construction: 'separate' }>, 'root' | 'tipPadMarginMm'> & { root: Readonly<ParsedRoot & { edgeMarginMm: number }>; tipPadMarginMm: number }>;
+/** Arms cut in one piece with the bottom plate (its thickness, material and weave). */
+export type UnibodyArms = Readonly<Omit<Extract<ParsedArms, { construction: 'unibody' }>, 'tipPadMarginMm'> & { tipPadMarginMm: number }>;
+export type Arms = SeparateArms | UnibodyArms;
+type ParsedTop = DesignParsed['topPlate'];
+
+/** A validated design with every unit resolved to mm, every reference resolved and every derived default filled in. */
 export type Design = Readonly<
-  Omit<DesignParsed, 'props' | 'camera'> & {
+  Omit<DesignParsed, 'props' | 'camera' | 'arms' | 'motor' | 'topPlate'> & {
     props: DesignParsed['props'] & { diameterMm: number };
-    camera?: NonNullable<DesignParsed['camera']> & { cameraWidthMm: number };
+    arms: Arms;
+    motor: Readonly<DesignParsed['motor'] & { boreMm: number; bellDiameterMm: number }>;
+    topPlate: Readonly<Omit<ParsedTop, 'strapSlots'> & { strapSlots: Readonly<ParsedTop['strapSlots'] & { slotWidthMm: number }> }>;
+    camera?: NonNullable<DesignParsed['camera']> & { cameraWidthMm: number; tiltSlotWidthMm: number };
     materialFor: (name: string | undefined) => Material;
     /** motor.massG, or the typical mass for the motor's bell when the design gives none. g. */
     motorMassG: number;
@@ -31,9 +45,24 @@ export function validateDesign(raw: unknown): Design {
   if (raw === null || typeof raw !== 'object' || Array.isArray(raw)) {
     throw new DesignError([{ path: '', value: raw, message: 'must be a mapping of design sections (name, layout, props, motor, arms, body...)' }]);
   }
+  const misplaced = constructionIssues(raw as Record<string, unknown>);
   const parsed = DesignSchema.safeParse(raw, PARSE_ONCE);
-  if (!parsed.success) throw new DesignError(issuesFromZod(parsed.error.issues, raw));
+  if (!parsed.success) {
+    // Keys refused for the construction get their own message instead of "unknown key".
+    const zodIssues = issuesFromZod(parsed.error.issues, raw).filter((i) => !(i.path === 'arms' && misplaced.length && Array.isArray(i.value) && i.value.every((k) => String(k) in SEPARATE_ONLY_ARM_KEYS)));
+    throw new DesignError([...misplaced, ...zodIssues]);
+  }
+  if (misplaced.length) throw new DesignError(misplaced);
   return resolve(parsed.data);
+}
+
+/** Separate-arm keys given for unibody arms: refused with the reason, not ignored. */
+function constructionIssues(raw: Record<string, unknown>): DesignIssue[] {
+  const arms = raw.arms;
+  if (arms === null || typeof arms !== 'object' || (arms as Record<string, unknown>).construction !== 'unibody') return [];
+  return Object.entries(SEPARATE_ONLY_ARM_KEYS)
+    .filter(([k]) => k in (arms as Record<string, unknown>))
+    .map(([k, why]) => ({ path: `arms.${k}`, value: (arms as Record<string, unknown>)[k], message: `does not apply to unibody arms (${why}); remove it` }));
 }
 
 function resolve(d: DesignParsed): Design {
@@ -45,7 +74,7 @@ function resolve(d: DesignParsed): Design {
   const materialNames = Object.keys(d.materials);
   if (materialNames.length === 0) issues.push({ path: 'materials', value: d.materials, message: 'must name at least one material' });
   const sections: Array<[string, { material?: string } | undefined]> = [
-    ['arms', d.arms],
+    ['arms', d.arms.construction === 'separate' ? d.arms : undefined],
     ['body', d.body],
     ['topPlate', d.topPlate],
     ['braces', d.braces],
@@ -74,6 +103,14 @@ function resolve(d: DesignParsed): Design {
   if (d.braces && d.arms.construction === 'unibody') {
     issues.push({ path: 'braces', value: 'present', message: 'apply to separate arms only; remove it for a unibody frame' });
   }
+  if (d.layout.kind === 'h') {
+    for (const key of ['frontArmStartMm', 'rearArmStartMm'] as const) {
+      const p = d.layout[key];
+      if (Math.abs(p[0]) > d.body.lengthMm / 2 || Math.abs(p[1]) > d.body.widthMm / 2) {
+        issues.push({ path: `layout.${key}`, value: p, message: `must lie on the body (|x| ≤ ${d.body.lengthMm / 2} mm, |y| ≤ ${d.body.widthMm / 2} mm: half of body.lengthMm and body.widthMm)` });
+      }
+    }
+  }
   if (d.camera && d.camera.uptiltMinDeg >= d.camera.uptiltMaxDeg) {
     issues.push({ path: 'camera.uptiltMaxDeg', value: d.camera.uptiltMaxDeg, message: `must be above camera.uptiltMinDeg (${d.camera.uptiltMinDeg})` });
   }
@@ -91,11 +128,29 @@ function resolve(d: DesignParsed): Design {
     const key = name ?? materialNames[0];
     return { name: key, ...d.materials[key] };
   };
+  const series = d.cutting.holeSeries;
+  const tool = d.cutting.toolDiameterMm;
+  const armPlateMm = d.arms.construction === 'separate' ? d.arms.thicknessMm : d.body.thicknessMm;
+  const motor = {
+    ...d.motor,
+    boreMm: d.motor.boreMm ?? motorBoreMm(d.motor.boltCircleMm, d.motor.boltSize, series, d.checks, armPlateMm),
+    bellDiameterMm: d.motor.bellDiameterMm ?? motorBellMm(d.motor.boltCircleMm, d.motor.boltSize),
+  };
+  const tipPad = d.arms.tipPadMarginMm ?? tipPadMarginMm(d.motor.boltSize, series, d.checks);
+  const arms: Arms =
+    d.arms.construction === 'separate'
+      ? { ...d.arms, tipPadMarginMm: tipPad, root: { ...d.arms.root, edgeMarginMm: d.arms.root.edgeMarginMm ?? edgeDistanceMm(d.arms.root.boltSize, series, d.checks) } }
+      : { ...d.arms, tipPadMarginMm: tipPad };
+  const topPlate = { ...d.topPlate, strapSlots: { ...d.topPlate.strapSlots, slotWidthMm: d.topPlate.strapSlots.slotWidthMm ?? cuttableSlotWidthMm(STRAP_SLOT_MIN_MM, tool) } };
   const camera = d.camera
-    ? { ...d.camera, cameraWidthMm: typeof d.camera.widthMm === 'number' ? d.camera.widthMm : CAMERA_WIDTH_MM[d.camera.widthMm] }
+    ? {
+        ...d.camera,
+        cameraWidthMm: typeof d.camera.widthMm === 'number' ? d.camera.widthMm : CAMERA_WIDTH_MM[d.camera.widthMm],
+        tiltSlotWidthMm: d.camera.tiltSlotWidthMm ?? cuttableSlotWidthMm(clearanceHoleMm(d.camera.pivotBoltSize, series), tool),
+      }
     : undefined;
-  const motorMassG = d.motor.massG ?? typicalMotorMassG(d.motor.bellDiameterMm);
-  return { ...d, props: { ...d.props, diameterMm: diameterMm as number }, camera, materialFor, stackBoltSizes, motorMassG };
+  const motorMassG = d.motor.massG ?? typicalMotorMassG(motor.bellDiameterMm);
+  return { ...d, props: { ...d.props, diameterMm: diameterMm as number }, arms, motor, topPlate, camera, materialFor, stackBoltSizes, motorMassG };
 }
 
 /** Largest bulk density of a flight battery pack, g/cm³ (lithium-polymer packs are ≈ 1.8–2.4; common practice, no source). */
@@ -108,6 +163,10 @@ function assemblyIssues(d: DesignParsed): DesignIssue[] {
   if (d.motor.heightMm !== undefined && d.motor.heightMm > propBandLowMm) {
     issues.push({ path: 'motor.heightMm', value: d.motor.heightMm, message: `reaches into the prop band, which starts ${propBandLowMm} mm above the arm (props.heightAboveArmMm − props.bandMm / 2); raise props.heightAboveArmMm or lower the motor height` });
   }
+  if ((d.motor.kv === undefined) !== (d.motor.supplyVoltageV === undefined)) {
+    const [given, missing] = d.motor.kv === undefined ? ['motor.supplyVoltageV', 'motor.kv'] : ['motor.kv', 'motor.supplyVoltageV'];
+    issues.push({ path: missing, value: undefined, message: `is required with ${given}: the top rotation speed is kv × voltage (or give neither, and props.maxTipSpeedMps or its default sets it)` });
+  }
   if (d.motor.heightMm === undefined && propBandLowMm < 3) {
     issues.push({ path: 'props.heightAboveArmMm', value: d.props.heightAboveArmMm, message: `leaves ${propBandLowMm} mm under the prop band for the motor (at least 3 mm); raise it or give motor.heightMm` });
   }
@@ -119,6 +178,9 @@ function assemblyIssues(d: DesignParsed): DesignIssue[] {
     }
     if (c.kind === 'stack' && c.patternMm !== undefined && stackIndex !== null && stackIndex < d.stacks.length && !d.stacks[stackIndex].patternsMm.some((p) => Math.abs(p - c.patternMm!) < 1e-9)) {
       issues.push({ path: `${at}.patternMm`, value: c.patternMm, message: `is not a pattern of stack mount ${stackIndex} (${d.stacks[stackIndex].patternsMm.join(', ')} mm)` });
+    }
+    if ((c.kind === 'video-transmitter' || c.kind === 'receiver') && c.on !== 'stack' && c.softMountNPerMm !== undefined) {
+      issues.push({ path: `${at}.softMountNPerMm`, value: c.softMountNPerMm, message: `needs screws to ride on: soft mounts are for boards on a stack (on: stack), this one is on ${c.on}` });
     }
     if ((c.kind === 'video-transmitter' || c.kind === 'receiver') && c.on !== 'stack' && c.atMm === undefined) {
       issues.push({ path: `${at}.atMm`, value: undefined, message: `is required when on is ${c.on} (the centre in plan, mm)` });

@@ -47,6 +47,13 @@ function typeOf(n: Node): string {
   return Array.isArray(n.type) ? n.type.join(' / ') : (n.type ?? 'value');
 }
 
+/** The property every alternative of a union fixes to a constant (`kind`, `construction`), if any. */
+function discriminator(alts: readonly Node[]): string | null {
+  if (alts.length < 2) return null;
+  const keys = Object.keys(alts[0].properties ?? {}).filter((k) => alts.every((a) => a.properties?.[k]?.const !== undefined));
+  return keys[0] ?? null;
+}
+
 function walk(n: Node, path: string, required: boolean, rows: Row[]): void {
   if (path && path !== '$schema') {
     const isObject = n.type === 'object' && n.properties;
@@ -61,23 +68,25 @@ function walk(n: Node, path: string, required: boolean, rows: Row[]): void {
   if (n.properties) {
     for (const [k, v] of Object.entries(n.properties)) walk(v, path ? `${path}.${k}` : k, (n.required ?? []).includes(k), rows);
   }
-  const alts = (n.oneOf ?? []).filter((a) => a.properties?.kind?.const !== undefined);
-  if (alts.length) {
-    const kinds = alts.map((a) => String(a.properties!.kind.const));
+  const disc = discriminator(n.oneOf ?? []);
+  const alts = disc ? n.oneOf! : [];
+  if (disc) {
+    const kinds = alts.map((a) => String(a.properties![disc].const));
+    const def = alts.map((a) => a.properties![disc].default).find((x) => x !== undefined);
     rows.push({
-      path: `${path}.kind`,
+      path: `${path}.${disc}`,
       type: kinds.map((k) => `\`${k}\``).join(' / '),
-      def: '',
-      required: true,
-      text: alts.map((a) => `${String(a.properties!.kind.const)}: ${a.properties!.kind.description ?? ''}`).join('; '),
+      def: def === undefined ? '' : `\`${JSON.stringify(def)}\``,
+      required: alts.every((a) => (a.required ?? []).includes(disc)),
+      text: alts.map((a) => `${String(a.properties![disc].const)}: ${a.properties![disc].description ?? ''}`).join('; '),
     });
     // Fields shared by several kinds (same meaning, type and default) are listed once, tagged with
     // the kinds that take them; a field whose meaning differs by kind gets a row per meaning.
     const byPath = new Map<string, { row: Row; kinds: string[] }>();
     for (const alt of alts) {
-      const kind = String(alt.properties!.kind.const);
+      const kind = String(alt.properties![disc].const);
       const sub: Row[] = [];
-      for (const [k, v] of Object.entries(alt.properties!)) if (k !== 'kind') walk(v, `${path}.${k}`, (alt.required ?? []).includes(k), sub);
+      for (const [k, v] of Object.entries(alt.properties!)) if (k !== disc) walk(v, `${path}.${k}`, (alt.required ?? []).includes(k), sub);
       for (const r of sub) {
         const key = [r.path, r.type, r.def, r.required, r.text].join('\u0000');
         const seen = byPath.get(key);
@@ -85,7 +94,8 @@ function walk(n: Node, path: string, required: boolean, rows: Row[]): void {
         else byPath.set(key, { row: r, kinds: [kind] });
       }
     }
-    for (const { row, kinds: ks } of byPath.values()) rows.push({ ...row, text: `(${ks.join(', ')}) ${row.text}` });
+    // A field every kind takes carries no tag.
+    for (const { row, kinds: ks } of byPath.values()) rows.push(ks.length === alts.length ? row : { ...row, text: `(${ks.join(', ')}) ${row.text}` });
   }
   if (n.type === 'array' && n.items && !Array.isArray(n.items) && (n.items.properties || n.items.oneOf)) walk(n.items, `${path}[]`, false, rows);
   if (n.type === 'object' && n.additionalProperties && typeof n.additionalProperties === 'object' && n.additionalProperties.properties) {

@@ -44,9 +44,11 @@ const squareFrame = z
 
 const hFrame = z
   .object({
-    kind: z.literal('h').describe('motors on a rectangle, arms running fore and aft from the body sides'),
+    kind: z.literal('h').describe('motors on a rectangle; each arm runs from its start on a long body to its motor (fore and aft when the start is level with the motor), so the body width is free of the motor spacing'),
     wheelbaseMm: num(60, 1000, 'mm', 'diagonal motor-to-motor distance'),
     armAngleDeg: num(20, 70, 'deg', "angle of the front motors' diagonal from the forward axis: 45 square, below 45 stretched (longer front to rear), above squashed").default(45),
+    frontArmStartMm: point.describe('[x, y] where the left front arm starts, on the body (the right one mirrors it in y); its root bolts are measured from here'),
+    rearArmStartMm: point.describe('[x, y] where the left rear arm starts, on the body (the right one mirrors it in y)'),
   })
   .strict();
 
@@ -80,6 +82,67 @@ const propDiameter = z
   )
   .describe('prop diameter: mm as a number, or a string with a unit ("5.1in", "130mm")');
 
+/** Fields every arm construction takes: the arm's shape and the motor pad. */
+const armShapeFields = {
+  style: z.enum(['straight', 'tapered', 'truss']).default('straight').describe('straight bar, tapered bar (widthMm to tipWidthMm), or truss (main and secondary strut with windows)'),
+  widthMm: num(4, 60, 'mm', 'arm width (at the root for tapered arms); straight and tapered arms only').optional(),
+  tipWidthMm: num(4, 60, 'mm', 'arm width at the motor for tapered arms').optional(),
+  truss: z
+    .object({
+      mainWidthMm: num(3, 40, 'mm', 'main strut width'),
+      secondaryWidthMm: num(3, 40, 'mm', 'secondary strut width'),
+      meetFraction: num(0.2, 0.9, '', 'where the secondary strut meets the main strut, as a fraction of the arm length'),
+      spreadMm: num(4, 80, 'mm', 'width of the arm at the root, spanning both struts'),
+    })
+    .strict()
+    .optional()
+    .describe('truss arms: a main strut to the motor and a secondary strut meeting it part-way'),
+  tipPadMarginMm: num(1, 20, 'mm', 'material outside the motor bolt holes; default: what gives the hole-edge rule\'s warning e/D (checks.hole-edge-distance.warnEdgeRatio) round the motor holes, rounded up to 0.5 mm').optional(),
+  tipGuardMm: num(0, 15, 'mm', 'extra plate beyond the motor bell radius to guard it; 0 for none').default(0),
+  rootFilletMm: num(0, 20, 'mm', 'fillet radius where arms meet the body or each other').default(4),
+};
+
+const separateArms = z
+  .object({
+    construction: z.literal('separate').default('separate').describe('separate arm plates clamped between the bottom plate and the braces'),
+    ...armShapeFields,
+    thicknessMm: num(0.5, 8, 'mm', 'arm plate thickness'),
+    ...partCommon,
+    root: z
+      .object({
+        boltCount: int(1, 4, 'root bolts per arm, along the arm'),
+        boltSpacingMm: num(4, 60, 'mm', 'distance between root bolts'),
+        boltSize: screw.default('M3'),
+        reachMm: num(5, 300, 'mm', 'arm line start (the frame centre; for h layouts the arm start on the body) to the innermost root bolt'),
+        edgeMarginMm: num(1, 20, 'mm', "material from a root bolt centre to the arm end; default: the hole-edge rule's warning e/D × the bolt's clearance hole, rounded up to 0.5 mm").optional(),
+      })
+      .strict(),
+  })
+  .strict();
+
+const unibodyArms = z
+  .object({
+    construction: z.literal('unibody').describe('arms cut in one piece with the bottom plate (its thickness, material and weave)'),
+    ...armShapeFields,
+  })
+  .strict();
+
+/**
+ * Arms, discriminated by construction: separate arm plates have their own thickness, material and
+ * root bolts; unibody arms are part of the bottom plate and take none of these.
+ */
+export const ArmsSchema = z.discriminatedUnion('construction', [separateArms, unibodyArms], {
+  error: 'arms.construction must be separate or unibody',
+});
+
+/** Keys only separate arms take, with why a unibody frame has no use for them. */
+export const SEPARATE_ONLY_ARM_KEYS: Readonly<Record<string, string>> = {
+  thicknessMm: 'unibody arms are cut from the bottom plate: set body.thicknessMm',
+  root: 'unibody arms have no root bolts: they are one piece with the bottom plate',
+  material: 'unibody arms are cut from the bottom plate: set body.material',
+  weaveDeg: 'unibody arms are cut from the bottom plate: set body.weaveDeg',
+};
+
 export const DesignSchema = z
   .object({
     $schema: z.string().optional(),
@@ -94,6 +157,8 @@ export const DesignSchema = z
         // common practice, no source: a prop's hub and pitched blades sweep a band a few mm thick.
         bandMm: num(1, 40, 'mm', 'thickness of the band the blades sweep, centred on the prop plane').default(6),
         spin: z.enum(['props-in', 'props-out'], { error: 'must be props-in or props-out' }).optional().describe('direction of rotation: props-in (front props turn towards the centre line at the front) or props-out'),
+        // common practice, no source: 240 m/s puts a 5-inch prop near 590 Hz and a 7-inch near 430 Hz at full throttle.
+        maxTipSpeedMps: num(50, 340, 'm/s', 'blade tip speed at full throttle, for the motors’ rotation band when the motor gives no kv and voltage (default 240)').optional(),
       })
       .strict(),
     motor: z
@@ -106,46 +171,17 @@ export const DesignSchema = z
         boltSize: screw.default('M3'),
         boltCount: z.union([z.literal(3), z.literal(4)], { error: 'must be 3 or 4' }).default(4).describe('motor bolts used: 4, or 3 (the root-side hole left out)'),
         slotted: z.boolean().default(false).describe('slots spanning both circles instead of round holes (needs two circles)'),
-        boreMm: num(0, 30, 'mm', 'centre bore for the shaft clip; 0 for none').default(7),
-        bellDiameterMm: num(8, 80, 'mm', 'motor bell diameter, for the tip pad and guard').default(28),
+        boreMm: num(0, 30, 'mm', "centre bore for the shaft clip; 0 for none; default: the motor table's bore for this bolt pattern, kept clear of the bolt holes by the web rule's warning web").optional(),
+        bellDiameterMm: num(8, 80, 'mm', "motor bell diameter, for the tip pad and guard; default: the motor table's bell for this bolt pattern").optional(),
         massG: num(1, 1000, 'g', 'mass of one motor, for stiffness and resonance; default: the typical mass of the motor class whose bell is nearest').optional(),
-        heightMm: num(3, 80, 'mm', 'motor height from its base to the top of the bell (default: up to the prop band)').optional(),
+        heightMm: num(3, 80, 'mm', 'motor height from its base to the top of the bell (default: 0.6 × the bell diameter, at most up to the prop band)').optional(),
+        kv: num(50, 20000, 'rpm/V', 'motor speed constant; with supplyVoltageV it sets the top of the motors’ rotation band (kv × V × 0.8 under load / 60)').optional(),
+        supplyVoltageV: num(1, 100, 'V', 'battery voltage under load, e.g. 22.2 for a 6S pack (needs kv)').optional(),
         // domain.md: 3–5 mm of thread in the motor base (common practice).
         threadDepthMm: num(1, 15, 'mm', 'depth of the threaded holes in the motor base; a longer screw reaches the windings').default(3.5),
       })
       .strict(),
-    arms: z
-      .object({
-        construction: z.enum(['separate', 'unibody']).default('separate').describe('separate arm plates, or one piece with the bottom plate'),
-        style: z.enum(['straight', 'tapered', 'truss']).default('straight').describe('straight bar, tapered bar (widthMm to tipWidthMm), or truss (main and secondary strut with windows)'),
-        widthMm: num(4, 60, 'mm', 'arm width (at the root for tapered arms); straight and tapered arms only').optional(),
-        tipWidthMm: num(4, 60, 'mm', 'arm width at the motor for tapered arms').optional(),
-        truss: z
-          .object({
-            mainWidthMm: num(3, 40, 'mm', 'main strut width'),
-            secondaryWidthMm: num(3, 40, 'mm', 'secondary strut width'),
-            meetFraction: num(0.2, 0.9, '', 'where the secondary strut meets the main strut, as a fraction of the arm length'),
-            spreadMm: num(4, 80, 'mm', 'width of the arm at the root, spanning both struts'),
-          })
-          .strict()
-          .optional()
-          .describe('truss arms: a main strut to the motor and a secondary strut meeting it part-way'),
-        thicknessMm: num(0.5, 8, 'mm', 'arm plate thickness'),
-        ...partCommon,
-        root: z
-          .object({
-            boltCount: int(1, 4, 'root bolts per arm, along the arm'),
-            boltSpacingMm: num(4, 60, 'mm', 'distance between root bolts'),
-            boltSize: screw.default('M3'),
-            reachMm: num(5, 300, 'mm', 'frame centre to the innermost root bolt'),
-            edgeMarginMm: num(1, 20, 'mm', 'material from a root bolt centre to the arm end').default(5),
-          })
-          .strict(),
-        tipPadMarginMm: num(1, 20, 'mm', 'material outside the motor bolt holes').default(3),
-        tipGuardMm: num(0, 15, 'mm', 'extra plate beyond the motor bell radius to guard it; 0 for none').default(0),
-        rootFilletMm: num(0, 20, 'mm', 'fillet radius where arms meet the body or each other').default(4),
-      })
-      .strict(),
+    arms: ArmsSchema,
     body: z
       .object({
         lengthMm: num(20, 400, 'mm', 'bottom plate length (x)'),
@@ -195,11 +231,11 @@ export const DesignSchema = z
         strapSlots: z
           .object({
             strapWidthMm: num(5, 40, 'mm', 'battery strap width (slot is 1 mm longer)').default(20),
-            slotWidthMm: num(1.5, 8, 'mm', 'slot width across the strap').default(3.5),
+            slotWidthMm: num(1.5, 8, 'mm', 'slot width across the strap; default: 3 mm, or the router bit plus 0.2 mm when that is wider (rounded up to 0.1 mm)').optional(),
             xPositionsMm: z.array(num(-200, 200, 'mm', 'slot centre x')).max(6).default([]).describe('x of each strap slot centre; one slot per entry'),
           })
           .strict()
-          .default({ strapWidthMm: 20, slotWidthMm: 3.5, xPositionsMm: [] }),
+          .default({ strapWidthMm: 20, xPositionsMm: [] }),
         leadOpening: z
           .object({
             xMm: num(-200, 200, 'mm', 'centre x'),
@@ -230,7 +266,7 @@ export const DesignSchema = z
           .describe('rounded-rectangle lightening cut-outs'),
       })
       .strict()
-      .default({ thicknessMm: 2, cornerRadiusMm: 5, weaveDeg: 0, strapSlots: { strapWidthMm: 20, slotWidthMm: 3.5, xPositionsMm: [] }, accessoryHoles: [], lightening: [] }),
+      .default({ thicknessMm: 2, cornerRadiusMm: 5, weaveDeg: 0, strapSlots: { strapWidthMm: 20, xPositionsMm: [] }, accessoryHoles: [], lightening: [] }),
     braces: z
       .object({
         thicknessMm: num(0.5, 6, 'mm', 'brace plate thickness').default(1.5),
@@ -252,6 +288,7 @@ export const DesignSchema = z
         pivotHeightMm: num(3, 80, 'mm', 'camera pivot above the bottom plate'),
         pivotBoltSize: screw.default('M2'),
         tiltSlotRadiusMm: num(3, 30, 'mm', 'radius of the uptilt arc slot about the pivot').default(8),
+        tiltSlotWidthMm: num(1.5, 8, 'mm', "width of the uptilt arc slot; default: the pivot bolt's clearance hole, or the router bit plus 0.2 mm when that is wider (rounded up to 0.1 mm)").optional(),
         uptiltMinDeg: num(-10, 80, 'deg', 'least uptilt the slot allows').default(0),
         uptiltMaxDeg: num(0, 90, 'deg', 'most uptilt the slot allows').default(50),
         uptiltDeg: num(-10, 90, 'deg', 'uptilt set for the checks').default(25),

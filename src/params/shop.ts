@@ -42,6 +42,12 @@ export const ShopSchema = z
     partGapExtraMm: num(0, 50, 'mm', 'part spacing on the sheet beyond one tool diameter'),
     sheetMarginMm: num(0, 100, 'mm', 'clear border at every sheet edge'),
     marginFraction: num(0, 5, '', 'profit margin added to the cost (0.25 = 25 %)'),
+    nestTurnsDeg: z
+      .array(z.union([z.literal(0), z.literal(90), z.literal(180), z.literal(270)], { error: 'must be 0, 90, 180 or 270' }))
+      .min(1)
+      .max(4)
+      .optional()
+      .describe('turns from the weave-aligned position the nesting may give a part, degrees (default 0, 90, 180, 270; parts with an unbalanced weave never get 90 or 270)'),
     feeds: z.array(FeedBand).min(1).describe('feed and depth per pass by plate thickness; the thinnest band that covers a plate applies'),
     stock: z.array(Stock).min(1).describe('sheets the shop stocks, one entry per thickness'),
   })

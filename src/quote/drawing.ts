@@ -150,10 +150,10 @@ export function drawingSet(parts: readonly Part[], quote: Quote, options: Drawin
       },
       {
         title: 'Sheets',
-        header: ['thickness mm', 'sheet mm', 'sheets', 'area bound', 'utilisation', `price each ${cur}`, `material ${cur}`],
+        header: ['thickness mm', 'sheet mm', 'sheets', 'fewest possible', 'utilisation', `price each ${cur}`, `material ${cur}`],
         rows: quote.sheetCosts.map((s) => {
           const g = quote.nesting.groups.find((x) => x.thicknessMm === s.thicknessMm && x.material === s.material)!;
-          return [mm(s.thicknessMm, 2), `${mm(s.widthMm, 0)} x ${mm(s.heightMm, 0)}`, String(s.sheets), mm(g.areaBoundSheets, 2), `${mm(g.utilisation * 100, 1)} %`, money(s.pricePerSheet), money(s.cost)];
+          return [mm(s.thicknessMm, 2), `${mm(s.widthMm, 0)} x ${mm(s.heightMm, 0)}`, String(s.sheets), String(g.lowerBoundSheets), `${mm(g.utilisation * 100, 1)} %`, money(s.pricePerSheet), money(s.cost)];
         }),
       },
       {

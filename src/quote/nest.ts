@@ -1,9 +1,8 @@
-import { EndType, JoinType, inflatePathsD, type PathsD } from 'clipper2-ts';
-import { flattenLoop, partArea, transformPoint, type Part, type Transform } from '../geometry/index.js';
+import { FillRule, difference, rectClip, type Paths64 } from 'clipper2-ts';
+import { partArea, type Part, type Transform } from '../geometry/index.js';
 import { DesignError } from '../params/errors.js';
-
-/** Chord tolerance for the nesting raster's polygons; added to the dilation so it stays conservative. mm. */
-const NEST_CHORD_MM = 0.02;
+import { verifySheet } from './nestCheck.js';
+import { NEST_SCALE, dilatedShape, noFitPolygon, occupiedAreaMm2, quarterTurn, ringArea2, ringBox, sameShape, turnPoint, type IBox, type NestShape } from './nestShapes.js';
 
 export type SheetSize = Readonly<{ widthMm: number; heightMm: number }>;
 
@@ -13,11 +12,17 @@ export type NestOptions = Readonly<{
   spacingMm: number;
   /** Clear border at each sheet edge. mm. */
   marginMm: number;
-  /** Raster cell; smaller packs tighter and runs slower. mm. Default 0.5. */
-  cellMm?: number;
-  /** Retry groups that use more sheets than the area bound on a raster of half the cell (default true). */
-  refine?: boolean;
-  /** Called after each placed part, for a progress bar. */
+  /**
+   * Turns from the weave-aligned position the shop allows, degrees, each 0, 90, 180 or 270 (default
+   * all four). A part whose weave is not balanced (E1 ≠ E2) is never given a quarter turn: that would
+   * swap its stiff and soft directions.
+   */
+  turnsDeg?: readonly number[];
+  /** Stop trying further placement rules after this many milliseconds (needs `now`); every part is placed either way. */
+  timeLimitMs?: number;
+  /** Clock for the time limit, ms (the CLI passes one; the nesting itself reads no clock). */
+  now?: () => number;
+  /** Called as sheets are filled, for a progress bar: parts placed so far (estimated within a sheet) and all parts. */
   onProgress?: (placed: number, total: number) => void;
 }>;
 
@@ -50,11 +55,17 @@ export type NestGroup = Readonly<{
   material: string;
   sheets: number;
   partAreaMm2: number;
-  /** Sum of part areas / sheet area: no packing can use fewer sheets than its ceiling. */
-  areaBoundSheets: number;
+  /**
+   * Sheets the parts' occupied areas fill (each part grown by half the spacing, inner contours shrunk by
+   * it, over the usable area grown by half the spacing): no layout can use fewer than its ceiling.
+   */
+  boundSheets: number;
+  /** ceil(boundSheets): a true lower bound on the sheets, spacing and margins included. */
+  lowerBoundSheets: number;
   utilisation: number;
-  /** Raster cell and placement rule of the layout kept. */
-  cellMm: number;
+  /** Smallest distance between two placed parts, measured on the exact lines and arcs. mm; null with no neighbours. */
+  minGapMm: number | null;
+  /** Placement rule of the first sheet's layout. */
   rule: string;
 }>;
 
@@ -63,263 +74,442 @@ export type NestResult = Readonly<{
   groups: readonly NestGroup[];
   spacingMm: number;
   marginMm: number;
-  cellMm: number;
+  /** True when the time limit cut the search short (the layout is complete but may differ between runs). */
+  timedOut: boolean;
 }>;
-
-/** One rotation of a part rasterised: per row, inclusive cell intervals, plus its placement offset. */
-type Raster = Readonly<{
-  rotRad: number;
-  w: number;
-  h: number;
-  rows: readonly Int32Array[];
-  /** Dilated shape's lower-left corner in rotated part coordinates. mm. */
-  originMm: readonly [number, number];
-  areaCells: number;
-}>;
-
-type SheetState = {
-  thicknessMm: number;
-  material: string;
-  /** prevOcc[y][x]: largest occupied x ≤ x in row y, or −1. */
-  prevOcc: Int32Array[];
-  placements: Placement[];
-  partAreaMm2: number;
-  /** Where the last copy of a raster was put: later copies can only land at or after it. */
-  resume: Map<string, number>;
-  full: Set<number>;
-};
 
 /**
- * Nest copies of parts onto sheets: true-shape bottom-left fill on a raster of each part's outline
- * dilated by half the spacing (a cell is occupied when the dilated part touches it, so two parts on
- * disjoint cells are at least the spacing apart). Rotations keep the 0/90 weave on the sheet axes:
- * a part turns by −weaveRad + k·90°. Parts of different thickness or material go on different sheets.
- * Largest parts go first; each copy takes the first sheet (of its group) and the lowest, then
- * leftmost, position where it fits. Inner cut-outs are not filled with other parts.
- * @throws DesignError naming `sheet` when a part does not fit on an empty sheet in any allowed rotation.
+ * Nest copies of parts onto sheets by their true shapes. Each part is grown by half the spacing (exact
+ * offset of its lines and arcs, then a polygon that contains it, within 0.01 mm), so two parts are at
+ * least the spacing apart exactly when their grown shapes do not overlap. Sheets are filled one at a
+ * time: a part goes to the best corner of the region where it fits, which is the usable area minus the
+ * no-fit polygons of the parts already there (computed from convex pieces, holes in them being windows
+ * of large parts where small ones fit). Several placement rules fill each sheet and the fullest
+ * sheet is kept; a sheet whose situation repeats (many identical frames) is copied, not recomputed.
+ * Rotations keep the weave on the sheet axes; parts of different thickness or material never share a
+ * sheet. Every sheet is then checked on the exact geometry (spacing, margins, no overlap).
+ * @throws DesignError naming `sheet` when the sheet has no usable area or a part does not fit an
+ * empty sheet in any allowed rotation, or `turnsDeg` when no allowed turn keeps a part's weave.
  */
 export function nestParts(items: readonly NestItem[], options: NestOptions): NestResult {
-  const cell = options.cellMm ?? 0.5;
   const { widthMm: W, heightMm: H } = options.sheet;
   const s = options.spacingMm;
   const m = options.marginMm;
-  if (Math.min(W, H) - 2 * m + s <= cell) {
+  if (!(Math.min(W, H) - 2 * m > 0)) {
     throw new DesignError([{ path: 'sheet', value: `${W}x${H}`, message: `leaves no room inside the ${m} mm sheet margin` }]);
   }
-  const coarse = level(items, options, cell);
-  for (let i = 0; i < items.length; i++) {
-    const fits = coarse.shapes[i].some((r) => r.w <= coarse.upright.gw && r.h <= coarse.upright.gh);
-    if (items[i].count > 0 && !fits) {
-      throw new DesignError([{
-        path: 'sheet',
-        value: `${W}x${H}`,
-        message: `is too small for part ${items[i].part.name} (with ${m} mm margins and ${s.toFixed(2)} mm spacing, in any rotation that keeps the weave aligned)`,
-      }]);
-    }
-  }
+  const turns = allowedTurns(options.turnsDeg);
   const groups = new Map<string, number[]>();
   items.forEach((it, i) => {
     if (it.count <= 0) return;
     const key = groupKey(it.part);
     groups.set(key, [...(groups.get(key) ?? []), i]);
   });
-  const copies = items.reduce((a, it) => a + Math.max(0, it.count), 0);
-  const total = copies * (STRATEGIES.length + REFINE_STRATEGIES);
-  let progress = 0;
-  const tick = () => options.onProgress?.(Math.min(++progress, total), total);
+  const total = items.reduce((a, it) => a + Math.max(0, it.count), 0);
+  const clock: Clock = { now: options.now, deadline: options.timeLimitMs !== undefined && options.now ? options.now() + options.timeLimitMs : Infinity, timedOut: false };
+  let placedBefore = 0;
   const sheets: NestedSheet[] = [];
   const summary: NestGroup[] = [];
-  const sheetArea = W * H;
+  const usableArea = (W - 2 * m + s) * (H - 2 * m + s);
   for (const key of [...groups.keys()].sort()) {
     const members = groups.get(key)!;
-    const tried = STRATEGIES.map((strategy) => ({ strategy, result: runStrategy(coarse, items, members, strategy, tick) }))
-      .filter((t): t is { strategy: Strategy; result: SheetState[] } => t.result !== null)
-      .sort((a, b) => (better(a.result, b.result) ? -1 : better(b.result, a.result) ? 1 : 0));
-    if (!tried.length) throw new Error(`nesting: no strategy placed group ${key}`);
-    let best = tried[0];
-    let bestCell = cell;
-    const area = best.result.reduce((a, sh) => a + sh.partAreaMm2, 0);
-    const groupCopies = members.reduce((a, i) => a + items[i].count, 0);
-    if (options.refine !== false && best.result.length > Math.ceil(area / sheetArea - 1e-9)) {
-      // Not provably optimal by area: a finer raster (less rounding of the gaps) with the best rules
-      // so far may save a sheet. Rules that gave the very same layout are retried once.
-      const fine = level(items, options, cell / 2, new Set(members));
-      const seen = new Set<string>();
-      const retry = tried.filter((t) => {
-        const sig = layoutSignature(t.strategy, t.result);
-        if (seen.has(sig)) return false;
-        seen.add(sig);
-        return true;
-      }).slice(0, REFINE_STRATEGIES);
-      for (const t of retry) {
-        const r = runStrategy(fine, items, members, t.strategy, tick);
-        if (r && r.length < best.result.length) {
-          best = { strategy: t.strategy, result: r };
-          bestCell = cell / 2;
-        }
-      }
-      for (let k = 0; k < groupCopies * (REFINE_STRATEGIES - retry.length); k++) tick();
-    } else {
-      for (let k = 0; k < groupCopies * REFINE_STRATEGIES; k++) tick();
+    const g = prepareGroup(items, members, options, turns);
+    const progress = (done: number) => options.onProgress?.(Math.min(total, placedBefore + done), total);
+    const layout = fillGroup(g, clock, progress);
+    // Every distinct sheet measured again on the exact geometry (a copied sheet shares its layout).
+    let minGap: number | null = null;
+    for (const placed of new Set(layout.map((sheet) => sheet.placed))) {
+      const gap = verifySheet(placed.map((p) => ({ part: items[g.items[p.o.item]].part, transform: transformOf(g, p) })), { spacingMm: s, marginMm: m, widthMm: W, heightMm: H });
+      if (gap !== null) minGap = minGap === null ? gap : Math.min(minGap, gap);
     }
-    for (const sh of best.result) {
-      const placements = best.strategy.turned ? sh.placements.map((p) => ({ ...p, transform: turnSheet(p.transform, W), rotationDeg: normDeg(p.rotationDeg + 90) })) : sh.placements;
-      sheets.push({ thicknessMm: sh.thicknessMm, material: sh.material, widthMm: W, heightMm: H, placements, partAreaMm2: sh.partAreaMm2, utilisation: sh.partAreaMm2 / sheetArea });
+    const copies = new Map<number, number>();
+    let area = 0;
+    let occupied = 0;
+    for (const i of members) occupied += items[i].count * occupiedAreaMm2(items[i].part, s / 2);
+    for (const sheet of layout) {
+      const placements: Placement[] = sheet.placed.map((p) => {
+        const item = g.items[p.o.item];
+        const part = items[item].part;
+        const copy = copies.get(item) ?? 0;
+        copies.set(item, copy + 1);
+        const transform = transformOf(g, p);
+        return { item, partName: part.name, copy, transform, rotationDeg: normDeg((transform.rotateRad * 180) / Math.PI) };
+      });
+      const partAreaMm2 = placements.reduce((a, p) => a + g.areaMm2[g.items.indexOf(p.item)], 0);
+      area += partAreaMm2;
+      sheets.push({ thicknessMm: items[members[0]].part.thicknessMm, material: items[members[0]].part.material.name, widthMm: W, heightMm: H, placements, partAreaMm2, utilisation: partAreaMm2 / (W * H) });
     }
+    placedBefore += members.reduce((a, i) => a + items[i].count, 0);
+    const boundSheets = occupied / usableArea;
     summary.push({
-      thicknessMm: best.result[0].thicknessMm,
-      material: best.result[0].material,
-      sheets: best.result.length,
+      thicknessMm: items[members[0]].part.thicknessMm,
+      material: items[members[0]].part.material.name,
+      sheets: layout.length,
       partAreaMm2: area,
-      areaBoundSheets: area / sheetArea,
-      utilisation: area / (best.result.length * sheetArea),
-      cellMm: bestCell,
-      rule: best.strategy.name,
+      boundSheets,
+      lowerBoundSheets: Math.max(1, Math.ceil(boundSheets * (1 - 1e-9))),
+      utilisation: area / (layout.length * W * H),
+      minGapMm: minGap,
+      rule: layout[0].rule,
     });
   }
-  return { sheets, groups: summary, spacingMm: s, marginMm: m, cellMm: cell };
+  return { sheets, groups: summary, spacingMm: s, marginMm: m, timedOut: clock.timedOut };
 }
 
-/** How many of the best rules (with distinct layouts) are retried on the finer raster. */
-const REFINE_STRATEGIES = 3;
+type Clock = { now?: () => number; deadline: number; timedOut: boolean };
 
-/** Identifies a layout: which part went where on which sheet. */
-function layoutSignature(strategy: Strategy, sheets: readonly SheetState[]): string {
-  const pos = (p: Placement) => `${p.item}@${p.transform.translate[0].toFixed(3)},${p.transform.translate[1].toFixed(3)},${p.rotationDeg}`;
-  return `${strategy.turned}|${sheets.map((sh) => sh.placements.map(pos).join(' ')).join('/')}`;
+/** The quarter turns (0–3) the shop allows. */
+function allowedTurns(turnsDeg: readonly number[] | undefined): number[] {
+  const list = turnsDeg ?? [0, 90, 180, 270];
+  const bad = list.find((d) => ![0, 90, 180, 270].includes(d));
+  if (bad !== undefined || list.length === 0) {
+    throw new DesignError([{ path: 'turnsDeg', value: bad ?? '[]', message: 'must list turns from 0, 90, 180, 270 degrees (at least one)' }]);
+  }
+  return [...new Set(list.map((d) => d / 90))].sort((a, b) => a - b);
 }
 
-/** Rasters and grids for one cell size. */
-type Level = Readonly<{ shapes: Raster[][]; boxes: Raster[][]; upright: Grid; turned: Grid }>;
+/** Rotations that put the part's weave on the sheet axes: −weaveRad + k·90° for the allowed k. */
+export function allowedRotations(part: Part, turnsDeg?: readonly number[]): number[] {
+  return partTurns(part, allowedTurns(turnsDeg)).map((k) => -part.weaveRad + (k * Math.PI) / 2);
+}
 
-/** Rasters of the items (only those in `only`, when given) and the grids, at one cell size. */
-function level(items: readonly NestItem[], options: NestOptions, cell: number, only?: ReadonlySet<number>): Level {
-  const s = options.spacingMm;
+/** Allowed quarter turns for one part: all the shop allows for a balanced weave, the half turns otherwise. */
+function partTurns(part: Part, turns: readonly number[]): number[] {
+  const balanced = Math.abs(part.material.e1Gpa - part.material.e2Gpa) <= 1e-9 * Math.max(part.material.e1Gpa, part.material.e2Gpa);
+  return turns.filter((k) => balanced || k % 2 === 0);
+}
+
+/** One allowed orientation of a group member, with the reference-point box where it stays on the sheet. */
+type Orient = Readonly<{ item: number; turn: number; shape: NestShape; ifp: IBox | null }>;
+
+type Group = Readonly<{
+  /** Item indices (into the caller's items) of the group's members. */
+  items: readonly number[];
+  counts: readonly number[];
+  areaMm2: readonly number[];
+  /** Grown outline area, integer units², for the fill order. */
+  sizeOrder: readonly number[];
+  orients: readonly Orient[];
+  orientsOf: readonly (readonly number[])[];
+  base: readonly NestShape[];
+  nfps: Map<number, Paths64>;
+  nfpBase: Map<string, Paths64>;
+  weaveRad: readonly number[];
+  names: readonly string[];
+}>;
+
+function prepareGroup(items: readonly NestItem[], members: readonly number[], options: NestOptions, turns: readonly number[]): Group {
+  const { widthMm: W, heightMm: H } = options.sheet;
+  const half = options.spacingMm / 2;
   const m = options.marginMm;
-  const grid = (w: number, h: number): Grid => ({
-    gw: Math.floor((w - 2 * m + s) / cell),
-    gh: Math.floor((h - 2 * m + s) / cell),
-    // The grid spans the usable area grown by half the spacing: dilated parts may reach that far.
-    origin: [m - s / 2, m - s / 2],
-    cell,
+  // Grown shapes stay inside the usable area grown by half the spacing (the rounding allowance of the
+  // shapes then keeps the parts a hair inside the margin).
+  const lo = Math.ceil((m - half) * NEST_SCALE);
+  const hiX = Math.floor((W - m + half) * NEST_SCALE);
+  const hiY = Math.floor((H - m + half) * NEST_SCALE);
+  const ifpOf = (b: IBox): IBox | null => {
+    const box: IBox = [lo - b[0], lo - b[1], hiX - b[2], hiY - b[3]];
+    // A part that fits with no play at all is treated as not fitting (a region without area).
+    return box[0] < box[2] && box[1] < box[3] ? box : null;
+  };
+  const turnsOf = members.map((i) => {
+    const t = partTurns(items[i].part, turns);
+    if (!t.length) {
+      throw new DesignError([{ path: 'turnsDeg', value: turns.map((k) => k * 90).join(', '), message: `allows only quarter turns, which would turn the unbalanced weave of ${items[i].part.name} across its stiff direction` }]);
+    }
+    return t;
   });
-  const shapes = items.map((it, i) => (it.count > 0 && (!only || only.has(i)) ? allowedRotations(it.part).map((rot) => rasterise(it.part, rot, s / 2, cell)) : []));
-  return { shapes, boxes: shapes.map((rs) => rs.map(boxRaster)), upright: grid(options.sheet.widthMm, options.sheet.heightMm), turned: grid(options.sheet.heightMm, options.sheet.widthMm) };
+  // Solid shapes first: they tell which windows could hold a part at all.
+  const solid = members.map((i) => dilatedShape(items[i].part, half, -items[i].part.weaveRad));
+  const dims = solid.flatMap((sh, j) => turnsOf[j].map((k) => quarterTurn(sh, k).box)).map((b) => [b[2] - b[0], b[3] - b[1]] as const);
+  const smallest = Math.min(...solid.map((sh) => ringArea2(sh.rings[0])));
+  const holdsAPart = (ring: Paths64[number]): boolean => {
+    const b = ringBox(ring);
+    return -ringArea2(ring) >= smallest && dims.some(([w, h]) => w <= b[2] - b[0] && h <= b[3] - b[1]);
+  };
+  const base = members.map((i, j) => (items[i].part.features.length ? dilatedShape(items[i].part, half, -items[i].part.weaveRad, holdsAPart) : solid[j]));
+  const orients: Orient[] = [];
+  const orientsOf: number[][] = [];
+  members.forEach((i, j) => {
+    const mine: number[] = [];
+    for (const k of turnsOf[j]) {
+      const shape = quarterTurn(base[j], k);
+      if (mine.some((o) => sameShape(orients[o].shape, shape))) continue;
+      mine.push(orients.length);
+      orients.push({ item: j, turn: k, shape, ifp: ifpOf(shape.box) });
+    }
+    orientsOf.push(mine);
+    if (items[i].count > 0 && mine.every((o) => orients[o].ifp === null)) {
+      throw new DesignError([{
+        path: 'sheet',
+        value: `${W}x${H}`,
+        message: `is too small for part ${items[i].part.name} (with ${m} mm margins and ${options.spacingMm.toFixed(2)} mm spacing, in any rotation that keeps the weave aligned)`,
+      }]);
+    }
+  });
+  return {
+    items: members,
+    counts: members.map((i) => items[i].count),
+    areaMm2: members.map((i) => partArea(items[i].part)),
+    sizeOrder: solid.map((sh) => ringArea2(sh.rings[0])),
+    orients,
+    orientsOf,
+    base,
+    nfps: new Map(),
+    nfpBase: new Map(),
+    weaveRad: members.map((i) => items[i].part.weaveRad),
+    names: members.map((i) => items[i].part.name),
+  };
 }
-
-function runStrategy(l: Level, items: readonly NestItem[], members: readonly number[], strategy: Strategy, tick: () => void): SheetState[] | null {
-  return nestGroup(items, strategy.boxes ? l.boxes : l.shapes, members, strategy.turned ? l.turned : l.upright, withPreference(strategy), tick);
-}
-
-/** The strategy's score, with every rotation of the other parity ranked after all of the preferred one. */
-function withPreference(strategy: Strategy): Score {
-  const { prefer, score } = strategy;
-  return prefer === undefined ? score : (x, y, r, k) => (k % 2 === prefer ? 0 : 1e15) + score(x, y, r, k);
-}
-
-type Grid = Readonly<{ gw: number; gh: number; origin: readonly [number, number]; cell: number }>;
-/** Lower is better; k indexes the part's allowed rotations (quarter turns from the weave-aligned one). */
-type Score = (x: number, y: number, r: Raster, k: number) => number;
 
 /**
- * Placement rules tried for every group, on the sheet as given and turned by 90° (which keeps every
- * part's weave aligned); the group keeps the result with the fewest sheets. Greedy fill is myopic —
- * an early interlocking placement can cost a whole column — so a few rules beat any single one.
+ * No-fit polygon of orientation b around orientation a (a at the origin). Turning both shapes by the
+ * same quarter turn turns their no-fit polygon, so only the relative turn is computed, once.
  */
-const topEdge: Score = (x, y, r) => (y + r.h) * 1e6 + x;
-const bottomLeft: Score = (x, y) => y * 1e6 + x;
-const centre: Score = (x, y, r) => (2 * y + r.h) * 1e6 + x;
+function nfpOf(g: Group, a: number, b: number): Paths64 {
+  const key = a * g.orients.length + b;
+  const hit = g.nfps.get(key);
+  if (hit) return hit;
+  const A = g.orients[a];
+  const B = g.orients[b];
+  const rel = (((B.turn - A.turn) % 4) + 4) % 4;
+  const baseKey = `${A.item}|${B.item}|${rel}`;
+  let base = g.nfpBase.get(baseKey);
+  if (!base) {
+    base = noFitPolygon(g.base[A.item], quarterTurn(g.base[B.item], rel));
+    g.nfpBase.set(baseKey, base);
+  }
+  const turned = A.turn === 0 ? base : base.map((p) => p.map((v) => turnPoint(v, A.turn)));
+  g.nfps.set(key, turned);
+  return turned;
+}
+
+/** A placed copy: orientation and reference point in integer units. */
+type Placed = Readonly<{ o: Orient; x: number; y: number }>;
+
+function transformOf(g: Group, p: Placed): Transform {
+  return { rotateRad: -g.weaveRad[p.o.item] + (p.o.turn * Math.PI) / 2, translate: [p.x / NEST_SCALE, p.y / NEST_SCALE] };
+}
+
+/** Lexicographic score of putting orientation o's reference point at (x, y): lower wins. */
+type Score = (x: number, y: number, o: Orient, placedBox: IBox | null) => readonly [number, number, number];
+
+/** A placement rule: the order parts are tried in and where each goes. */
+type Strategy = Readonly<{
+  name: string;
+  /** Largest kinds of part first (by grown area), or the smallest first. */
+  order: 'area' | 'smallest';
+  score: Score;
+  /** Score for every kind but the largest (default `score`): big plates in rows, small ones in a grid round them. */
+  scoreSmall?: Score;
+}>;
+
+const boxAt = (x: number, y: number, o: Orient): IBox => [x + o.shape.box[0], y + o.shape.box[1], x + o.shape.box[2], y + o.shape.box[3]];
+const grownArea = (b: IBox | null, c: IBox): number => (b ? (Math.max(b[2], c[2]) - Math.min(b[0], c[0])) * (Math.max(b[3], c[3]) - Math.min(b[1], c[1])) : (c[2] - c[0]) * (c[3] - c[1]));
+
 /**
- * With `prefer`, a copy takes a rotation of that parity (an even or odd number of quarter turns from
- * the weave-aligned one) wherever one fits on the sheet, and only then the other: long parts fill a band
- * one way, then the strip left over the other way, where a free choice per copy mixes them early and
- * leaves gaps no copy fits (80 Farline 7 arms: 4 sheets instead of 5).
+ * Placement rules tried on every sheet (the fullest sheet wins). Greedy placement is myopic, so a few
+ * rules beat any single one: bottom-left packs rows, left-bottom columns; "lowest top edge" keeps the
+ * skyline flat; "compact" grows the occupied box least; diagonal fronts let interlocking parts step
+ * into each other; the turn rules put copies one way round while they fit (a grid of small parts,
+ * long parts in a band with the strip left over filled the other way). Each rule here won at least
+ * one demo sheet on its own; rules that only ever tied were dropped to save time.
  */
-type Strategy = Readonly<{ name: string; turned: boolean; boxes: boolean; score: Score; prefer?: 0 | 1 }>;
 const STRATEGIES: readonly Strategy[] = [
-  { name: 'lowest top edge', turned: false, boxes: false, score: topEdge },
-  { name: 'lowest top edge, turned sheet', turned: true, boxes: false, score: topEdge },
-  { name: 'bottom-left', turned: false, boxes: false, score: bottomLeft },
-  { name: 'bottom-left, turned sheet', turned: true, boxes: false, score: bottomLeft },
-  { name: 'lowest centre', turned: false, boxes: false, score: centre },
-  { name: 'lowest centre, turned sheet', turned: true, boxes: false, score: centre },
-  // Bounding boxes only: avoids the trap where interlocking two parts costs a column.
-  { name: 'boxes, lowest top edge', turned: false, boxes: true, score: topEdge },
-  { name: 'boxes, lowest top edge, turned sheet', turned: true, boxes: true, score: topEdge },
-  { name: 'upright first', turned: false, boxes: false, score: topEdge, prefer: 0 },
-  { name: 'upright first, turned sheet', turned: true, boxes: false, score: topEdge, prefer: 0 },
-  { name: 'quarter-turned first', turned: false, boxes: false, score: topEdge, prefer: 1 },
-  { name: 'quarter-turned first, turned sheet', turned: true, boxes: false, score: topEdge, prefer: 1 },
+  { name: 'bottom-left', order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [0, b[1], b[0]]; } },
+  { name: 'left-bottom', order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [0, b[0], b[1]]; } },
+  { name: 'lowest top edge', order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [0, b[3], b[0]]; } },
+  { name: 'leftmost right edge', order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [0, b[2], b[1]]; } },
+  { name: 'compact', order: 'area', score: (x, y, o, pb) => { const b = boxAt(x, y, o); return [grownArea(pb, b), b[1], b[0]]; } },
+  // Diagonal fronts: rows that step, so tapered parts lean into the ones before them.
+  { name: 'diagonal, rows', order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [0, b[0] + 2 * b[1], b[1]]; } },
+  { name: 'diagonal, columns', order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [0, 2 * b[0] + b[1], b[0]]; } },
+  { name: 'quarter-turned first', order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [1 - (o.turn % 2), b[3], b[0]]; } },
+  // One turn for every copy where it fits: many small identical parts then form a regular grid.
+  ...[0, 1].map((k): Strategy => ({ name: `turn ${90 * k}° first, left-bottom`, order: 'area', score: (x, y, o) => { const b = boxAt(x, y, o); return [o.turn === k ? 0 : 1, b[0], b[1]]; } })),
+  // Large parts bottom-left, the small ones each turned the same way into a grid in what is left.
+  ...[0, 1].map((k): Strategy => ({
+    name: `bottom-left, small parts turn ${90 * k}° first`,
+    order: 'area',
+    score: (x, y, o) => { const b = boxAt(x, y, o); return [0, b[1], b[0]]; },
+    scoreSmall: (x, y, o) => { const b = boxAt(x, y, o); return [o.turn === k ? 0 : 1, b[1], b[0]]; },
+  })),
+  // Smallest parts first: a last sheet of mixed leftovers packs the many small ones in a grid.
+  ...[0, 1].map((k): Strategy => ({ name: `smallest first, turn ${90 * k}° first`, order: 'smallest', score: (x, y, o) => { const b = boxAt(x, y, o); return [o.turn === k ? 0 : 1, b[0], b[1]]; } })),
 ];
 
-/** Fewer sheets wins; then the emptier last sheet (its leftover is worth more). */
-function better(a: readonly SheetState[], b: readonly SheetState[]): boolean {
-  if (a.length !== b.length) return a.length < b.length;
-  return a[a.length - 1].partAreaMm2 < b[b.length - 1].partAreaMm2 - 1e-6;
+/** What one rule did on one sheet, enough to tell when the same situation comes back. */
+type Fill = Readonly<{ placed: Placed[]; used: number[]; exhausted: boolean[]; areaMm2: number; box: IBox | null; rule: string }>;
+
+type SheetLayout = Readonly<{ placed: Placed[]; rule: string }>;
+
+/** Fill sheets until every copy is placed. */
+function fillGroup(g: Group, clock: Clock, progress: (done: number) => void): SheetLayout[] {
+  return fillSheets(g, g.counts, STRATEGIES, clock, progress);
 }
 
-/** A placement made on the turned sheet (width H, height W), mapped back onto the W × H sheet. */
-function turnSheet(t: Transform, widthMm: number): Transform {
-  return { rotateRad: t.rotateRad + Math.PI / 2, translate: [widthMm - t.translate[1], t.translate[0]] };
-}
-
-function nestGroup(items: readonly NestItem[], rasters: readonly (readonly Raster[])[], members: readonly number[], g: Grid, score: Score, tick: () => void): SheetState[] | null {
-  const { gw, gh, origin, cell } = g;
-  const order: number[] = [];
-  for (const i of members) for (let k = 0; k < items[i].count; k++) order.push(i);
-  const areaOf = (i: number) => Math.max(...rasters[i].map((r) => r.areaCells));
-  order.sort((a, b) => areaOf(b) - areaOf(a) || a - b);
-  const sheets: SheetState[] = [];
-  const copies = new Map<number, number>();
-  for (const i of order) {
-    let done = false;
-    for (const sh of sheets) {
-      if (sh.full.has(i)) continue;
-      if (placeOn(sh, i)) { done = true; break; }
-      sh.full.add(i);
+/** Fill sheets one after the other with the best of the rules; a sheet whose situation repeats is copied. */
+function fillSheets(g: Group, counts: readonly number[], rules: readonly Strategy[], clock: Clock, progress: (done: number) => void): SheetLayout[] {
+  const remaining = [...counts];
+  const memo: Array<{ tries: Fill[]; best: Fill }> = [];
+  const out: SheetLayout[] = [];
+  let done = 0;
+  while (remaining.some((c) => c > 0)) {
+    const known = memo.find((r) => r.tries.every((f) => f.used.every((u, t) => (f.exhausted[t] ? remaining[t] === u : remaining[t] >= u))));
+    let best: Fill;
+    if (known) best = known.best;
+    else {
+      const tries: Fill[] = [];
+      for (const strategy of rules) {
+        if (tries.length && clock.now && clock.now() > clock.deadline) {
+          clock.timedOut = true;
+          break;
+        }
+        tries.push(fillSheet(g, remaining, strategy));
+        const so = Math.max(...tries.map((f) => f.used.reduce((a, b) => a + b, 0)));
+        progress(done + Math.floor((so * tries.length) / rules.length));
+      }
+      best = tries.reduce((a, b) => (better(b, a) ? b : a));
+      memo.push({ tries, best });
     }
-    if (!done) {
-      const part = items[i].part;
-      const sh: SheetState = {
-        thicknessMm: part.thicknessMm,
-        material: part.material.name,
-        prevOcc: Array.from({ length: gh }, () => new Int32Array(Math.max(gw, 0)).fill(-1)),
-        placements: [],
-        partAreaMm2: 0,
-        resume: new Map(),
-        full: new Set(),
-      };
-      sheets.push(sh);
-      // A part that fits only the other way round cannot go on this orientation of the sheet.
-      if (!placeOn(sh, i)) return null;
-    }
-    tick();
+    if (!best.placed.length) throw new Error('nesting: an empty sheet took no part');
+    best.used.forEach((u, t) => (remaining[t] -= u));
+    done += best.used.reduce((a, b) => a + b, 0);
+    out.push({ placed: best.placed, rule: best.rule });
+    progress(done);
   }
-  return sheets;
+  return out;
+}
 
-  function placeOn(sh: SheetState, i: number): boolean {
-    let best: { r: Raster; x: number; y: number; score: number } | null = null;
-    rasters[i].forEach((r, k) => {
-      const resumeKey = `${i}/${k}`;
-      const from = sh.resume.get(resumeKey) ?? 0;
-      const pos = firstFit(sh.prevOcc, r, gw, gh, from);
-      sh.resume.set(resumeKey, pos === null ? gw * gh : pos.y * gw + pos.x);
-      if (pos === null) return;
-      const sc = score(pos.x, pos.y, r, k);
-      if (!best || sc < best.score) best = { r, x: pos.x, y: pos.y, score: sc };
+/** More part area on the sheet wins; then the smaller occupied box (a larger offcut). */
+function better(a: Fill, b: Fill): boolean {
+  if (Math.abs(a.areaMm2 - b.areaMm2) > 1e-6) return a.areaMm2 > b.areaMm2;
+  const area = (x: IBox | null) => (x ? (x[2] - x[0]) * (x[3] - x[1]) : 0);
+  return area(a.box) < area(b.box);
+}
+
+/**
+ * Where one orientation's reference point may still go: the usable box minus the no-fit polygons of
+ * the parts placed, kept in square tiles so that a new part only touches the few tiles near it.
+ */
+type FreeRegion = { tiles: Array<{ box: IBox; paths: Paths64 }>; seen: number };
+
+function freeRegion(o: Orient): FreeRegion | null {
+  const b = o.ifp;
+  if (!b) return null;
+  // Tiles about twice the part: a no-fit polygon with a like-sized part then meets at most four.
+  const size = 2 * Math.max(o.shape.box[2] - o.shape.box[0], o.shape.box[3] - o.shape.box[1]);
+  const nx = Math.max(1, Math.min(16, Math.round((b[2] - b[0]) / size)));
+  const ny = Math.max(1, Math.min(16, Math.round((b[3] - b[1]) / size)));
+  const tiles: FreeRegion['tiles'] = [];
+  for (let i = 0; i < nx; i++) {
+    for (let j = 0; j < ny; j++) {
+      const box: IBox = [b[0] + Math.floor(((b[2] - b[0]) * i) / nx), b[1] + Math.floor(((b[3] - b[1]) * j) / ny), b[0] + Math.floor(((b[2] - b[0]) * (i + 1)) / nx), b[1] + Math.floor(((b[3] - b[1]) * (j + 1)) / ny)];
+      if (box[0] < box[2] && box[1] < box[3]) tiles.push({ box, paths: [rect(box)] });
+    }
+  }
+  return { tiles, seen: 0 };
+}
+
+/**
+ * Place as much as fits on one empty sheet with one rule. Parts placed since an orientation was last
+ * looked at are subtracted from its free region in one go, tile by tile, when it is next needed.
+ */
+function fillSheet(g: Group, counts: readonly number[], strategy: Strategy): Fill {
+  const n = g.items.length;
+  const remaining = [...counts];
+  const used = new Array<number>(n).fill(0);
+  const full = new Array<boolean>(n).fill(false);
+  const free = g.orients.map(freeRegion);
+  const key = (t: number) =>
+    strategy.order === 'area' ? g.sizeOrder[t] : -g.sizeOrder[t];
+  const order = [...Array(n).keys()].sort((a, b) => key(b) - key(a) || a - b);
+  const largest = [...Array(n).keys()].reduce((a, b) => (g.sizeOrder[b] > g.sizeOrder[a] ? b : a), 0);
+  const placed: Array<Placed & { oi: number }> = [];
+  const catchUp = (oj: number): FreeRegion | null => {
+    const F = free[oj];
+    if (!F || F.seen === placed.length) return F;
+    const clips = F.tiles.map((): Paths64 => []);
+    for (let k = F.seen; k < placed.length; k++) {
+      const p = placed[k];
+      const nb = nfpBox(g, p.oi, oj);
+      const x0 = nb[0] + p.x;
+      const y0 = nb[1] + p.y;
+      const x1 = nb[2] + p.x;
+      const y1 = nb[3] + p.y;
+      let moved: Paths64 | null = null;
+      F.tiles.forEach((t, i) => {
+        if (x0 >= t.box[2] || x1 <= t.box[0] || y0 >= t.box[3] || y1 <= t.box[1]) return;
+        moved ??= nfpOf(g, p.oi, oj).map((ring) => ring.map((v) => ({ x: v.x + p.x, y: v.y + p.y })));
+        // Only the part of the no-fit polygon over this tile matters (a fast clip by rectangle).
+        clips[i].push(...rectClip({ left: t.box[0] - 1, top: t.box[1] - 1, right: t.box[2] + 1, bottom: t.box[3] + 1 }, moved));
+      });
+    }
+    F.seen = placed.length;
+    F.tiles = F.tiles.flatMap((t, i) => {
+      if (!clips[i].length) return [t];
+      const paths = difference(t.paths, clips[i], FillRule.NonZero);
+      return paths.length ? [{ box: pathsBox(paths), paths }] : [];
     });
-    if (!best) return false;
-    const { r, x, y } = best as { r: Raster; x: number; y: number };
-    occupy(sh.prevOcc, r, x, y, gw);
-    const part = items[i].part;
-    const copy = copies.get(i) ?? 0;
-    copies.set(i, copy + 1);
-    const transform: Transform = { rotateRad: r.rotRad, translate: [origin[0] + x * cell - r.originMm[0], origin[1] + y * cell - r.originMm[1]] };
-    sh.placements.push({ item: i, partName: part.name, copy, transform, rotationDeg: normDeg((r.rotRad * 180) / Math.PI) });
-    sh.partAreaMm2 += partArea(part);
-    return true;
+    if (!F.tiles.length) free[oj] = null;
+    return free[oj];
+  };
+  let box: IBox | null = null;
+  let areaMm2 = 0;
+  for (;;) {
+    const t = order.find((k) => remaining[k] > 0 && !full[k]);
+    if (t === undefined) break;
+    let best: { o: number; x: number; y: number; sc: readonly number[] } | null = null;
+    const score = t === largest ? strategy.score : (strategy.scoreSmall ?? strategy.score);
+    for (const oi of g.orientsOf[t]) {
+      const F = catchUp(oi);
+      if (!F) continue;
+      const o = g.orients[oi];
+      for (const tile of F.tiles) {
+        for (const path of tile.paths) {
+          for (const v of path) {
+            const sc = score(v.x, v.y, o, box);
+            if (!best || sc[0] < best.sc[0] || (sc[0] === best.sc[0] && (sc[1] < best.sc[1] || (sc[1] === best.sc[1] && sc[2] < best.sc[2])))) best = { o: oi, x: v.x, y: v.y, sc };
+          }
+        }
+      }
+    }
+    if (!best) {
+      full[t] = true;
+      continue;
+    }
+    const o = g.orients[best.o];
+    placed.push({ o, oi: best.o, x: best.x, y: best.y });
+    remaining[t]--;
+    used[t]++;
+    areaMm2 += g.areaMm2[t];
+    const b = boxAt(best.x, best.y, o);
+    box = box ? [Math.min(box[0], b[0]), Math.min(box[1], b[1]), Math.max(box[2], b[2]), Math.max(box[3], b[3])] : b;
   }
+  return { placed: placed.map(({ o, x, y }) => ({ o, x, y })), used, exhausted: used.map((u, t) => u === counts[t]), areaMm2, box, rule: strategy.name };
 }
+
+const nfpBoxes = new WeakMap<Paths64, IBox>();
+function nfpBox(g: Group, a: number, b: number): IBox {
+  const p = nfpOf(g, a, b);
+  let box = nfpBoxes.get(p);
+  if (!box) {
+    box = pathsBox(p);
+    nfpBoxes.set(p, box);
+  }
+  return box;
+}
+
+function pathsBox(ps: Paths64): IBox {
+  let b: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
+  for (const p of ps) {
+    const r = ringBox(p);
+    b = [Math.min(b[0], r[0]), Math.min(b[1], r[1]), Math.max(b[2], r[2]), Math.max(b[3], r[3])];
+  }
+  return b;
+}
+
+const rect = (b: IBox) => [{ x: b[0], y: b[1] }, { x: b[2], y: b[1] }, { x: b[2], y: b[3] }, { x: b[0], y: b[3] }];
 
 const groupKey = (p: Part): string => `${p.thicknessMm.toFixed(3).padStart(8, '0')}|${p.material.name}`;
 
@@ -327,120 +517,3 @@ const normDeg = (d: number): number => {
   const r = Math.round(d * 1e6) / 1e6;
   return ((r % 360) + 360) % 360;
 };
-
-/** Rotations that put the part's weave on the sheet axes: −weaveRad + k·90°, k = 0..3. */
-export function allowedRotations(part: Part): number[] {
-  return [0, 1, 2, 3].map((k) => -part.weaveRad + (k * Math.PI) / 2);
-}
-
-function rasterise(part: Part, rotRad: number, halfSpacingMm: number, cell: number): Raster {
-  const t: Transform = { rotateRad: rotRad, translate: [0, 0] };
-  const pts = flattenLoop(part.outline, NEST_CHORD_MM).map((p) => {
-    const q = transformPoint(p, t);
-    return { x: q[0], y: q[1] };
-  });
-  // Dilate by half the spacing, plus half a cell diagonal (so sampling cell centres is conservative)
-  // plus the chord tolerance (chords lie inside the arcs they replace).
-  const grow = halfSpacingMm + cell * Math.SQRT1_2 + NEST_CHORD_MM;
-  const paths: PathsD = inflatePathsD([pts], grow, JoinType.Round, EndType.Polygon, 2, 6, NEST_CHORD_MM / 2);
-  let x0 = Infinity;
-  let y0 = Infinity;
-  let x1 = -Infinity;
-  let y1 = -Infinity;
-  for (const p of paths) for (const q of p) {
-    x0 = Math.min(x0, q.x); y0 = Math.min(y0, q.y); x1 = Math.max(x1, q.x); y1 = Math.max(y1, q.y);
-  }
-  const w = Math.ceil((x1 - x0) / cell);
-  const h = Math.ceil((y1 - y0) / cell);
-  const rows: Int32Array[] = [];
-  let areaCells = 0;
-  for (let j = 0; j < h; j++) {
-    const yc = y0 + (j + 0.5) * cell;
-    // Crossings with their winding direction; the filled set is nonzero winding. Gaps between spans
-    // are real free space (a concave bay of the outline), where another part may go.
-    const xs: Array<[number, number]> = [];
-    for (const p of paths) {
-      for (let k = 0; k < p.length; k++) {
-        const a = p[k];
-        const b = p[(k + 1) % p.length];
-        if ((a.y <= yc && b.y > yc) || (b.y <= yc && a.y > yc)) {
-          xs.push([a.x + ((yc - a.y) / (b.y - a.y)) * (b.x - a.x), b.y > a.y ? 1 : -1]);
-        }
-      }
-    }
-    xs.sort((p, q) => p[0] - q[0]);
-    const spans: Array<[number, number]> = [];
-    let wind = 0;
-    let startX = 0;
-    for (const [x, dir] of xs) {
-      const was = wind;
-      wind += dir;
-      if (was === 0 && wind !== 0) startX = x;
-      else if (was !== 0 && wind === 0) spans.push([startX, x]);
-    }
-    if (spans.length) {
-      const a = Math.max(0, Math.ceil((spans[0][0] - x0) / cell - 0.5));
-      const b = Math.min(w - 1, Math.floor((spans[spans.length - 1][1] - x0) / cell - 0.5));
-      const cells: number[] = [];
-      for (const [sa, sb] of spans) {
-        const ia = Math.max(a, Math.ceil((sa - x0) / cell - 0.5));
-        const ib = Math.min(b, Math.floor((sb - x0) / cell - 0.5));
-        if (ib >= ia) cells.push(ia, ib);
-      }
-      rows.push(Int32Array.from(cells));
-      for (let k = 0; k < cells.length; k += 2) areaCells += cells[k + 1] - cells[k] + 1;
-    } else rows.push(new Int32Array(0));
-  }
-  return { rotRad, w, h, rows, originMm: [x0, y0], areaCells };
-}
-
-/** The raster's bounding box, every row full: shape-blind placement. */
-function boxRaster(r: Raster): Raster {
-  const full = Int32Array.from([0, r.w - 1]);
-  return { ...r, rows: r.rows.map(() => full), areaCells: r.w * r.h };
-}
-
-/** First position (row-major from `from`) where the raster fits, skipping past each collision. */
-function firstFit(prevOcc: Int32Array[], r: Raster, gw: number, gh: number, from: number): { x: number; y: number } | null {
-  const maxX = gw - r.w;
-  const maxY = gh - r.h;
-  if (maxX < 0 || maxY < 0) return null;
-  let y = Math.floor(from / gw);
-  let x = from % gw;
-  for (; y <= maxY; y++, x = 0) {
-    while (x <= maxX) {
-      let skipTo = -1;
-      for (let j = 0; j < r.h && skipTo < 0; j++) {
-        const row = r.rows[j];
-        const occ = prevOcc[y + j];
-        for (let k = 0; k < row.length; k += 2) {
-          const last = occ[x + row[k + 1]];
-          if (last >= x + row[k]) {
-            skipTo = last - row[k] + 1;
-            break;
-          }
-        }
-      }
-      if (skipTo < 0) return { x, y };
-      x = skipTo;
-    }
-  }
-  return null;
-}
-
-function occupy(prevOcc: Int32Array[], r: Raster, x: number, y: number, gw: number): void {
-  for (let j = 0; j < r.h; j++) {
-    const row = r.rows[j];
-    if (row.length === 0) continue;
-    const occ = prevOcc[y + j];
-    for (let k = 0; k < row.length; k += 2) {
-      for (let c = x + row[k]; c <= x + row[k + 1]; c++) occ[c] = c;
-    }
-    // Re-propagate "last occupied" to the right of what changed.
-    for (let c = x + row[0] + 1; c < gw; c++) {
-      const v = occ[c] === c ? c : occ[c - 1];
-      if (occ[c] === v && c > x + row[row.length - 1]) break;
-      occ[c] = v;
-    }
-  }
-}

@@ -13,7 +13,10 @@ export type QuoteOptions = Readonly<{
   sheet?: SheetSize;
   /** End mill diameter. mm. Default: the shop's, else 3.175. */
   toolDiameterMm?: number;
-  cellMm?: number;
+  /** Stop the nesting search after this many milliseconds (needs `now`); the layout is complete either way. */
+  timeLimitMs?: number;
+  /** Clock for the time limit, ms (only the CLI reads the clock). */
+  now?: () => number;
   onProgress?: (placed: number, total: number) => void;
 }>;
 
@@ -103,16 +106,19 @@ export function quoteParts(parts: readonly Part[], options: QuoteOptions): Quote
   const total = parts.reduce((a, p) => a + p.quantity * quantity, 0);
   let before = 0;
   const count = (ms: ReadonlyArray<{ p: Part }>) => ms.reduce((a, x) => a + x.p.quantity * quantity, 0);
+  const deadline = options.timeLimitMs !== undefined && options.now ? options.now() + options.timeLimitMs : null;
   const runs = thicknesses.map((t) => {
     const members = parts.map((p, i) => ({ p, i })).filter((x) => x.p.thicknessMm === t);
     const stock = stocks[members[0].i]!;
     const sheet: SheetSize = options.sheet ?? { widthMm: stock.widthMm, heightMm: stock.heightMm };
     const offset = before;
-    const result = nestParts(members.map((x) => ({ part: x.p, count: x.p.quantity * quantity })), {
+    const result = nestWithShopPaths(members.map((x) => ({ part: x.p, count: x.p.quantity * quantity })), {
       sheet,
       spacingMm: toolDiameterMm + shop.partGapExtraMm,
       marginMm: shop.sheetMarginMm,
-      ...(options.cellMm ? { cellMm: options.cellMm } : {}),
+      ...(shop.nestTurnsDeg ? { turnsDeg: shop.nestTurnsDeg } : {}),
+      // One deadline for the whole quote: each thickness gets what the earlier ones left.
+      ...(deadline !== null && options.now ? { timeLimitMs: Math.max(0, deadline - options.now()), now: options.now } : {}),
       ...(options.onProgress ? { onProgress: (done: number, all: number) => options.onProgress!(offset + Math.round((done / all) * count(members)), total) } : {}),
     });
     before += count(members);
@@ -127,8 +133,9 @@ export function quoteParts(parts: readonly Part[], options: QuoteOptions): Quote
     groups: runs.flatMap((r) => r.result.groups),
     spacingMm: toolDiameterMm + shop.partGapExtraMm,
     marginMm: shop.sheetMarginMm,
-    cellMm: runs[0]?.result.cellMm ?? 0.5,
+    timedOut: runs.some((r) => r.result.timedOut),
   };
+  if (nesting.timedOut) warnings.push('nesting stopped at the time limit: the layout is complete but may use more sheets than a full search, and may differ between runs');
   const sheetCosts: SheetCost[] = runs.flatMap((r) => r.costs);
   const groupArea = new Map<number, number>();
   for (const g of nesting.groups) groupArea.set(g.thicknessMm, (groupArea.get(g.thicknessMm) ?? 0) + g.partAreaMm2);
@@ -208,6 +215,16 @@ export function quoteParts(parts: readonly Part[], options: QuoteOptions): Quote
     },
     warnings,
   };
+}
+
+/** nestParts with its `turnsDeg` errors named after the shop profile key they come from. */
+function nestWithShopPaths(...args: Parameters<typeof nestParts>): NestResult {
+  try {
+    return nestParts(...args);
+  } catch (e) {
+    if (e instanceof DesignError) throw new DesignError(e.issues.map((i) => (i.path === 'turnsDeg' ? { ...i, path: 'shop.nestTurnsDeg' } : i)));
+    throw e;
+  }
 }
 
 function dedupeIssues(issues: DesignIssue[]): DesignIssue[] {

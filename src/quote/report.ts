@@ -40,8 +40,18 @@ export function quoteReport(q: Quote, meta: Readonly<{ design: string; revision:
     nesting: {
       spacingMm: r4(q.nesting.spacingMm),
       marginMm: q.nesting.marginMm,
-      cellMm: q.nesting.cellMm,
-      groups: q.nesting.groups.map((g) => ({ thicknessMm: g.thicknessMm, material: g.material, sheets: g.sheets, areaBoundSheets: r4(g.areaBoundSheets), utilisation: r4(g.utilisation), partAreaMm2: r4(g.partAreaMm2) })),
+      timedOut: q.nesting.timedOut,
+      groups: q.nesting.groups.map((g) => ({
+        thicknessMm: g.thicknessMm,
+        material: g.material,
+        sheets: g.sheets,
+        lowerBoundSheets: g.lowerBoundSheets,
+        boundSheets: r4(g.boundSheets),
+        utilisation: r4(g.utilisation),
+        partAreaMm2: r4(g.partAreaMm2),
+        minGapMm: g.minGapMm === null ? null : r4(g.minGapMm),
+        rule: g.rule,
+      })),
       sheets: q.nesting.sheets.map((s, i) => ({
         index: i + 1,
         thicknessMm: s.thicknessMm,

@@ -13,8 +13,8 @@ import { VariantRequestError } from './errors.js';
  * between the plates (standoffs, the flight-controller stack) than the source allowed. The auto
  * wheelbase already avoids that, so this only happens for a wheelbase given by the user: the body is
  * then shortened just enough, and every fore-aft position on the body and top plate moves with it
- * (sizes, patterns and widths stay; the camera follows the front standoffs). The body never grows:
- * a bigger frame's hardware already fits.
+ * (sizes, patterns and widths stay; the camera follows the front standoffs; an H layout's arm
+ * starts move with it).
  */
 
 /** Outer radius of a standoff around its screw: M3 aluminium standoffs are about 5–6 mm across. common practice, from memory. */
@@ -53,6 +53,14 @@ function xPositions(d: Design): Array<{ path: (string | number)[]; value: number
   d.stacks.forEach((s, i) => {
     if (typeof s.place === 'number') out.push({ path: ['stacks', i, 'place'], value: s.place });
   });
+  if (d.layout.kind === 'h') {
+    out.push({ path: ['layout', 'frontArmStartMm', 0], value: d.layout.frontArmStartMm[0] });
+    out.push({ path: ['layout', 'rearArmStartMm', 0], value: d.layout.rearArmStartMm[0] });
+  }
+  d.components.forEach((c, i) => {
+    if ('atMm' in c && c.atMm) out.push({ path: ['components', i, 'atMm', 0], value: c.atMm[0] });
+    if (c.kind === 'battery') out.push({ path: ['components', i, 'xMm'], value: c.xMm });
+  });
   const t = d.topPlate;
   t.strapSlots.xPositionsMm.forEach((x, i) => out.push({ path: ['topPlate', 'strapSlots', 'xPositionsMm', i], value: x }));
   if (t.leadOpening) out.push({ path: ['topPlate', 'leadOpening', 'xMm'], value: t.leadOpening.xMm });
@@ -64,8 +72,11 @@ function xPositions(d: Design): Array<{ path: (string | number)[]; value: number
 /** The design with its body shortened by `factor` (positions scaled, sizes kept), in memory. */
 export function shortenedBody(d: Design, factor: number): Design {
   const scaleX = (p: readonly [number, number]) => [p[0] * factor, p[1]] as [number, number];
+  const L = d.layout;
+  const layout = L.kind === 'h' ? { ...L, frontArmStartMm: scaleX(L.frontArmStartMm), rearArmStartMm: scaleX(L.rearArmStartMm) } : L;
   return {
     ...d,
+    layout,
     body: { ...d.body, lengthMm: d.body.lengthMm * factor, standoffs: { ...d.body.standoffs, positionsMm: d.body.standoffs.positionsMm.map(scaleX) } },
     stacks: d.stacks.map((s) => ({ ...s, place: typeof s.place === 'number' ? s.place * factor : s.place })),
   };
@@ -163,21 +174,4 @@ export function fitBody(source: Design, variant: Design): BodyFit {
   for (const p of xPositions(variant)) changes.push({ path: p.path, old: p.value, new: round2(p.value * factor), why: 'position moves with the body length (size kept)' });
   const after = propBodyClearanceMm(shortenedBody(variant, factor), variant.props.diameterMm);
   return { ...base, clearanceMm: after.clearanceMm, factor, changes, line: `Body: shortened from ${variant.body.lengthMm} to ${length} mm so props clear standoffs and stack by ${after.clearanceMm.toFixed(1)} mm (required ${required.toFixed(1)} mm, the source's clearance capped at the tip gap).` };
-}
-
-/**
- * H layouts: the arms run fore and aft along the motors' lines, so the body must keep reaching them.
- * The body (and a top plate with its own width) widens or narrows by the change in the motors'
- * sideways spacing, keeping each arm line's inset from the body side; other layouts: no change.
- */
-export function fitBodyWidthForH(source: Design, variant: Design): Change[] {
-  if (variant.layout.kind !== 'h' || source.layout.kind !== 'h') return [];
-  const y = (d: Design) => Math.max(...motorSites(d).map((s) => Math.abs(s.motorMm[1])));
-  const delta = 2 * (y(variant) - y(source));
-  if (Math.abs(delta) < 1e-9) return [];
-  const why = `H layout: the arm lines moved ${(delta / 2).toFixed(2)} mm sideways; the body keeps reaching them`;
-  const width = ceilToStep(source.body.widthMm + delta, 0.5);
-  const out: Change[] = [{ path: ['body', 'widthMm'], old: variant.body.widthMm, new: width, why }];
-  if (variant.topPlate.widthMm !== undefined) out.push({ path: ['topPlate', 'widthMm'], old: variant.topPlate.widthMm, new: ceilToStep(variant.topPlate.widthMm + delta, 0.5), why });
-  return out;
 }

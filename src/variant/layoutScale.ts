@@ -2,6 +2,7 @@ import { assertNever } from '../geometry/types.js';
 import type { Design } from '../params/design.js';
 import { motorSites, wheelbaseOf, type MotorSite, type SiteId } from '../geometry/layout.js';
 import { dist } from '../geometry/vec.js';
+import { ceilTo } from '../params/derived.js';
 
 /**
  * Wheelbase from prop size and tip gap. Every layout kind is a fixed shape times one length: x and h
@@ -70,8 +71,4 @@ export function minWheelbaseMm(d: Design, propDiameterMm: number, gapMm: number)
 }
 
 /** Round up to a multiple of `stepMm` (0: no rounding), ignoring float noise just above a multiple. */
-export function ceilToStep(x: number, stepMm: number): number {
-  if (stepMm <= 0) return x;
-  const q = Math.ceil(x / stepMm - 1e-9);
-  return Number((q * stepMm).toFixed(9));
-}
+export const ceilToStep = (x: number, stepMm: number): number => (stepMm <= 0 ? x : ceilTo(x, stepMm));

@@ -77,8 +77,8 @@ describe.each(DEMOS)('CalculiX S6 shell reference, %s', (file) => {
       const bore = arm.features.find((f) => f.purpose === 'motor-bore')?.centerMm;
       const round = footprints('motor-bolt');
       const [cx, cy] = bore ?? [round.reduce((s, f) => s + f.centre[0], 0) / round.length, round.reduce((s, f) => s + f.centre[1], 0) / round.length];
-      // The motor's height: the design's, else up to the lower face of the prop band (the assembly's rule).
-      const heightMm = d.motor.heightMm ?? d.props.heightAboveArmMm - d.props.bandMm / 2;
+      // The motor's height: the design's, else 0.6 × the bell diameter but not into the prop band (the design reference's rule).
+      const heightMm = d.motor.heightMm ?? Math.min(0.6 * d.motor.bellDiameterMm, d.props.heightAboveArmMm - d.props.bandMm / 2);
       const ref = ccxModes(arm, 0, {
         clampFootprints: footprints('arm-root-bolt'),
         rigidMasses: [{ footprints: motor, massG: motorG, cgMm: [cx, cy, arm.thicknessMm / 2 + heightMm / 2], diameterMm: d.motor.bellDiameterMm, heightMm }],

@@ -6,6 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
 import { REPO } from './helpers.js';
+import { xmlProblem } from '../helpers/xml.js';
 
 /** `framewright modes ...` through the built CLI (npm test builds dist/ first). */
 const cli = (args: string[]) => runCli(['modes', ...args]);
@@ -47,6 +48,22 @@ describe('framewright modes', () => {
     expect(asym[3]).toBeGreaterThan(sym[3]);
   }, 60_000);
 
+  it('compares the assembled frames: first twist and bending modes of each layout and their change in % against the first design', () => {
+    const r = cli(['test/analysis/fixtures/symmetric-unibody.yaml', 'test/analysis/fixtures/asymmetric-unibody.yaml', '--modes', '3']);
+    expect(r.code).toBe(0);
+    const row = (name: string) => r.stdout.split('\n').find((l) => l.startsWith(name))!;
+    const sym = row('Mote 3 symmetric test').replace('Mote 3 symmetric test', '').trim().split(/\s+/).map(Number);
+    const m = row('Mote 3 asymmetric test').match(/test\s+(\d+)\s+([+-]\d+(?:\.\d)?) %\s+(\d+)\s+([+-]\d+(?:\.\d)?) %/)!;
+    expect(m).not.toBeNull();
+    const [twist, twistChange, bending, bendingChange] = [Number(m[1]), Number(m[2]), Number(m[3]), Number(m[4])];
+    // The asymmetric layout (short splayed front arms) twists and bends lower (domain.md, "Resonance in flight").
+    expect(twist).toBeLessThan(sym[0]);
+    expect(bending).toBeLessThan(sym[1]);
+    // The change is (b − a) / a, worked from the printed whole hertz to within their rounding.
+    expect(Math.abs(twistChange - (100 * (twist - sym[0])) / sym[0])).toBeLessThan(0.5);
+    expect(Math.abs(bendingChange - (100 * (bending - sym[1])) / sym[1])).toBeLessThan(0.5);
+  }, 120_000);
+
   it('--plot writes one SVG per mode that an independent renderer accepts', () => {
     const dir = mkdtempSync(join(tmpdir(), 'fw-modes-'));
     const r = cli(['designs/tessel-5.yaml', '--part', 'arm', '--modes', '2', '--plot', dir]);
@@ -61,6 +78,31 @@ describe('framewright modes', () => {
     expect(png.status).toBe(0);
     expect(png.stdout.subarray(1, 4).toString()).toBe('PNG');
   }, 60_000);
+
+  it('--plot draws each assembled-frame mode in plan (front up, with a front arrow and scale bar) and from the side, at rest and moved; well-formed and rendered by rsvg-convert', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'fw-modes-'));
+    const r = cli(['designs/tessel-5.yaml', '--modes', '2', '--plot', dir]);
+    expect(r.code).toBe(0);
+    const files = outputNames(dir).filter((f) => f.startsWith('frame-'));
+    expect(files).toEqual(['frame-mode1.svg', 'frame-mode2.svg']);
+    const svg = readFileSync(join(dir, files[0]), 'utf8');
+    expect(xmlProblem(svg)).toBeNull();
+    expect(svg).toMatch(/Hz — Tessel 5 · assembled frame · mode 1/);
+    expect(svg).toMatch(/body twist/);
+    for (const id of ['plan-rest', 'plan-moved', 'side-rest', 'side-moved', 'plan-foot', 'side-foot']) expect(svg).toContain(`id="${id}"`);
+    expect(svg).toContain('class="scale-bar"');
+    expect(svg).toMatch(/>front</);
+    expect(svg).toMatch(/the largest motion drawn as \d+ mm/);
+    // Plan view, front up: the front motors' labels sit above the rear ones (smaller y in SVG); body twist moves diagonal pairs opposite ways.
+    const label = (site: string) => svg.match(new RegExp(`<text[^>]* y="([^"]+)"[^>]*>${site}, (up|down) `))!;
+    expect(Number(label('front-left')[1])).toBeLessThan(Number(label('rear-left')[1]));
+    expect(label('front-left')[2]).toBe(label('rear-right')[2]);
+    expect(label('front-left')[2]).not.toBe(label('front-right')[2]);
+    if (!requireTool(commandAvailable('rsvg-convert'), 'librsvg2-bin')) return;
+    const png = spawnSync('rsvg-convert', [join(dir, files[0])], { encoding: 'buffer' });
+    expect(png.status).toBe(0);
+    expect(png.stdout.subarray(1, 4).toString()).toBe('PNG');
+  }, 120_000);
 
   it('bad input: a clear message naming the flag, exit 2, no stack trace, nothing written', () => {
     const dir = join(mkdtempSync(join(tmpdir(), 'fw-modes-')), 'plots');

@@ -126,3 +126,18 @@ describe('rigid bodies (master–slave elimination) and rotary inertia', () => {
     expect(() => assemble(model(xyz, beams, [1], [], [{ master: 0, slaves: [1] }]))).toThrow(/follows a rigid body/);
   });
 });
+
+describe('springs (soft mounts)', () => {
+  it('a mass on a spring from a held node: f = √(k/m) / 2π (single-DOF oscillator; Thomson, Theory of Vibration, ch. 2), to 1e-9', () => {
+    const [k, massT] = [12.5, 26e-6];
+    const xyz = Float64Array.of(0, 0, 0, 0, 0, 0);
+    const m: FeModel = { ...model(xyz, [], [0], [{ node: 1, massT, inertiaTMm2: [1e-6, 1e-6, 1e-6, 0, 0, 0] }]), springs: [{ nodes: [0, 1], stiffnessNPerMm: [k, 2 * k, 3 * k] }] };
+    // Node 1's rotations carry inertia but no stiffness: hold them.
+    m.fixed.fill(1, 9, 12);
+    const a = assemble(m);
+    const f = hz(lowestEigenpairs(a.k, a.m, 3).values);
+    const expected = [1, 2, 3].map((c) => Math.sqrt((c * k) / massT) / (2 * Math.PI));
+    f.forEach((x, i) => expect(Math.abs(x / expected[i] - 1)).toBeLessThan(1e-9));
+  });
+});
+

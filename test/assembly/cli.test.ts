@@ -94,6 +94,8 @@ describe('bad input: a clear message naming the parameter, exit 2, nothing writt
     ['an unknown component kind', { components: [...componentsWith(0, null), { kind: 'parachute', massG: 20 }] }, /components\.5\.kind: "parachute" must be one of stack, video-transmitter, receiver, battery, camera, antenna/],
     ['a stack on a mount that does not exist', { components: componentsWith(0, { stack: 3 }) }, /components\.0\.stack: 3 names no stack mount \(stacks has 1: 0 to 0\)/],
     ['a motor taller than the room under the prop band', { motor: { heightMm: 30 } }, /motor\.heightMm: 30 reaches into the prop band/],
+    ['a motor kv without the voltage that turns it into a speed', { motor: { kv: 1950 } }, /motor\.supplyVoltageV: \(missing\) is required with motor\.kv/],
+    ['a soft mount on a board stuck to a plate (no screws to ride on)', { components: componentsWith(1, { softMountNPerMm: 15 }) }, /components\.1\.softMountNPerMm: 15 needs screws to ride on/],
   ];
   for (const [what, patch, message] of cases) {
     it(what, () => {

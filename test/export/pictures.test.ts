@@ -92,7 +92,7 @@ describe('pictures in real renderers', () => {
       expect(drawn!.x + drawn!.w, p.name).toBeLessThanOrEqual(viewBox.x + viewBox.w + px);
       expect(drawn!.y + drawn!.h, p.name).toBeLessThanOrEqual(viewBox.y + viewBox.h + px);
     }
-  });
+  }, 240_000); // every picture of every demo design rendered at 8 px/mm: minutes on a loaded 2-core machine
 
   it('chromium: no two text boxes overlap, and every text lies inside its picture (default sans-serif and the wide drawing font)', () => {
     if (!requireTool(commandAvailable('chromium'), 'chromium')) return;

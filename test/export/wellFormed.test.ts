@@ -9,7 +9,8 @@ import { frameOverviewSvg, partToDxf, partToSvg, placedPartsToDxf, plainLine, pr
 import { drawingToPdf } from '../../src/export/pdfDrawing.js';
 import { drawingFonts } from '../../src/cli/fonts.js';
 import { drawingToSvgs, sheetLayoutToSvg } from '../../src/export/svgDrawing.js';
-import { familySheetSvg } from '../../src/export/svgFamily.js';
+import { rangeSheetSvg } from '../../src/export/svgRangeSheet.js';
+import { rangeChartSvg } from '../../src/export/svgRangeChart.js';
 import { frameFindingsAnnotation, markersAnnotation } from '../../src/export/svgFindings.js';
 import { modeShapeSvg } from '../../src/export/svgModes.js';
 import type { Frame } from '../../src/geometry/index.js';
@@ -78,12 +79,14 @@ describe('every writer keeps its output well-formed whatever text reaches it (XM
     }
   });
 
-  it('the quote drawing (SVG pages, nested sheets) and the family sheet', () => {
+  it('the quote drawing (SVG pages, nested sheets), the range sheet and the range chart', () => {
     const quote = quoteParts(frame.parts, { quantity: 2, shop: exampleShop(), toolDiameterMm: 3.175 });
     const set = drawingSet(frame.parts, quote, { design: HOSTILE, revision: HOSTILE, date: null, checks: { errors: 0, warnings: 0 }, generalTolerance: HOSTILE });
     for (const svg of drawingToSvgs(layoutDrawing(set))) expect(xmlProblem(svg)).toBeNull();
     for (const s of quote.nesting.sheets) expect(xmlProblem(sheetLayoutToSvg(s, frame.parts, { title: HOSTILE, note: HOSTILE, marginMm: 10 }))).toBeNull();
-    expect(xmlProblem(familySheetSvg([{ label: HOSTILE, notes: [HOSTILE], frame }], { title: HOSTILE, footer: [HOSTILE] }))).toBeNull();
+    expect(xmlProblem(rangeSheetSvg([{ label: HOSTILE, notes: [HOSTILE], frame }], { title: HOSTILE, footer: [HOSTILE] }))).toBeNull();
+    const point = { label: HOSTILE, propsIn: 5, wheelbaseMm: 220, massG: 110, armFrequencyHz: 250, requiredHz: 240, source: true };
+    expect(xmlProblem(rangeChartSvg([point, { ...point, propsIn: 7, source: false }], [{ propsIn: 5, lowHz: 180, highHz: 600 }, { propsIn: 7, lowHz: 130, highHz: 430 }], { title: HOSTILE, footer: [HOSTILE] }))).toBeNull();
   });
 
   it('a mode-shape plot', () => {

@@ -70,7 +70,7 @@ describe('layout: motors where the design says', () => {
     expect(dist(fr.motorMm, fl.motorMm) - d.props.diameterMm).toBeCloseTo(28.56, 2);
   });
 
-  it('stretched X (arm angle below 45°) spaces motors further front to rear than side to side; H arms run fore and aft', () => {
+  it('stretched X (arm angle below 45°) spaces motors further front to rear than side to side; H arms run from their starts', () => {
     const d = validateDesign(designWith('farline-7.yaml', {}));
     const s = motorSites(d);
     const fr = s.find((x) => x.id === 'front-right')!;
@@ -79,8 +79,20 @@ describe('layout: motors where the design says', () => {
     // 320 mm diagonal at 40°: front–rear 320 cos 40°, side–side 320 sin 40° (trigonometry)
     expect(dist(fr.motorMm, rr.motorMm)).toBeCloseTo(320 * Math.cos((40 * Math.PI) / 180), 9);
     expect(dist(fr.motorMm, fl.motorMm)).toBeCloseTo(320 * Math.sin((40 * Math.PI) / 180), 9);
-    const h = motorSites(validateDesign(designWith('farline-7.yaml', { layout: { kind: 'h', wheelbaseMm: 320, armAngleDeg: 40 } })));
-    for (const site of h) expect(Math.abs(Math.sin(site.armDirRad))).toBeLessThan(1e-12);
+    // H with its arm starts level with the motors (y = 160 sin 40°): every arm runs fore and aft
+    const y = 160 * Math.sin((40 * Math.PI) / 180);
+    const level = motorSites(validateDesign(designWith('farline-7.yaml', { layout: { kind: 'h', wheelbaseMm: 320, armAngleDeg: 40, frontArmStartMm: [40, y], rearArmStartMm: [-40, y] }, body: { widthMm: 2 * y + 10 } })));
+    for (const site of level) {
+      expect(Math.abs(Math.sin(site.armDirRad))).toBeLessThan(1e-12);
+      expect(site.motorAlongMm).toBeCloseTo(160 * Math.cos((40 * Math.PI) / 180) - 40, 9);
+    }
+    // starts on a narrow body: each arm runs from its start (mirrored in y on the right) to its motor
+    const narrow = motorSites(validateDesign(designWith('farline-7.yaml', { layout: { kind: 'h', wheelbaseMm: 320, armAngleDeg: 40, frontArmStartMm: [50, 20], rearArmStartMm: [-45, 18] } })));
+    const hfr = narrow.find((x) => x.id === 'front-right')!;
+    expect(hfr.armLineOriginMm).toEqual([50, -20]);
+    const [mx, my] = hfr.motorMm;
+    expect(hfr.armDirRad).toBeCloseTo(Math.atan2(my + 20, mx - 50), 12);
+    expect(hfr.motorAlongMm).toBeCloseTo(Math.hypot(mx - 50, my + 20), 12);
   });
 
   it('asymmetric layout: front and rear reach and angle as given, two arm parts', () => {
@@ -97,30 +109,34 @@ describe('layout: motors where the design says', () => {
 });
 
 describe('other layouts and arm styles build', () => {
-  it('H layout: arms fore and aft from a wide body, motors where the layout puts them', () => {
+  it('H layout: arms start along a long body of its own width, motors where the layout puts them', () => {
     const raw = designWith('tessel-5.yaml', {
-      layout: { kind: 'h', wheelbaseMm: 220, armAngleDeg: 30 },
-      body: { lengthMm: 70, widthMm: 126, standoffs: { positionsMm: [[28, 30], [28, -30], [-28, 30], [-28, -30]] } },
+      layout: { kind: 'h', wheelbaseMm: 260, armAngleDeg: 30, frontArmStartMm: [40, 16], rearArmStartMm: [-40, 16] },
+      body: { lengthMm: 150, widthMm: 44 },
       arms: { root: { reachMm: 12 } },
-      topPlate: { lengthMm: 70, widthMm: 80, strapSlots: { xPositionsMm: [-12, 12] }, leadOpening: { xMm: -28, lengthMm: 6, widthMm: 14 }, accessoryHoles: [], lightening: [] },
       camera: { forwardOffsetMm: 6 },
     });
     const frame = buildFrame(validateDesign(raw));
     for (const p of frame.parts) expect(loopProblem(p.outline)).toBeNull();
     const arm = frame.parts.find((p) => p.role === 'arm')!;
     expect(arm.quantity).toBe(4);
-    // 220 mm diagonal at 30°: motors at x = ±110 cos 30°, y = ±110 sin 30° (trigonometry)
+    // 260 mm diagonal at 30°: motors at x = ±130 cos 30°, y = ±65 (trigonometry), though the body is 44 mm wide
     for (const s of frame.sites) {
-      expect(Math.abs(s.motorMm[0])).toBeCloseTo(110 * Math.cos(Math.PI / 6), 9);
-      expect(Math.abs(s.motorMm[1])).toBeCloseTo(55, 9);
+      expect(Math.abs(s.motorMm[0])).toBeCloseTo(130 * Math.cos(Math.PI / 6), 9);
+      expect(Math.abs(s.motorMm[1])).toBeCloseTo(65, 9);
+    }
+    // every arm copy's root end lies on the body plate's outline region (|x| ≤ 75, |y| ≤ 22)
+    for (const pl of arm.placements) {
+      expect(Math.abs(pl.translateMm[0])).toBeLessThanOrEqual(75);
+      expect(Math.abs(pl.translateMm[1])).toBeLessThanOrEqual(22);
     }
   });
-  it('straight, tapered and guarded arms build; a pad that misses the body is refused naming body.widthMm', () => {
+  it('straight, tapered and guarded arms build; an H arm start off the body is refused naming it', () => {
     for (const arms of [{ style: 'straight', widthMm: 12, truss: undefined }, { style: 'tapered', widthMm: 12, tipWidthMm: 10, truss: undefined }, { tipGuardMm: 4 }]) {
       const f = buildFrame(validateDesign(designWith('tessel-5.yaml', { arms })));
       for (const p of f.parts) expect(loopProblem(p.outline)).toBeNull();
     }
-    expect(() => buildFrame(validateDesign(designWith('farline-7.yaml', { layout: { kind: 'h', wheelbaseMm: 320, armAngleDeg: 40 } })))).toThrow(/body\.widthMm: 56 cannot build the bottom plate outline/);
+    expect(() => validateDesign(designWith('farline-7.yaml', { layout: { kind: 'h', wheelbaseMm: 320, armAngleDeg: 40, frontArmStartMm: [50, 40], rearArmStartMm: [-50, 20] } }))).toThrow(/layout\.frontArmStartMm: \[50,40\] must lie on the body \(\|x\| ≤ 75 mm, \|y\| ≤ 28 mm/);
   });
 });
 

@@ -4,7 +4,7 @@ import { arc, dist, distanceToLoop, lengthOf, line, pointAt, signedArea, tangent
 import { overlap } from '../../src/import/clean.js';
 import { overlappingPairs } from '../../src/import/spatial.js';
 import { headerValue, parseDocument } from '../../src/import/document.js';
-import { bulgeSegment, DxfReadError, ellipseCurve, fitArcs, importDxf, nurbsCurve, parseDrawingUnit, unitFromInsunits } from '../../src/import/index.js';
+import { bulgeSegment, DEFAULT_LIMITS, DxfReadError, ellipseCurve, fitArcs, importDxf, nurbsCurve, parseDrawingUnit, unitFromInsunits } from '../../src/import/index.js';
 import { fixtureText } from './helpers.js';
 
 /** A minimal R12-style ASCII DXF around the given ENTITIES pairs. */
@@ -118,7 +118,19 @@ describe('robust reading: a clear DxfReadError, never a crash or a hang', () => 
   it('absurd coordinates and entity counts hit the limits', () => {
     expect(read(dxf('0\nLINE\n8\n0\n10\n1e300\n20\n0\n11\n1\n21\n1\n'))).toThrow(/beyond the reader's limit/);
     const many = '0\nLINE\n8\n0\n10\n0\n20\n0\n11\n1\n21\n1\n'.repeat(50);
-    expect(() => importDxf(dxf(many), { name: 'p', limits: { maxPairs: 1e6, maxEntities: 20, maxBlockDepth: 8, maxCoordinateMm: 1e6 } })).toThrow(/more than 20 entities/);
+    expect(() => importDxf(dxf(many), { name: 'p', limits: { ...DEFAULT_LIMITS, maxEntities: 20 } })).toThrow(/more than 20 entities/);
+  });
+
+  it('contour and segment limits refuse before the slow steps, naming the limit (and a caller\'s reason)', () => {
+    // 30 circles: 30 contours by themselves, known right after exploding.
+    const circles = Array.from({ length: 30 }, (_, i) => `0\nCIRCLE\n8\n0\n10\n${10 * i}\n20\n0\n40\n2\n`).join('');
+    expect(() => importDxf(dxf(circles), { name: 'p', limits: { ...DEFAULT_LIMITS, maxContours: 20 } })).toThrow(/at least \d+ closed contours \(outlines and holes\), more than 20, the reader's limit/);
+    // 30 squares of 4 lines: 30 contours once chained.
+    const sq = (x: number) => [[x, 0, x + 5, 0], [x + 5, 0, x + 5, 5], [x + 5, 5, x, 5], [x, 5, x, 0]].map(([a, b, c, d]) => `0\nLINE\n8\n0\n10\n${a}\n20\n${b}\n11\n${c}\n21\n${d}\n`).join('');
+    const squares = Array.from({ length: 30 }, (_, i) => sq(10 * i)).join('');
+    expect(() => importDxf(dxf(squares), { name: 'p', limits: { ...DEFAULT_LIMITS, maxContours: 20 } })).toThrow(/has 30 closed contours/);
+    expect(() => importDxf(dxf(squares), { name: 'p', limits: { ...DEFAULT_LIMITS, maxSegments: 100, reason: 'a test allows 100' } })).toThrow(/more than 100 lines and arcs, the limit here: a test allows 100/);
+    expect(importDxf(dxf(squares), { name: 'p' }).parts.length).toBe(30);
   });
 
   it('a block that inserts itself, and an array insert of absurd size', () => {

@@ -11,14 +11,17 @@ const fieldsOf = (sections: readonly FormSection[]): FormField[] => sections.fla
 
 /**
  * The leaves of the JSON Schema (as zod wrote it) for a given design value, walked here without the
- * form's code: maps by `properties`, `oneOf` by the value's `kind`, lists of maps and named entries
+ * form's code: maps by `properties`, `oneOf` by the value's discriminator, lists of maps and named entries
  * item by item as the design has them; everything else is one leaf.
  */
 function schemaLeaves(n: SchemaNode, value: unknown, path: string, out: string[]): void {
   const at = (k: string | number): string => (path ? `${path}.${k}` : String(k));
   if (n.oneOf) {
-    const kind = (value as Record<string, unknown> | undefined)?.kind;
-    const alt = n.oneOf.find((a) => a.properties?.kind?.const === kind) ?? n.oneOf[0];
+    // the discriminator: the key every alternative fixes (kind, or construction for arms); absent, the defaulted one
+    const alts = n.oneOf;
+    const key = Object.keys(alts[0].properties ?? {}).find((k) => alts.every((a) => a.properties?.[k]?.const !== undefined))!;
+    const kind = (value as Record<string, unknown> | undefined)?.[key];
+    const alt = alts.find((a) => a.properties?.[key]?.const === kind) ?? alts.find((a) => a.properties?.[key]?.default !== undefined) ?? alts[0];
     return schemaLeaves(alt, value, path, out);
   }
   const rec = (value ?? {}) as Record<string, unknown>;

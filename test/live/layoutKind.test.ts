@@ -51,9 +51,16 @@ describe('changing layout.kind keeps the frame where it was', () => {
     expect(wheelbaseOf(motorSites(parseDesignText(back)))).toBeCloseTo(wheelbaseOf(motorSites(d)), 0);
   });
 
-  it('x → h keeps wheelbase and angle (the same motor rectangle)', () => {
+  it('x → h keeps wheelbase and angle (the same motor rectangle), its arms starting at the centre; h → x drops the starts', () => {
     const src = demoText('tessel-5.yaml');
     const out = switchKind(src, 'h');
-    expect(out).toBe(src.replace('kind: x', 'kind: h'));
+    expect(YAML.parse(out).layout).toEqual({ ...YAML.parse(src).layout, kind: 'h', frontArmStartMm: [0, 0], rearArmStartMm: [0, 0] });
+    // the same motors, the same arm lines (from the centre to each motor)
+    const a = motorSites(parseDesignText(src));
+    motorSites(parseDesignText(out)).forEach((s, i) => {
+      expect(s.motorMm[0]).toBeCloseTo(a[i].motorMm[0], 9);
+      expect(s.armDirRad).toBeCloseTo(a[i].armDirRad, 9);
+    });
+    expect(YAML.parse(switchKind(out, 'x')).layout).toEqual(YAML.parse(src).layout);
   });
 });

@@ -157,11 +157,12 @@ describe('the running live server', () => {
   });
 
   it('a bad value is refused with its field named, and the file is left exactly as it was', async () => {
-    const r = await send(live.port, 'POST', '/api/edit', JSON_TYPE, editBody([{ path: 'arms.thicknessMm', text: '40' }]));
+    // Mote 3 is a unibody frame: its arms' thickness is the bottom plate's (arms.thicknessMm is no field of it)
+    const r = await send(live.port, 'POST', '/api/edit', JSON_TYPE, editBody([{ path: 'body.thicknessMm', text: '40' }]));
     expect(r.status).toBe(200);
     const answer = JSON.parse(r.body) as { ok: boolean; problems: Array<{ path: string; message: string }> };
     expect(answer.ok).toBe(false);
-    expect(answer.problems[0].path).toBe('arms.thicknessMm');
+    expect(answer.problems[0].path).toBe('body.thicknessMm');
     expect(answer.problems[0].message).toMatch(/0\.5 to 8/);
     expect(readFileSync(design, 'utf8')).toBe(original);
   });

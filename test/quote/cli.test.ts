@@ -15,7 +15,7 @@ type Report = {
   frames: number;
   checks: { errors: number; warnings: number } | null;
   parts: Array<{ name: string; total: number; toolPathMm: number; pierces: number }>;
-  nesting: { groups: Array<{ thicknessMm: number; sheets: number; utilisation: number; areaBoundSheets: number }>; sheets: Array<{ index: number; thicknessMm: number; parts: number; sizeMm: [number, number] }> };
+  nesting: { groups: Array<{ thicknessMm: number; sheets: number; utilisation: number; lowerBoundSheets: number; boundSheets: number; minGapMm: number | null }>; sheets: Array<{ index: number; thicknessMm: number; parts: number; sizeMm: [number, number] }> };
   batch: { cost: { total: number; material: number }; timeMin: { totalMin: number } };
   perFrame: { cost: number };
   files: string[];
@@ -48,7 +48,11 @@ describe('framewright quote (the built CLI)', () => {
     expect(report.parts.map((p) => p.name)).toEqual(frame.parts.map((p) => p.name));
     for (const p of report.parts) expect(p.total).toBe(frame.parts.find((x) => x.name === p.name)!.quantity * 2);
     expect(new Set(report.nesting.groups.map((g) => g.thicknessMm))).toEqual(new Set(frame.parts.map((p) => p.thicknessMm)));
-    for (const g of report.nesting.groups) expect(g.sheets).toBeGreaterThanOrEqual(Math.ceil(g.areaBoundSheets));
+    for (const g of report.nesting.groups) {
+      expect(g.sheets).toBeGreaterThanOrEqual(g.lowerBoundSheets);
+      expect(g.lowerBoundSheets).toBe(Math.max(1, Math.ceil(g.boundSheets - 1e-9)));
+      expect(g.minGapMm!).toBeGreaterThanOrEqual(3.175 + 2);
+    }
     expect(report.batch.cost.total).toBeGreaterThan(report.batch.cost.material);
     expect(report.perFrame.cost).toBeCloseTo(report.batch.cost.total / 2, 3);
   });
@@ -111,6 +115,7 @@ describe('framewright quote: bad input is exit code 2, a clear message, no files
     ['sheet text', ['--qty', '1', '--sheet', 'big'], /--sheet: "big" must be WIDTHxHEIGHT in mm/],
     ['sheet too small', ['--qty', '1', '--sheet', '100x80'], /sheet: "100x80" is too small for part [a-z-]+ \(with 10 mm margins/],
     ['date', ['--qty', '1', '--date', '2026-02-30'], /--date: "2026-02-30" must be a calendar date/],
+    ['time limit', ['--qty', '1', '--time-limit', '0.5'], /--time-limit: "0\.5" must be a number of seconds from 1 to 3600/],
   ];
   for (const [name, args, message] of cases) {
     it(name, () => {
@@ -122,6 +127,26 @@ describe('framewright quote: bad input is exit code 2, a clear message, no files
       expect(existsSync(out)).toBe(false);
     });
   }
+
+  it('a shop profile with turns the nesting cannot use names the key', () => {
+    const shop = join(root, 'bad-turns.yaml');
+    writeFileSync(shop, `${readFileSync('designs/hollin-row-shop.yaml', 'utf8')}nestTurnsDeg: [45]\n`);
+    const out = join(root, 'bad-turns-out');
+    const r = runCli(['quote', 'designs/tessel-5.yaml', '--qty', '1', '--shop', shop, '--out', out]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/shop\.nestTurnsDeg\.0: 45 must be 0, 90, 180 or 270/);
+    expect(r.stderr).not.toMatch(STACK_LINE);
+    expect(existsSync(out)).toBe(false);
+  });
+
+  it('a shop that allows only half turns gets a layout with 0° and 180° only', () => {
+    const shop = join(root, 'half-turns.yaml');
+    writeFileSync(shop, `${readFileSync('designs/hollin-row-shop.yaml', 'utf8')}nestTurnsDeg: [0, 180]\n`);
+    const r = runCli(['quote', 'designs/tessel-5.yaml', '--qty', '2', '--shop', shop, '--out', join(root, 'half-turns-out'), '--json']);
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout) as { nesting: { sheets: Array<{ placements: Array<{ rotationDeg: number }> }> } };
+    for (const sh of report.nesting.sheets) for (const p of sh.placements) expect([0, 180]).toContain(p.rotationDeg);
+  });
 
   it('a bad shop profile names the shop path, value and range', () => {
     const shop = join(root, 'bad-shop.yaml');

@@ -1,10 +1,12 @@
 """Independent check of a nested sheet layout with Shapely (GEOS).
 
-stdin: {"spacing": s, "margin": m, "sheets": [{"width": W, "height": H, "parts": [[[x, y], ...], ...]}]}
-(each part its outline polygon in sheet coordinates).
-stdout: {"minGap": smallest distance between two parts on one sheet (null with < 2 parts),
+stdin: {"spacing": s, "margin": m, "sheets": [{"width": W, "height": H, "parts": [part, ...]}]}
+(each part its outline polygon [[x, y], ...] in sheet coordinates, or {"shell": outline, "holes": [inner
+contour, ...]} when other parts may sit in its windows; the material is then the outline minus holes).
+"inWindows" counts parts that lie inside the outline of another part (in one of its windows).
+stdout: {"minGap": smallest distance between the material of two parts on one sheet (null with < 2 parts),
          "overlaps": pairs whose interiors intersect, "outside": parts not inside the margin box,
-         "minEdge": smallest distance from a part to the sheet edge, "parts": count}
+         "minEdge": smallest distance from a part to the sheet edge, "parts": count, "inWindows": n}
 """
 import json
 import sys
@@ -19,8 +21,10 @@ overlaps = 0
 outside = 0
 min_edge = None
 count = 0
+in_windows = 0
 for sheet in data["sheets"]:
-    polys = [Polygon(p) for p in sheet["parts"]]
+    polys = [Polygon(p["shell"], p.get("holes", [])) if isinstance(p, dict) else Polygon(p) for p in sheet["parts"]]
+    shells = [Polygon(p.exterior) for p in polys]
     count += len(polys)
     inner = box(m, m, sheet["width"] - m, sheet["height"] - m)
     for p in polys:
@@ -39,6 +43,8 @@ for sheet in data["sheets"]:
                 continue
             if p.intersection(polys[j]).area > 1e-9:
                 overlaps += 1
+            if shells[i].contains(polys[j]) or shells[j].contains(p):
+                in_windows += 1
             d = p.distance(polys[j])
             min_gap = d if min_gap is None else min(min_gap, d)
-json.dump({"minGap": min_gap, "overlaps": overlaps, "outside": outside, "minEdge": min_edge, "parts": count}, sys.stdout)
+json.dump({"minGap": min_gap, "overlaps": overlaps, "outside": outside, "minEdge": min_edge, "parts": count, "inWindows": in_windows}, sys.stdout)

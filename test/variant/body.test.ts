@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import YAML from 'yaml';
-import { makeVariant } from '../../src/variant/index.js';
+import { makeVariant, planVariant, VariantRefusal } from '../../src/variant/index.js';
 import { demoText, motorsFromRaw, propMmFromRaw } from './helpers.js';
 
 /**
@@ -33,7 +33,7 @@ describe('body length: only what the new clearances need', () => {
     const auto = makeVariant(demoText('tessel-5'), { props: '7in' });
     const given = Math.ceil((auto.wheelbase.minimumMm + auto.wheelbase.bodyKeptMm) / 2);
     expect(given).toBeLessThan(auto.wheelbase.bodyKeptMm);
-    const v = makeVariant(demoText('tessel-5'), { props: '7in', wheelbase: given });
+    const v = planVariant(demoText('tessel-5'), { props: '7in', wheelbase: given });
     const raw = YAML.parse(v.text);
     const need = Math.min(standoffClearance(src), src.props.minTipGapMm);
     expect(raw.layout.wheelbaseMm).toBe(given);
@@ -51,5 +51,20 @@ describe('body length: only what the new clearances need', () => {
     expect(raw.body.widthMm).toBe(src.body.widthMm);
     expect(raw.stacks).toEqual(src.stacks);
     expect(raw.topPlate.strapSlots.strapWidthMm).toBe(src.topPlate.strapSlots.strapWidthMm);
+  });
+
+  it('a body shortened that much no longer holds its parts clear of the props: refused, pointing to --wheelbase auto', () => {
+    const auto = makeVariant(demoText('tessel-5'), { props: '7in' });
+    const given = Math.ceil((auto.wheelbase.minimumMm + auto.wheelbase.bodyKeptMm) / 2);
+    let refusal: VariantRefusal | null = null;
+    try {
+      makeVariant(demoText('tessel-5'), { props: '7in', wheelbase: given });
+    } catch (e) {
+      refusal = e as VariantRefusal;
+    }
+    expect(refusal).toBeInstanceOf(VariantRefusal);
+    expect(refusal!.constraint).toMatch(/every check \(\d+ errors? on the lightest arm that meets the size rule: /);
+    expect(refusal!.alternative).toMatch(/--wheelbase auto/);
+    expect(refusal!.attempt!.errors).toBeGreaterThan(0);
   });
 });

@@ -67,29 +67,50 @@ const CASES: Array<[string, string]> = [
   ['mote-3', '4in'],
 ];
 
+// ISO 273 medium series clearance holes (reference-values.md), written out here.
+const ISO273_MEDIUM: Record<string, number> = { M2: 2.4, 'M2.5': 2.9, M3: 3.4 };
+
+/** Motor bolt holes: every round one has the ISO 273 clearance of the file's bolt and sits on one of the file's circles. */
+function motorHolesMatch(frame: Frame, raw: any): void {
+  let n = 0;
+  for (const p of frame.parts) {
+    for (const bore of p.features.filter((f) => f.purpose === 'motor-bore')) {
+      const c = bore.centerMm!;
+      for (const f of p.features.filter((x) => x.purpose === 'motor-bolt' && x.centerMm && Math.hypot(x.centerMm[0] - c[0], x.centerMm[1] - c[1]) < 20)) {
+        expect(f.diameterMm).toBeCloseTo(ISO273_MEDIUM[raw.motor.boltSize], 12);
+        const r = 2 * Math.hypot(f.centerMm![0] - c[0], f.centerMm![1] - c[1]);
+        expect(raw.motor.boltCircleMm.some((d: number) => Math.abs(d - r) < 1e-9)).toBe(true);
+        n++;
+      }
+    }
+  }
+  expect(n).toBeGreaterThan(0);
+}
+
 describe('hardware does not scale', () => {
   for (const [demo, props] of CASES) {
-    it(`${demo} → ${props}: holes, circles, squares, slots and camera width byte-identical`, () => {
+    it(`${demo} → ${props}: holes, squares, slots and camera width byte-identical; motor holes as the motor class says`, () => {
       const v = makeVariant(demoText(demo), { props });
-      for (const purpose of HARDWARE) expect(shapes(v.frame, purpose), purpose).toEqual(shapes(v.sourceFrame, purpose));
-      expect(motorPatterns(v.frame)).toEqual(motorPatterns(v.sourceFrame));
-      expect(motorPatterns(v.frame).length).toBeGreaterThan(0);
+      for (const purpose of HARDWARE.filter((p) => !p.startsWith('motor'))) expect(shapes(v.frame, purpose), purpose).toEqual(shapes(v.sourceFrame, purpose));
       expect(stackSquares(v.frame)).toEqual(stackSquares(v.sourceFrame));
       expect(cameraGap(v.frame)).toBe(cameraGap(v.sourceFrame));
-      // and in the file: the hardware sections are the same values
       const a = YAML.parse(demoText(demo));
       const b = YAML.parse(v.text);
-      expect(b.motor).toEqual(a.motor);
+      motorHolesMatch(v.frame, b);
+      // a motor mount the new class already takes keeps its holes exactly
+      if (JSON.stringify(a.motor.boltCircleMm) === JSON.stringify(b.motor.boltCircleMm) && a.motor.boltSize === b.motor.boltSize && !!a.motor.slotted === !!b.motor.slotted) {
+        expect(motorPatterns(v.frame)).toEqual(motorPatterns(v.sourceFrame));
+      }
+      // and in the file: the hardware sections are the same values
       expect(b.stacks).toEqual(a.stacks);
       expect(b.camera).toEqual(a.camera);
-      expect(b.arms.root).toEqual(a.arms.root);
-      expect(b.body.standoffs.boltSize).toEqual(a.body.standoffs.boltSize);
-      expect(b.body.standoffs.heightMm).toEqual(a.body.standoffs.heightMm);
-      expect(b.topPlate.strapSlots.strapWidthMm).toEqual(a.topPlate.strapSlots.strapWidthMm);
+      if (a.arms.root) for (const k of ['boltCount', 'boltSpacingMm', 'boltSize', 'edgeMarginMm']) expect(b.arms.root[k]).toEqual(a.arms.root[k]);
+      expect(b.body.standoffs).toEqual(a.body.standoffs);
+      expect(b.topPlate.strapSlots).toEqual(a.topPlate.strapSlots);
     });
   }
 
-  it('a motor class change swaps only the motor pattern (motor table, domain.md common practice)', () => {
+  it('a named motor class swaps only the motor pattern (motor table, domain.md common practice)', () => {
     const v = makeVariant(demoText('tessel-5'), { props: '3in', motor: '1404' });
     // domain.md: 12xx–18xx motors take 9 or 12 mm circles with M2; a one-circle design gets one circle
     const raw = YAML.parse(v.text);

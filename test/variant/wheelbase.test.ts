@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import YAML from 'yaml';
 import { motorSites } from '../../src/geometry/layout.js';
 import { parseDesignText } from '../../src/params/design.js';
-import { makeVariant, minWheelbaseMm, tipGaps } from '../../src/variant/index.js';
+import { planVariant, minWheelbaseMm, tipGaps } from '../../src/variant/index.js';
 import { adjacentGapFromRaw, demoText, propMmFromRaw, withSections } from './helpers.js';
 
 // Layouts of every kind. A large tip gap (40 mm) makes the tip gap, not the body hardware, set the
@@ -11,15 +11,13 @@ const LAYOUTS: Record<string, unknown> = {
   'true X': { kind: 'x', wheelbaseMm: 224, armAngleDeg: 45 },
   'stretched X': { kind: 'x', wheelbaseMm: 240, armAngleDeg: 36 },
   'squashed X': { kind: 'x', wheelbaseMm: 240, armAngleDeg: 57 },
-  H: { kind: 'h', wheelbaseMm: 250, armAngleDeg: 25 },
+  H: { kind: 'h', wheelbaseMm: 250, armAngleDeg: 25, frontArmStartMm: [30, 12], rearArmStartMm: [-30, 12] },
   asymmetric: { kind: 'asymmetric', front: { reachMm: 105, angleDeg: 62 }, rear: { reachMm: 130, angleDeg: 38 } },
 };
 
 function designFor(layout: any, gapMm: number): string {
   const raw = YAML.parse(demoText('tessel-5'));
-  // An H frame's body must reach the arm lines (motor y = 125·sin 25° = 52.8 mm).
-  const body = layout.kind === 'h' ? { ...raw.body, widthMm: 100 } : raw.body;
-  return withSections(demoText('tessel-5'), { layout, body, props: { ...raw.props, minTipGapMm: gapMm } });
+  return withSections(demoText('tessel-5'), { layout, props: { ...raw.props, minTipGapMm: gapMm } });
 }
 
 describe('auto wheelbase', () => {
@@ -36,7 +34,7 @@ describe('auto wheelbase', () => {
     for (const props of ['6in', '8in']) {
       it(`${name}, ${props}: exact with step 0, rounded up with step 1`, () => {
         const text = designFor(layout, 40);
-        const exact = makeVariant(text, { props, wheelbaseStepMm: 0 });
+        const exact = planVariant(text, { props, wheelbaseStepMm: 0 });
         expect(exact.wheelbase.bound).toBe('tip gap');
         const raw = YAML.parse(exact.text);
         const P = propMmFromRaw(raw.props.diameter);
@@ -53,7 +51,7 @@ describe('auto wheelbase', () => {
           expect(raw.layout.armAngleDeg).toBe((layout as any).armAngleDeg);
         }
 
-        const stepped = makeVariant(text, { props, wheelbaseStepMm: 1 });
+        const stepped = planVariant(text, { props, wheelbaseStepMm: 1 });
         const w = stepped.wheelbase.chosenMm;
         expect(Number.isInteger(w)).toBe(true);
         expect(w).toBeGreaterThanOrEqual(exact.wheelbase.minimumMm);
@@ -66,7 +64,7 @@ describe('auto wheelbase', () => {
   it('a wheelbase below the tip-gap minimum is refused, naming the minimum', () => {
     const text = designFor(LAYOUTS['true X'], 6);
     const min = (177.8 + 6) * Math.SQRT2; // true X: (P + g)·√2, 7in = 177.8 mm
-    expect(() => makeVariant(text, { props: '7in', wheelbase: 250 })).toThrow(new RegExp(`--wheelbase: 250 is below the clearance minimum ${min.toFixed(2)} mm`));
-    expect(() => makeVariant(text, { props: '7in', wheelbase: Math.ceil(min) })).not.toThrow();
+    expect(() => planVariant(text, { props: '7in', wheelbase: 250 })).toThrow(new RegExp(`--wheelbase: 250 is below the clearance minimum ${min.toFixed(2)} mm`));
+    expect(() => planVariant(text, { props: '7in', wheelbase: Math.ceil(min) })).not.toThrow();
   });
 });

@@ -25,12 +25,12 @@ type ModesCliOptions = {
 };
 
 const CAUTIONS = [
-  'Natural frequencies and deflections are estimates from a plate finite-element model of each part (no fasteners, standoffs or electronics stiffness), not a certification.',
+  'Natural frequencies and deflections are estimates from a finite-element model (plates as shells, bolted joints as rigid screw-head footprints, standoffs as beams, motors and components as rigid masses), not a certification: real joints slip and bed in, which lowers the modes. Flight tests decide.',
   'Test a new frame with props off first. Cutting carbon plate makes respirable, electrically conductive dust: cut wet or with on-tool extraction (H-class/HEPA), wear a P3/P100 respirator and eye protection; follow local regulations and the shop practice.',
 ];
 
 const METHOD =
-  'Flat shell triangles on a constrained Delaunay mesh of the exact outline and holes: discrete Kirchhoff–Mindlin bending (DKT with transverse shear, κ = 5/6, G13 = G12) and Allman membrane, orthotropic laminate stiffness from the material constants rotated by the weave angle (classical laminate theory), lumped mass, shift-invert block Lanczos on an RCM-ordered envelope Cholesky factor.';
+  'Flat shell triangles on a constrained Delaunay mesh of the exact outline and holes: discrete Kirchhoff–Mindlin bending (DKT with transverse shear, κ = 5/6, G13 = G12) and Allman membrane, orthotropic laminate stiffness from the material constants rotated by the weave angle (classical laminate theory), lumped mass; the assembled frame adds rigid screw-head footprints through the stack, Timoshenko beam standoffs and rigid motor and component masses; shift-invert block Lanczos on a supernodal sparse Cholesky factor in an approximate-minimum-degree order.';
 
 /** A whole number or decimal flag within a range; bad values are usage errors naming the flag. */
 function numberFlag(name: string, text: string | undefined, min: number, max: number, integer = false): number | undefined {
@@ -44,8 +44,11 @@ function numberFlag(name: string, text: string | undefined, min: number, max: nu
 
 type Loaded = Readonly<{ label: string; result: FrameModes }>;
 
+/** Assembled-frame modes solved for a comparison, at least (enough to hold the first twist and bending modes). */
+const COMPARED_FRAME_MODES = 8;
+
 /** Analyse one input: a design file (every part, arms, unibody body) or a DXF drawing (each part, free–free). */
-async function analyse(path: string, opts: ModesCliOptions): Promise<Loaded> {
+async function analyse(path: string, opts: ModesCliOptions, comparing = false): Promise<Loaded> {
   const common = {
     modes: numberFlag('--modes', opts.modes, 1, 50, true) ?? 6,
     meshSizeMm: numberFlag('--mesh-size', opts.meshSize, 0.3, 20),
@@ -59,15 +62,18 @@ async function analyse(path: string, opts: ModesCliOptions): Promise<Loaded> {
   try {
     if (/\.dxf$/i.test(path)) return { label: basename(path), result: await dxfModes(path, opts, options) };
     const design = await readDesign(path);
-    const [{ buildFrame }, { frameModes }] = await Promise.all([import('../../geometry/index.js'), import('../../analysis/index.js')]);
+    const [{ buildFrame }, { frameModes, defaultMeshSizeMm }, { refuseLargeMeshes }] = await Promise.all([import('../../geometry/index.js'), import('../../analysis/index.js'), import('../../analysis/meshLimit.js')]);
     let frame = buildFrame(design);
     if (opts.part) {
       const keep = frame.parts.filter((p) => p.name === opts.part);
       if (!keep.length) throw new UsageError(`--part ${JSON.stringify(opts.part)}: no such part in ${path} (parts: ${frame.parts.map((p) => p.name).join(', ')})`);
-      // A unibody's body model is the bottom plate; keep it only when that is the part asked for.
-      frame = { ...frame, parts: keep, design: keep.some((p) => p.role === 'bottom') ? frame.design : { ...frame.design, arms: { ...frame.design.arms, construction: 'separate' } } };
+      // A unibody's body model is the bottom plate: it runs only when that is the part asked for.
+      frame = { ...frame, parts: keep };
     }
-    return { label: frame.name, result: frameModes(frame, { ...options, assembled: !opts.part }) };
+    refuseLargeMeshes(frame.parts, (p) => options.meshSizeMm ?? defaultMeshSizeMm(p), !opts.part);
+    // A comparison needs each frame's first twist and bending modes: ask for at least eight.
+    const frameCount = comparing ? Math.max(options.modes ?? 6, COMPARED_FRAME_MODES) : undefined;
+    return { label: frame.name, result: frameModes(frame, { ...options, assembled: !opts.part, ...(frameCount ? { assembledModes: frameCount } : {}) }) };
   } catch (e) {
     if (e instanceof RangeError) throw new UsageError(`${path}: ${e.message}`);
     const { FloatingPartError } = await import('../../analysis/index.js');
@@ -78,8 +84,15 @@ async function analyse(path: string, opts: ModesCliOptions): Promise<Loaded> {
 
 async function dxfModes(path: string, opts: ModesCliOptions, options: Record<string, number>): Promise<FrameModes> {
   const text = readDxfText(path);
-  const [{ importDxfFile }, { armModes, armTipDeflection, partModes }] = await Promise.all([import('../dxfInput.js'), import('../../analysis/index.js')]);
-  const { imported } = importDxfFile(path, text, opts, 'modes depend on it');
+  const [{ importDxfFile }, { armModes, armTipDeflection, partModes, defaultMeshSizeMm }, { MAX_MESH_NODES, refuseLargeMeshes }, { DEFAULT_LIMITS }] = await Promise.all([
+    import('../dxfInput.js'),
+    import('../../analysis/index.js'),
+    import('../../analysis/meshLimit.js'),
+    import('../../import/limits.js'),
+  ]);
+  // Every line and arc becomes at least one mesh node: a drawing beyond the mesh limit is refused while it is read.
+  const limits = { ...DEFAULT_LIMITS, maxSegments: MAX_MESH_NODES, reason: `modes meshes at most ${MAX_MESH_NODES} nodes in one model and every line and arc of the drawing needs one` };
+  const { imported } = importDxfFile(path, text, opts, 'modes depend on it', limits);
   let parts: Part[] = imported.parts;
   if (opts.part) parts = parts.filter((p) => p.name === opts.part);
   if (!parts.length) throw new UsageError(`${path}: no closed part${opts.part ? ` named ${JSON.stringify(opts.part)}` : ''} to analyse`);
@@ -88,6 +101,7 @@ async function dxfModes(path: string, opts: ModesCliOptions, options: Record<str
     const broken = imported.findings.find((f) => f.severity === 'error' && f.rule.startsWith('dxf-') && f.part === p.name);
     if (broken) throw new UsageError(`${path}: part ${p.name} cannot be analysed: ${broken.rule}: ${broken.message.split('\n')[0]} (\`framewright check ${path}\` lists every problem)`);
   }
+  refuseLargeMeshes(parts, (p) => options.meshSizeMm ?? defaultMeshSizeMm(p));
   const results = parts.map((p) => partModes(p, options));
   // A drawing that marks motor and root bolts (it does not, unless a sidecar says so) would also get arm results.
   const arms: ArmResult[] = parts
@@ -214,16 +228,16 @@ function comparisonText(items: readonly Loaded[]): string {
   const twist = (r: FrameModes) => firstOf(r, ['body twist']);
   const bending = (r: FrameModes) => firstOf(r, ['pitch bending', 'roll bending']);
   const base = items[0].result;
-  const change = (x: number | undefined, ref: number | undefined) => (x === undefined || ref === undefined || ref === 0 ? '' : `${x >= ref ? '+' : ''}${fmt((100 * (x - ref)) / ref, 1)} %`);
+  const change = (r: FrameModes, x: number | undefined, ref: number | undefined) => (r === base || x === undefined || ref === undefined || ref === 0 ? '' : `${x >= ref ? '+' : ''}${fmt((100 * (x - ref)) / ref, 1)} %`);
   const header = ['design', 'frame twist Hz', 'vs first', 'frame bending Hz', 'vs first', 'bottom plate 1st Hz', 'arm+motor 1st Hz', 'body+motors 1st Hz', 'alternating mode Hz', 'stack tilt °/mm', 'tip defl. mm', 'body twist °'];
   const rows = items.map(({ label, result: r }) => {
     const alt = alternate(r.body);
     return [
       label,
       cell(twist(r), 0),
-      change(twist(r), twist(base)),
+      change(r, twist(r), twist(base)),
       cell(bending(r), 0),
-      change(bending(r), bending(base)),
+      change(r, bending(r), bending(base)),
       cell(bottomFree(r), 0),
       cell(firstArm(r), 0),
       cell(r.body?.modal.modes[0]?.frequencyHz, 0),
@@ -239,9 +253,16 @@ function comparisonText(items: readonly Loaded[]): string {
 const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '');
 
 async function plotFiles(dir: string, prefix: string, r: FrameModes, parts: ReadonlyMap<string, Part>): Promise<OutputFile[]> {
-  const [{ modeShapeSvg }, { frontWord }] = await Promise.all([import('../../export/svgModes.js'), import('../../export/svgPart.js')]);
+  const [{ modeShapeSvg }, { frontWord }, { frameModeSvg }, { frameModeShape }] = await Promise.all([import('../../export/svgModes.js'), import('../../export/svgPart.js'), import('../../export/svgFrameModes.js'), import('../../analysis/frameShape.js')]);
+  const frame = r.assembled;
+  const framePictures: OutputFile[] = frame
+    ? frame.modes.map((mode) => ({
+        path: join(dir, `${prefix}frame-mode${mode.index}.svg`),
+        data: frameModeSvg({ title: `${r.frame} · assembled frame · mode ${mode.index}`, frequencyHz: mode.frequencyHz, name: mode.name, notes: [frameModeNotes(mode)], shape: frameModeShape(frame, mode) }),
+      }))
+    : [];
   const all: ModalResult[] = [...r.parts, ...r.arms.map((a) => a.modal), ...(r.body ? [r.body.modal] : [])];
-  return all.flatMap((m) => {
+  return framePictures.concat(all.flatMap((m) => {
     const part = parts.get(m.part);
     const loops = part ? [part.outline, ...part.features.map((f) => f.loop)] : [];
     return m.modes.map((mode) => {
@@ -265,7 +286,20 @@ async function plotFiles(dir: string, prefix: string, r: FrameModes, parts: Read
         }),
       };
     });
-  });
+  }));
+}
+
+/** One line under a frame mode's picture: what the gyro and the camera feel, and where the strain energy is. */
+function frameModeNotes(m: FrameModalResult['modes'][number]): string {
+  const top = Object.entries(m.sharesByPart).sort((x, y) => y[1] - x[1] || x[0].localeCompare(y[0]))[0];
+  return [
+    m.flightController ? `flight controller tilts ${fmt(m.flightController.rotationDegPerMm, 3)}°/mm` : '',
+    m.camera ? `camera ${fmt(m.camera.rotationDegPerMm, 3)}°/mm` : '',
+    top ? `most strain energy: ${top[0]} ${fmt(100 * top[1], 0)} %` : '',
+    m.inRotationBand ? "inside the motors' rotation band" : '',
+  ]
+    .filter(Boolean)
+    .join('; ');
 }
 
 export function registerModes(program: Command): void {
@@ -276,7 +310,7 @@ export function registerModes(program: Command): void {
     .option('--part <name>', 'only this part')
     .option('--modes <n>', 'modes per model, 1 to 50 (default 6)')
     .option('--json', 'print the results as JSON')
-    .option('--plot <dir>', 'write one SVG colour map per mode into this directory')
+    .option('--plot <dir>', 'write one SVG per mode into this directory: each assembled-frame mode in plan and side view, each plate mode as a colour map')
     .option('--mesh-size <mm>', 'element size in mm, 0.3 to 20 (default: a thirtieth of √area, 0.5 to 4 mm)')
     .option('--motor-mass <g>', 'mass of one motor in g (default: the design\'s motor.massG; 0 for DXF)')
     .option('--stack-mass <g>', 'flight-controller stack on the stack holes, g (one-piece frames; default 0)')
@@ -289,7 +323,7 @@ export function registerModes(program: Command): void {
     .option('--layers <a,b>', 'DXF only: the layers that hold cut geometry')
     .action(async (inputs: string[], opts: ModesCliOptions) => {
       const items: Array<Loaded & { path: string }> = [];
-      for (const path of inputs) items.push({ path, ...(await analyse(path, opts)) });
+      for (const path of inputs) items.push({ path, ...(await analyse(path, opts, inputs.length > 1)) });
       if (opts.plot) {
         const { buildFrame } = await import('../../geometry/index.js');
         const files: OutputFile[] = [];

@@ -6,7 +6,7 @@ import { readDesign, readText, UsageError, writeAllAtomically, type OutputFile }
 import { textTable } from '../table.js';
 import { slug } from './build.js';
 
-export type QuoteCliOptions = { qty: string; sheet?: string; shop?: string; out?: string; json?: boolean; date?: string; tolerance?: string; r2000?: boolean };
+export type QuoteCliOptions = { qty: string; sheet?: string; shop?: string; out?: string; json?: boolean; date?: string; tolerance?: string; r2000?: boolean; timeLimit?: string };
 
 function parseQty(s: string): number {
   if (!/^\d+$/.test(s.trim()) || Number(s) < 1 || Number(s) > 10000) throw new UsageError(`--qty: ${JSON.stringify(s)} must be a whole number of frames from 1 to 10000`);
@@ -19,6 +19,12 @@ function parseSheet(s: string): { widthMm: number; heightMm: number } {
   const h = m ? Number(m[2]) : NaN;
   if (!m || w < 50 || h < 50 || w > 3000 || h > 3000) throw new UsageError(`--sheet: ${JSON.stringify(s)} must be WIDTHxHEIGHT in mm, each 50 to 3000 (e.g. 400x300)`);
   return { widthMm: w, heightMm: h };
+}
+
+function parseTimeLimit(s: string): number {
+  const v = Number(s);
+  if (!/^\s*\d+(\.\d+)?\s*$/.test(s) || !(v >= 1) || v > 3600) throw new UsageError(`--time-limit: ${JSON.stringify(s)} must be a number of seconds from 1 to 3600`);
+  return v;
 }
 
 function parseDate(s: string): string {
@@ -56,11 +62,13 @@ export function registerQuote(program: Command): void {
     .option('--date <YYYY-MM-DD>', 'date for the title block (nothing reads the clock)')
     .option('--tolerance <text>', 'general tolerance note on the drawing', 'ISO 2768-m unless stated')
     .option('--r2000', 'write the sheet DXFs as R2000 (LWPOLYLINE) instead of R12')
+    .option('--time-limit <seconds>', 'stop searching for a better nesting after this long (the layout is then complete but may vary between runs)')
     .option('--json', 'print every number as JSON instead of the summary table')
     .action(async (designPath: string, opts: QuoteCliOptions) => {
       const quantity = parseQty(opts.qty);
       const sheet = opts.sheet ? parseSheet(opts.sheet) : undefined;
       const date = opts.date ? parseDate(opts.date) : null;
+      const timeLimitS = opts.timeLimit !== undefined ? parseTimeLimit(opts.timeLimit) : undefined;
       const design = await readDesign(designPath);
       const shopPath = opts.shop ?? defaultShopPath();
       const shopText = readText(shopPath, 'a shop profile (YAML)');
@@ -84,6 +92,7 @@ export function registerQuote(program: Command): void {
         toolDiameterMm: shop.toolDiameterMm ?? design.cutting.toolDiameterMm,
         ...(sheet ? { sheet } : {}),
         ...(bar ? { onProgress: bar.tick } : {}),
+        ...(timeLimitS !== undefined ? { timeLimitMs: timeLimitS * 1000, now: () => performance.now() } : {}),
       });
       bar?.clear();
       // The drawing carries the design-rule summary for the tool this quote uses.
@@ -109,8 +118,8 @@ export function registerQuote(program: Command): void {
       const rows = quote.parts.map((p) => [p.cut.name, String(p.cut.quantity * quantity), p.cut.thicknessMm.toFixed(1), p.cut.toolPathMm.toFixed(0), String(p.time.passes), String(p.cut.pierces), p.time.totalMin.toFixed(1), p.cost.total.toFixed(2)]);
       process.stdout.write(`${design.name} rev ${design.revision}: ${quantity} frame${quantity === 1 ? '' : 's'}, quoted for ${shop.name}\n\n`);
       process.stdout.write(`${textTable(['part', 'copies', 'mm', 'path mm', 'passes', 'pierces', 'min each', `direct ${cur} each`], rows)}\n\n`);
-      const srows = quote.nesting.groups.map((g) => [g.thicknessMm.toFixed(1), g.material, String(g.sheets), g.areaBoundSheets.toFixed(2), `${(g.utilisation * 100).toFixed(1)} %`]);
-      process.stdout.write(`${textTable(['mm', 'material', 'sheets', 'area bound', 'utilisation'], srows)}\n\n`);
+      const srows = quote.nesting.groups.map((g) => [g.thicknessMm.toFixed(1), g.material, String(g.sheets), String(g.lowerBoundSheets), `${(g.utilisation * 100).toFixed(1)} %`, g.minGapMm === null ? '' : g.minGapMm.toFixed(3)]);
+      process.stdout.write(`${textTable(['mm', 'material', 'sheets', 'fewest possible', 'utilisation', 'closest parts mm'], srows)}\n\n`);
       const t = quote.batchTime;
       const c = quote.batchCost;
       process.stdout.write(

@@ -78,11 +78,13 @@ class Deck:
         self.lines += [f"*ORIENTATION, NAME={orient}", ", ".join(f"{v:.12g}" for v in (*a, *b))]
         self.lines += [f"*SHELL SECTION, ELSET={es}, MATERIAL={material}, ORIENTATION={orient}", f"{thickness}"]
 
-    def rigid(self, nodes, ref_point):
+    def rigid(self, nodes, ref_point, ref_node=None):
         """A rigid body of the given nodes about a reference point (translations of the nodes; see
         shells_with_patches for the rotations of shell footprints). Bodies that share a node are one body
-        (a node may follow only one in CalculiX): they are merged when the deck is written."""
-        self.bodies.append((list(nodes), ref_point))
+        (a node may follow only one in CalculiX): they are merged when the deck is written. ref_node: an
+        existing node (made with node()) to be the body's reference node, so that other constraints can
+        name it; otherwise one is made."""
+        self.bodies.append((list(nodes), ref_point, ref_node))
 
     def _write_bodies(self):
         parent = {}
@@ -92,19 +94,30 @@ class Deck:
                 parent[x] = parent[parent[x]]
                 x = parent[x]
             return x
-        for k, (nodes, _p) in enumerate(self.bodies):
+        for k, (nodes, _p, _r) in enumerate(self.bodies):
             for n in nodes:
                 a, b = find(("b", k)), find(n)
                 if a != b:
                     parent[b] = a
         merged = {}
-        for k, (nodes, p) in enumerate(self.bodies):
-            g = merged.setdefault(find(("b", k)), {"nodes": set(), "p": p})
+        for k, (nodes, p, r) in enumerate(self.bodies):
+            g = merged.setdefault(find(("b", k)), {"nodes": set(), "p": p, "ref": None})
             g["nodes"].update(nodes)
+            if r is not None and g["ref"] is None:
+                g["ref"] = r
+            elif r is not None:
+                raise ValueError("two reference nodes in one merged rigid body")
         for g in merged.values():
-            ref = self.node(g["p"])
+            ref = g["ref"] if g["ref"] is not None else self.node(g["p"])
             rot = self.node(g["p"])
             self.lines += [f"*RIGID BODY, NSET={self.nset(sorted(g['nodes']))}, REF NODE={ref}, ROT NODE={rot}"]
+
+    def equation(self, terms):
+        """A linear constraint sum c * u(node, dof) = 0 (*EQUATION); the first term's DOF is the dependent one."""
+        self.lines += ["*EQUATION", str(len(terms))]
+        flat = [f"{n}, {d}, {c:.12g}" for n, d, c in terms]
+        for i in range(0, len(flat), 4):
+            self.lines.append(", ".join(flat[i:i + 4]))
 
     def point_masses(self, nodes_masses):
         for n, m in nodes_masses:
@@ -123,6 +136,20 @@ class Deck:
                 p = list(cg)
                 p[axis] += sign * arms[axis]
                 pts.append(self.node(p))
+        self.point_masses([(n, mass_t / 6) for n in pts])
+        self.rigid(list(tied_nodes) + pts, cg)
+
+    def rigid_mass_tensor(self, tied_nodes, mass_t, cg, inertia):
+        """Like rigid_mass with a full inertia tensor (3x3, frame axes, t mm^2, about cg): six point
+        masses on its principal axes."""
+        import numpy as np
+        values, vectors = np.linalg.eigh(np.asarray(inertia, dtype=float))
+        half = [(values[1] + values[2] - values[0]) / 2, (values[2] + values[0] - values[1]) / 2, (values[0] + values[1] - values[2]) / 2]
+        pts = []
+        for axis in range(3):
+            arm = math.sqrt(max(3 * half[axis] / mass_t, 0.0))
+            for sign in (1, -1):
+                pts.append(self.node([cg[i] + sign * arm * vectors[i, axis] for i in range(3)]))
         self.point_masses([(n, mass_t / 6) for n in pts])
         self.rigid(list(tied_nodes) + pts, cg)
 

@@ -1,7 +1,7 @@
 #!/usr/bin/python3
 """Independent CalculiX reference for the assembled frame's modes, written from the cut files and the
 design file alone (nothing from framewright's source): the plate DXFs that `framewright build` writes
-(read with ezdxf), the design YAML (read with PyYAML, the schema's defaults applied here), meshed with
+(read with ezdxf), where it placed the components (its assembly.json: masses, boxes, mount points), the design YAML (read with PyYAML, the schema's defaults applied here), meshed with
 gmsh (second-order triangles), solved by ccx with S6 shells.
 
 The idealisation is the one framewright states (README, "Stiffness and resonance"):
@@ -15,12 +15,17 @@ The idealisation is the one framewright states (README, "Stiffness and resonance
   - standoffs and camera spacers: solid round rods of their outside size (ten-node tetrahedra; CalculiX's
     beams are expanded to solids whose end rotations a rigid body does not hold), mid-plane to
     mid-plane, end faces in the screws' rigid bodies; aluminium 6061 E 68.9 GPa, 7075 71.7 GPa, nu 0.33 (ASM handbook);
-  - each motor a solid cylinder (bell diameter, height from the design, else up to the prop band) on
+  - each motor a solid cylinder (bell diameter, height from the design, else 0.6 x the bell diameter
+    but not into the prop band) on
     the arm's top face, rigid with its screws' head footprints (a slotted hole: the slot end nearer
     the motor axis);
-  - camera side plate edges resting on a plate are tied to its nearest node.
+  - camera side plate edges resting on a plate follow the plate under them (a linear constraint that
+    rigid motion satisfies exactly; see rest_on);
+  - components (assembly.json: mass, boxes, what carries them, mount points) are rigid masses, with the
+    box inertia, tied to the screws at their mount points (head footprints), or to the stack's screws
+    when they sit on a stack, or else to the plate under their footprint (a strapped battery).
 
-stdin: JSON {"design": path, "dxfDir": dir, "sizeMm": element size, "modes": count, "subset": optional "body-and-arms"}
+stdin: JSON {"design": path, "dxfDir": dir (what `framewright build` wrote), "sizeMm": element size, "modes": count}
 stdout: JSON {"frequenciesHz": [...] (elastic modes above 1 Hz), "nodes": n}
 """
 import json
@@ -115,8 +120,6 @@ def main():
     with open(spec["design"]) as f:
         d = yaml.safe_load(f)
     size = spec["sizeMm"]
-    # "body-and-arms": only the bottom plate, the arms and the motors (no braces, top plate, standoffs, camera).
-    body_and_arms = spec.get("subset") == "body-and-arms"
     mats = d.get("materials") or {"woven-cf": {"e1Gpa": 65, "e2Gpa": 65, "g12Gpa": 4, "nu12": 0.07, "densityGPerCm3": 1.57}}
     first_mat = next(iter(mats))
     sec = lambda k: d.get(k) or {}  # noqa: E731
@@ -124,7 +127,8 @@ def main():
     weave_of = lambda k: math.radians(sec(k).get("weaveDeg", 0))  # noqa: E731
     body, arms, top = sec("body"), sec("arms"), sec("topPlate")
     tb = body.get("thicknessMm", 2.5)
-    ta = arms["thicknessMm"]
+    # A one-piece frame's arms are the bottom plate (no thickness of their own).
+    ta = arms.get("thicknessMm", tb)
     tt = top.get("thicknessMm", 2)
     so = body["standoffs"]
     gap = so.get("heightMm", 25)
@@ -158,7 +162,7 @@ def main():
             f0 = rigid2d(theta, mirror, 0, 0)
             bx, by = f0(bore[0], bore[1])
             plates.append(Placed(f"arm {site}", part, ta, mat_of("arms"), weave_of("arms"), rigid2d(theta, mirror, mx - bx, my - by), z_low=arm_z))
-        if d.get("braces") and not body_and_arms:
+        if d.get("braces"):
             tbr = d["braces"].get("thicknessMm", 1.5)
             brace_z = arm_z - tbr if stacking == "under-body" else arm_z + ta
             names = ["brace"] if os.path.exists(os.path.join(spec["dxfDir"], "brace.dxf")) else ["brace-front", "brace-rear"]
@@ -182,9 +186,8 @@ def main():
                     raise SystemExit("brace holes do not meet the bottom plate's holes")
                 del cx, cy
                 plates.append(Placed(f"brace {'front' if front else 'rear'}", part, tbr, mat_of("braces"), weave_of("braces"), rigid2d(theta, False, *best), z_low=brace_z))
-    if not body_and_arms:
-        plates.append(Placed("top-plate", dxf("top-plate"), tt, mat_of("topPlate"), weave_of("topPlate"), ident, z_low=tb + gap))
-    cam = None if body_and_arms else d.get("camera")
+    plates.append(Placed("top-plate", dxf("top-plate"), tt, mat_of("topPlate"), weave_of("topPlate"), ident, z_low=tb + gap))
+    cam = d.get("camera")
     if cam:
         tc = cam.get("thicknessMm", 2)
         w = cam.get("widthMm", "micro")
@@ -192,8 +195,14 @@ def main():
         part = dxf("camera-side")
         plates.append(Placed("camera-side left", part, tc, mat_of("camera"), weave_of("camera"), None, vertical=True, y_mid=w / 2 + tc / 2))
         plates.append(Placed("camera-side right", part, tc, mat_of("camera"), weave_of("camera"), None, vertical=True, y_mid=-w / 2 - tc / 2))
+    # Components (stack, boards, battery, camera) as placed by `framewright build` (assembly.json: mass,
+    # boxes, what carries them and where); how they are tied is decided here.
+    components = []
+    if any("softMountNPerMm" in c for c in d.get("components") or []):
+        raise SystemExit("reference models hard-mounted components only")
     if d.get("components"):
-        raise SystemExit("reference does not model components")
+        with open(os.path.join(spec["dxfDir"], "assembly.json")) as f:
+            components = json.load(f)["components"]
 
     standoff_xy = [tuple(p) for p in so["positionsMm"]]
 
@@ -251,7 +260,7 @@ def main():
     screw = so.get("boltSize", "M3")
     work = tempfile.mkdtemp(prefix="fw-rods-")
     rod_size = min(size, radius * 0.8)
-    for x, y in [] if body_and_arms else standoff_xy:
+    for x, y in standoff_xy:
         zb, zt = tb / 2, tb + gap + tt / 2
         low, high = deck.rod(work, (x, y, zb), (x, y, zt), radius, young, 0.33, rho * 1e-9, rod_size)
         for end, z_face, dk in ((low, tb, SOCKET_DK[screw]), (high, tb + gap, BUTTON_DK[screw])):
@@ -283,8 +292,9 @@ def main():
     # Motors: rigid cylinders on the arm top, tied over their screws' footprints.
     motor = d["motor"]
     props = d["props"]
-    height = motor.get("heightMm", props.get("heightAboveArmMm", 14) - props.get("bandMm", 6) / 2)
     bell = motor.get("bellDiameterMm", 28)
+    # The stated height, else 0.6 x the bell diameter but not into the prop band (README, design reference).
+    height = motor.get("heightMm", min(0.6 * bell, props.get("heightAboveArmMm", 14) - props.get("bandMm", 6) / 2))
     mass_t = motor["massG"] * 1e-6
     mscrew = motor.get("boltSize", "M3")
     for site, (mx, my) in sites.items():
@@ -319,7 +329,7 @@ def main():
                 ends = deck.rod(work, (x, plates[right].y_mid, z), (x, plates[left].y_mid, z), radius, young, 0.33, rho * 1e-9, rod_size)
                 for k, end in zip((right, left), ends):
                     deck.rigid(footprint(k, x, z, dk / 2) + end, (x, plates[k].y_mid, z))
-        # Side plate edges resting on the bottom and top plates follow the nearest node of that plate.
+        # Side plate edges resting on the bottom and top plates follow the plate under them.
         top_k = next(k for k, pl in enumerate(plates) if pl.name == "top-plate")
         for k in (left, right):
             pl = plates[k]
@@ -330,9 +340,38 @@ def main():
                 for hk, face in ((0, tb), (top_k, tb + gap)):
                     if abs(v - face) > pl.t / 2:
                         continue
-                    p = deck_xyz(deck, n)
-                    best = min(nodes_of[hk], key=lambda m: math.dist(deck_xyz(deck, m), p))
-                    deck.rigid([n, best], deck_xyz(deck, best))
+                    rest_on(deck, n, pending_shells[hk][0])
+    # A component is a rigid mass on its mounts: the screws at its mount points (their head footprints),
+    # or the stack's screws when it sits on a stack, or else the plate under its footprint.
+    by_name = {pl.name: k for k, pl in enumerate(plates)}
+    stack_ties = {}
+    for c in components:
+        on = [by_name[n] for n in c["mountedOn"] if n in by_name]
+        stack = next((n for n in c["mountedOn"] if n.startswith("stack mount")), None)
+        tied = []
+        for p in c["mountPointsMm"]:
+            for k in on if c["kind"] != "stack" else [by_name["bottom-plate"]]:
+                pl = plates[k]
+                q = (p[0], p[2]) if pl.vertical else (p[0], p[1])
+                for (fx, fy), dd, (u, v) in pl.holes_frame():
+                    if dd < 6 and math.hypot(fx - q[0], fy - q[1]) < 0.5:
+                        tied += footprint(k, u, v, head_dk(pl, (u, v), screw_of(dd)) / 2)
+        if not tied and stack in stack_ties:
+            tied = stack_ties[stack]
+        if tied and stack:
+            stack_ties.setdefault(stack, tied)
+        if not tied:
+            for k in on:
+                if not plates[k].vertical:
+                    under = [n for n in nodes_of[k] if in_box_plan(c["boxes"][0], deck_xyz(deck, n))]
+                    rigid_nodes.update(under)
+                    tied += under
+        if not tied:
+            ids = on or list(range(len(plates)))
+            p = c["mountPointsMm"][0]
+            tied = [min((n for k in ids for n in nodes_of[k]), key=lambda n: math.dist(deck_xyz(deck, n), p))]
+        mass_t = c["massG"] * 1e-6
+        deck.rigid_mass_tensor(tied, mass_t, c["cgMm"], boxes_inertia(c["boxes"], mass_t, c["cgMm"]))
     for elems, mat, t, a1, a2 in pending_shells:
         deck.shells_with_patches(elems, mat, t, a1, a2, rigid_nodes)
     with tempfile.TemporaryDirectory(prefix="fw-ccx-frame-") as tmp:
@@ -341,6 +380,56 @@ def main():
         deck.write(os.path.join(tmp, "job.inp"), spec["modes"], lowest_hz=1.0)
         freqs = run_frequencies(tmp)
     json.dump({"frequenciesHz": freqs, "nodes": len(deck.nodes)}, sys.stdout)
+
+
+def rest_on(deck, n, elems):
+    """Node n (on a vertical plate's edge) follows the point of a horizontal plate below or above it as
+    if rigidly attached: u_n = u_P + theta x r, with u_P and the tilt theta from the linear field over the
+    corners of the plate's element under n, and r the vertical offset from the plate's mid-plane. A linear
+    constraint that rigid motion satisfies exactly (a translation-only tie would resist rigid rotation; a
+    two-node CalculiX rigid body leaves its rotation node free about the line through the nodes)."""
+    x, y, z = deck_xyz(deck, n)
+    best = None
+    for e in elems:
+        a, b, c = (deck_xyz(deck, m) for m in e[:3])
+        det = (b[0] - a[0]) * (c[1] - a[1]) - (c[0] - a[0]) * (b[1] - a[1])
+        l1 = ((b[0] - x) * (c[1] - y) - (c[0] - x) * (b[1] - y)) / det
+        l2 = ((c[0] - x) * (a[1] - y) - (a[0] - x) * (c[1] - y)) / det
+        lam = (l1, l2, 1 - l1 - l2)
+        outside = -min(lam)
+        if best is None or outside < best[0]:
+            bx = [(b[1] - c[1]) / det, (c[1] - a[1]) / det, (a[1] - b[1]) / det]
+            by = [(c[0] - b[0]) / det, (a[0] - c[0]) / det, (b[0] - a[0]) / det]
+            best = (outside, e[:3], lam, bx, by, z - a[2])
+    _, corners, lam, bx, by, rz = best
+    # u_n = sum lam u_k - rz sum bx_k w_k ; v_n = sum lam v_k - rz sum by_k w_k ; w_n = sum lam w_k
+    rows = {1: [(m, 1, lam[k]) for k, m in enumerate(corners)] + [(m, 3, -rz * bx[k]) for k, m in enumerate(corners)],
+            2: [(m, 2, lam[k]) for k, m in enumerate(corners)] + [(m, 3, -rz * by[k]) for k, m in enumerate(corners)],
+            3: [(m, 3, lam[k]) for k, m in enumerate(corners)]}
+    for dof, terms in rows.items():
+        deck.equation([(n, dof, 1.0)] + [(m, d, -c) for m, d, c in terms if abs(c) > 1e-12])
+
+
+def in_box_plan(box, p):
+    """Whether point p lies within a box's footprint in plan."""
+    ax, ay = box["axes"][0], box["axes"][1]
+    d = (p[0] - box["centreMm"][0], p[1] - box["centreMm"][1])
+    return abs(d[0] * ax[0] + d[1] * ax[1]) <= box["sizeMm"][0] / 2 + 1e-6 and abs(d[0] * ay[0] + d[1] * ay[1]) <= box["sizeMm"][1] / 2 + 1e-6
+
+
+def boxes_inertia(boxes, mass_t, cg):
+    """Inertia tensor (t mm^2, about cg, frame axes) of uniform boxes sharing the mass by volume."""
+    import numpy as np
+    vols = [b["sizeMm"][0] * b["sizeMm"][1] * b["sizeMm"][2] for b in boxes]
+    total = np.zeros((3, 3))
+    for b, vol in zip(boxes, vols):
+        m = mass_t * vol / sum(vols)
+        a, w, h = b["sizeMm"]
+        local = np.diag([m * (w * w + h * h) / 12, m * (a * a + h * h) / 12, m * (a * a + w * w) / 12])
+        rot = np.array(b["axes"]).T  # columns: the box's length, width and height directions
+        dvec = np.array(b["centreMm"]) - np.array(cg)
+        total += rot @ local @ rot.T + m * (dvec @ dvec * np.eye(3) - np.outer(dvec, dvec))
+    return total
 
 
 def deck_xyz(deck, n):

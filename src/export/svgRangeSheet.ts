@@ -6,10 +6,10 @@ import type { BBox, Loop, Vec2 } from '../geometry/types.js';
 import { fmt, xmlEscape } from './format.js';
 import { loopPathData } from './svgPath.js';
 
-/** One column of the family sheet: a frame and the text printed under its plan view. */
-export type FamilyMember = Readonly<{ label: string; notes: readonly string[]; frame: Frame }>;
+/** One column of the range sheet: a frame and the text printed under its plan view. */
+export type RangeSheetMember = Readonly<{ label: string; notes: readonly string[]; frame: Frame }>;
 
-export type FamilySheetOptions = Readonly<{
+export type RangeSheetOptions = Readonly<{
   title: string;
   /** Gap between columns and rows. mm. */
   gapMm?: number;
@@ -36,13 +36,13 @@ function planLoops(frame: Frame): Loop[] {
 const flatParts = (frame: Frame): Part[] => [...frame.parts].filter((p) => p.role !== 'camera-side');
 
 /**
- * The family sheet: every member side by side at one scale (one user unit = 1 mm), each column
+ * The range sheet: every size of a size range side by side at one scale (one user unit = 1 mm), each column
  * holding the plan view of the assembled frame (forward up, prop discs dashed), its notes, and each
  * flat plate drawn in its own coordinates below. Data in, SVG text out; deterministic.
  */
-export function familySheetSvg(members: readonly FamilyMember[], options: FamilySheetOptions): string {
+export function rangeSheetSvg(members: readonly RangeSheetMember[], options: RangeSheetOptions): string {
   const gap = options.gapMm ?? 15;
-  type Column = { member: FamilyMember; plan: Loop[]; planBox: BBox; parts: Array<{ part: Part; box: BBox }>; width: number; height: number };
+  type Column = { member: RangeSheetMember; plan: Loop[]; planBox: BBox; parts: Array<{ part: Part; box: BBox }>; width: number; height: number };
   const columns: Column[] = members.map((member) => {
     const plan = planLoops(member.frame);
     const r = member.frame.propDiameterMm / 2;
@@ -112,4 +112,4 @@ export function familySheetSvg(members: readonly FamilyMember[], options: Family
   return out.join('\n');
 }
 
-const slugId = (s: string): string => `member-${s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '')}`;
+const slugId = (s: string): string => `size-${s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '')}`;
