@@ -7,7 +7,7 @@ import { runCli } from '../helpers/cli.js';
 const DIST = join(REPO, 'dist');
 
 /** What scripts/bundle-cli.mjs records: for each program script, its sources and how many modules each imports. */
-type BundleRecord = Record<'help' | 'full', Record<string, number>>;
+type BundleRecord = Record<'help' | 'check' | 'full', Record<string, number>>;
 
 const bundleRecord = (): BundleRecord => JSON.parse(readFileSync(join(DIST, 'cli', 'bundle.json'), 'utf8')) as BundleRecord;
 
@@ -43,6 +43,14 @@ describe('start-up loads only the command line (lazy imports, DEVELOPERS.md "How
       expect(Object.keys(full), stage).toContain(stage);
       expect(Object.keys(help), stage).not.toContain(stage);
     }
+  });
+
+  it('the check program (src/cli/program.ts) holds what `check` runs and not the stages of other commands', () => {
+    const check = Object.keys(bundleRecord().check);
+    for (const stage of ['src/geometry/frame.ts', 'src/checks/report.ts', 'src/assembly/build.ts', 'src/import/importDxf.ts']) expect(check, stage).toContain(stage);
+    // Quotes, nesting, the live page, variants and the finite-element solver belong to other commands: the full program.
+    expect(check.filter((s) => /^src\/(quote|live|variant)\/|^src\/analysis\/(?!defaults\.ts)/.test(s))).toEqual([]);
+    expect(check.filter((s) => packageOf(s) === '@kninnug/constrainautor' || packageOf(s) === 'delaunator')).toEqual([]);
   });
 
   it('--help lists every command and exits 0', () => {
