@@ -9,7 +9,7 @@ declare const FRAMEWRIGHT_BUNDLE: boolean | undefined;
 async function main(): Promise<void> {
   const kind = programFor(process.argv.slice(2));
   if (process.env.FRAMEWRIGHT_WRITE_CODE_CACHE === '1') {
-    // A build's training run (scripts/bundle-cli.mjs) starts node with a fixed string hash seed: a
+    // A build's training run (scripts/train-code-cache.mjs) starts node with a fixed string hash seed: a
     // code cache holds hash-ordered tables, so a random seed would make every build's cache bytes
     // differ. The seed is taken when node starts; setting the flag back to its default (0, random)
     // now leaves that seed in use and gives the cache the flag hash of an ordinary run, which V8
@@ -44,9 +44,14 @@ async function main(): Promise<void> {
   const program: Program = typeof FRAMEWRIGHT_BUNDLE !== 'undefined' ? loadProgram(kind) : await import('./run.js');
   process.exitCode = await program.runCommandLine(process.argv);
 
-  // The build's training runs (scripts/bundle-cli.mjs) and the bench's check of the caches.
+  // The build's training runs (scripts/train-code-cache.mjs) and the check of which cache V8 took.
   if (process.env.FRAMEWRIGHT_WRITE_CODE_CACHE === '1') writeCodeCaches();
   if (process.env.FRAMEWRIGHT_CODE_CACHE_STATUS === '1') process.stderr.write(`code cache: ${JSON.stringify(codeCacheStatus())}\n`);
 }
 
-void main();
+// runCommandLine reports every error of a command itself; what reaches here is a broken install (a
+// program script or its record missing): one line and exit 3 (a bug), no stack trace.
+main().catch((e: unknown) => {
+  process.stderr.write(`framewright: internal error: ${e instanceof Error ? e.message : String(e)}\n`);
+  process.exitCode = 3;
+});

@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { REPO } from '../helpers/demo.js';
+import { STACK_LINE } from '../helpers/cli.js';
 // @ts-expect-error a build script in plain JavaScript, without declarations
 import { trainCodeCache } from '../../scripts/train-code-cache.mjs';
 
@@ -108,5 +109,14 @@ describe('the code caches of the built command line', () => {
     sameAsOrdinary(check(dir), 'rejected');
     rmSync(cache);
     sameAsOrdinary(check(dir), 'none');
+  });
+
+  it('a program script missing from the install is one line and exit 3 (a bug), no stack trace', () => {
+    const dir = packageCopy('broken');
+    rmSync(join(dir, 'dist', 'cli', programs(dir).check.script));
+    const r = spawnSync(process.execPath, [join(dir, 'dist', 'cli', 'framewright.cjs'), 'check', TESSEL], { cwd: tmp, encoding: 'utf8' });
+    expect(r.status).toBe(3);
+    expect(r.stderr).toMatch(/^framewright: internal error: .*check-[0-9a-f]{12}\.cjs.*\n$/);
+    expect(r.stderr).not.toMatch(STACK_LINE);
   });
 });
