@@ -10,7 +10,7 @@ import type { BenchCase } from './types.js';
 
 const DEMOS = ['tessel-5', 'mote-3', 'farline-7'];
 const designPath = (name: string) => fileURLToPath(new URL(`../../designs/${name}.yaml`, import.meta.url));
-const cliPath = fileURLToPath(new URL('../cli/main.js', import.meta.url));
+const cliPath = fileURLToPath(new URL('../cli/framewright.cjs', import.meta.url));
 
 export const cases: BenchCase[] = [
   ...DEMOS.map((name) => ({

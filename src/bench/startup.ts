@@ -6,7 +6,7 @@ import { fileURLToPath } from 'node:url';
 import { BARE_NODE, cli, median, ratioFigure, timeOnce } from './measure.js';
 import type { BenchFigure } from './types.js';
 
-const CLI = fileURLToPath(new URL('../cli/main.js', import.meta.url));
+const CLI = fileURLToPath(new URL('../cli/framewright.cjs', import.meta.url));
 const REPO = fileURLToPath(new URL('../../', import.meta.url));
 const TESSEL = fileURLToPath(new URL('../../designs/tessel-5.yaml', import.meta.url));
 

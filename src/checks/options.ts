@@ -2,6 +2,7 @@ import type { Design } from '../params/design.js';
 import { DesignError } from '../params/errors.js';
 import { ChecksSchema, type ChecksConfig, type ChecksInput } from '../params/checksSchema.js';
 import { EIGHTH_INCH_MM } from '../params/units.js';
+import { PARSE_ONCE } from '../params/fields.js';
 
 /** Everything the rules need besides the geometry. */
 export type CheckOptions = Readonly<{
@@ -41,7 +42,7 @@ export function optionsForDesign(d: Design, overrides: Partial<CheckOptions> = {
 
 /** Validate a `checks` section. Throws DesignError (paths start with `checks.`). */
 export function parseLimits(raw: unknown): ChecksConfig {
-  const r = ChecksSchema.safeParse(raw);
+  const r = ChecksSchema.safeParse(raw, PARSE_ONCE);
   if (r.success) return r.data;
   throw new DesignError(
     r.error.issues.map((i) => {

@@ -94,10 +94,20 @@ export function cameraViewRule(frame: Frame, o: CheckOptions, discs: readonly Pr
   if (!pose || !c || !o.limits['camera-view'].enabled) return [];
   const seen = discs.map((disc) => ({ disc, m: discViewMargin(pose, disc) })).filter((x) => x.m <= 0);
   if (seen.length === 0) return [];
-  const worst = (p: CameraPose): number => Math.min(...discs.map((d) => discViewMargin(p, d)));
-  const off = smallestHiding((v) => worst(cameraPose(frame, o, v)!), FORWARD_OFFSET_RANGE_MM[0], FORWARD_OFFSET_RANGE_MM[1], 0.5);
-  const up = smallestHiding((v) => worst(cameraPose(frame, o, undefined, v)!), c.uptiltMinDeg, c.uptiltMaxDeg, 0.25);
-  const down = smallestHiding((v) => worst(cameraPose(frame, o, undefined, -v)!), -c.uptiltMaxDeg, -c.uptiltMinDeg, 0.25);
+  // Positive (the smallest margin) when every disc is hidden, else the margin of the first disc
+  // found in view: the search only asks "all hidden?", so it stops at the first visible one.
+  const allHidden = (p: CameraPose): number => {
+    let least = Infinity;
+    for (const d of discs) {
+      const m = discViewMargin(p, d);
+      if (!(m > 0)) return m;
+      least = Math.min(least, m);
+    }
+    return least;
+  };
+  const off = smallestHiding((v) => allHidden(cameraPose(frame, o, v)!), FORWARD_OFFSET_RANGE_MM[0], FORWARD_OFFSET_RANGE_MM[1], 0.5);
+  const up = smallestHiding((v) => allHidden(cameraPose(frame, o, undefined, v)!), c.uptiltMinDeg, c.uptiltMaxDeg, 0.25);
+  const down = smallestHiding((v) => allHidden(cameraPose(frame, o, undefined, -v)!), -c.uptiltMaxDeg, -c.uptiltMinDeg, 0.25);
   const tilts = [up, down === null ? null : -down].filter((x): x is number => x !== null);
   const tilt = tilts.length ? tilts.reduce((a, b) => (Math.abs(a - c.uptiltDeg) <= Math.abs(b - c.uptiltDeg) ? a : b)) : null;
   // One fix for every visible prop: the nearest camera setting that hides them all.

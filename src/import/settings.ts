@@ -5,6 +5,7 @@ import { parseYamlText } from '../params/yamlInput.js';
 import { MaterialSchema } from '../params/schema.js';
 import { DxfReadError } from './errors.js';
 import { DRAWING_UNITS, parseDrawingUnit, type DrawingUnit } from './units.js';
+import { PARSE_ONCE } from '../params/fields.js';
 
 /**
  * Woven 0/90 carbon/epoxy, the editable default of the design files (E 65 GPa, G12 4 GPa,
@@ -58,7 +59,7 @@ export function parseSidecarText(text: string, sourceName: string): Sidecar {
     throw new DxfReadError(e.issues.map((i) => (i.path ? formatIssue(i) : `${sourceName} ${i.message}`)).join('\n'));
   }
   if (raw === null || raw === undefined) return {};
-  const r = SidecarSchema.safeParse(raw);
+  const r = SidecarSchema.safeParse(raw, PARSE_ONCE);
   if (r.success) return r.data;
   const issues: DesignIssue[] = r.error.issues.map((i) => {
     const path = i.path.map(String).join('.');

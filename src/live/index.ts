@@ -1,7 +1,7 @@
 import { existsSync, readFileSync, realpathSync, statSync } from 'node:fs';
 import { relative } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { readText, UsageError } from '../cli/io.js';
+import { defaultShopPath, packagePath } from '../cli/packageRoot.js';
 import { designJsonSchema } from '../params/jsonSchema.js';
 import { parseShopText } from '../params/shop.js';
 import type { SchemaNode } from './form.js';
@@ -24,15 +24,10 @@ export type LiveOptions = Readonly<{
 
 /** The page's script and style sheet, built by `npm run build` (scripts/bundle-page.mjs) into dist/live/page. */
 function pageAssets(): { script: string; style: string } {
-  const candidates = [new URL('./page/', import.meta.url), new URL('../../dist/live/page/', import.meta.url)];
-  for (const dir of candidates) {
-    const js = fileURLToPath(new URL('app.js', dir));
-    if (existsSync(js)) return { script: readFileSync(js, 'utf8'), style: readFileSync(fileURLToPath(new URL('app.css', dir)), 'utf8') };
-  }
-  throw new UsageError('the live page is not built; run `npm run build` first');
+  const js = packagePath('dist', 'live', 'page', 'app.js');
+  if (!existsSync(js)) throw new UsageError('the live page is not built; run `npm run build` first');
+  return { script: readFileSync(js, 'utf8'), style: readFileSync(packagePath('dist', 'live', 'page', 'app.css'), 'utf8') };
 }
-
-const DEFAULT_SHOP = fileURLToPath(new URL('../../designs/hollin-row-shop.yaml', import.meta.url));
 
 /**
  * Open a design for live editing: check the file, build its model, start the server on
@@ -49,7 +44,7 @@ export async function openLive(o: LiveOptions): Promise<LiveServer & { session: 
     if (e instanceof UsageError) throw e;
     throw new UsageError(`cannot read ${o.designPath}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`);
   }
-  const shopPath = o.shopPath ?? DEFAULT_SHOP;
+  const shopPath = o.shopPath ?? defaultShopPath();
   const shop = parseShopText(readText(shopPath, 'a shop profile (YAML)'), shopPath);
   const label = relative(process.cwd(), o.designPath) || o.designPath;
   const session = new LiveSession(real, label.startsWith('..') ? o.designPath : label, designJsonSchema() as SchemaNode);

@@ -10,6 +10,7 @@ import { DesignError } from '../params/errors.js';
 import { VariantRequestError } from '../variant/errors.js';
 import { hardwareList } from '../assembly/hardware.js';
 import { drawingFonts } from '../cli/fonts.js';
+import { packagePath } from '../cli/packageRoot.js';
 import type { ModesSummary } from './modesSummary.js';
 import { errorBody, send, sendJson, type Handler } from './server.js';
 import type { LiveSession } from './session.js';
@@ -65,7 +66,7 @@ function modesRunner(session: LiveSession) {
     if (cached && cached.version === version) return Promise.resolve(cached);
     if (running) return running;
     running = new Promise<ModesSummary>((resolve, reject) => {
-      const worker = new Worker(new URL('./modesWorker.js', import.meta.url), { workerData: { text: session.text, version } });
+      const worker = new Worker(packagePath('dist', 'live', 'modesWorker.js'), { workerData: { text: session.text, version } });
       worker.once('message', (m: { ok: boolean; summary?: ModesSummary; message?: string }) => {
         if (m.ok && m.summary) resolve(m.summary);
         else reject(new Error(m.message ?? 'the modes could not be computed'));

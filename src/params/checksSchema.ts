@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { rangedNumber } from './fields.js';
 
 /**
  * The design file's `checks:` section: one entry per design rule, named by the rule id that its
@@ -7,11 +8,12 @@ import { z } from 'zod';
  */
 
 const num = (min: number, max: number, unit: string, what: string) =>
-  z
-    .number({ error: `must be a number (${unit || 'ratio'}), ${min} to ${max}` })
-    .min(min, { error: `is below the allowed range ${min} to ${max}${unit ? ` ${unit}` : ''}` })
-    .max(max, { error: `is above the allowed range ${min} to ${max}${unit ? ` ${unit}` : ''}` })
-    .describe(`${what} [${unit || 'ratio'}, ${min} to ${max}]`);
+  rangedNumber(min, max, {
+    typeError: `must be a number (${unit || 'ratio'}), ${min} to ${max}`,
+    below: `is below the allowed range ${min} to ${max}${unit ? ` ${unit}` : ''}`,
+    above: `is above the allowed range ${min} to ${max}${unit ? ` ${unit}` : ''}`,
+    description: `${what} [${unit || 'ratio'}, ${min} to ${max}]`,
+  });
 
 const enabled = z.boolean({ error: 'must be true or false' }).default(true).describe('run this rule');
 

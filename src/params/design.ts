@@ -6,6 +6,7 @@ import { clearanceHoleMm } from './screws.js';
 import { issuesFromZod, parseYamlText } from './yamlInput.js';
 import { typicalMotorMassG } from './motorTable.js';
 import { parseLengthMm } from './units.js';
+import { PARSE_ONCE } from './fields.js';
 
 /** Camera widths by size class, mm (common practice, no source). */
 export const CAMERA_WIDTH_MM = { nano: 14, micro: 19, mini: 21.5 } as const;
@@ -45,7 +46,7 @@ export function validateDesign(raw: unknown): Design {
     throw new DesignError([{ path: '', value: raw, message: 'must be a mapping of design sections (name, layout, props, motor, arms, body...)' }]);
   }
   const misplaced = constructionIssues(raw as Record<string, unknown>);
-  const parsed = DesignSchema.safeParse(raw);
+  const parsed = DesignSchema.safeParse(raw, PARSE_ONCE);
   if (!parsed.success) {
     // Keys refused for the construction get their own message instead of "unknown key".
     const zodIssues = issuesFromZod(parsed.error.issues, raw).filter((i) => !(i.path === 'arms' && misplaced.length && Array.isArray(i.value) && i.value.every((k) => String(k) in SEPARATE_ONLY_ARM_KEYS)));

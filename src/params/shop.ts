@@ -1,18 +1,12 @@
 import { z } from 'zod';
 import { DesignError, type DesignIssue } from './errors.js';
 import { issuesFromZod, parseYamlText } from './yamlInput.js';
+import { num, PARSE_ONCE } from './fields.js';
 
 /**
  * The shop profile: how one CNC shop turns cut data into time and money. Every number carries its
  * unit in its name and its allowed range in the schema, so each error names path, value and range.
  */
-
-const num = (min: number, max: number, unit: string, what: string) =>
-  z
-    .number({ error: (iss) => (iss.input === undefined ? `is required (${what}, ${min} to ${max} ${unit})` : `must be a number (${unit}), ${min} to ${max}`) })
-    .min(min, { error: `is below the allowed range ${min} to ${max} ${unit}` })
-    .max(max, { error: `is above the allowed range ${min} to ${max} ${unit}` })
-    .describe(`${what} [${unit}, ${min} to ${max}]`);
 
 const FeedBand = z
   .object({
@@ -73,7 +67,7 @@ export function validateShop(raw: unknown): ShopProfile {
   if (raw === null || typeof raw !== 'object' || Array.isArray(raw)) {
     throw new DesignError([{ path: 'shop', value: raw, message: 'must be a mapping (name, currency, machineRatePerHour, feeds, stock...)' }]);
   }
-  const parsed = ShopSchema.safeParse(raw);
+  const parsed = ShopSchema.safeParse(raw, PARSE_ONCE);
   if (!parsed.success) {
     throw new DesignError(issuesFromZod(parsed.error.issues, raw, ['shop'], 'allowed keys are listed in the README (quote section)'));
   }

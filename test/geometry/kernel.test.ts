@@ -116,6 +116,24 @@ describe('union of line/arc loops', () => {
     expect(() => unionLoops([circle([0, 0], 5), circle([20, 0], 5)])).toThrow(/separate outlines/);
   });
 
+  it('the guard catches a union that is off by a little more than its 0.1 % margin, and passes the true union', () => {
+    // The true union of a plate and a slot, and the union with the slot 0.8 mm short of its end:
+    // 7 mm × 0.8 mm = 5.6 mm², 0.17 % of the ~3,300 mm² (hand calculation: end cap moved, width 7).
+    const rect = roundedRect([53.5 / 2, 52.5 / 2], 53.5, 52.5, 7.5);
+    const long = slot([0, 0], [-10.5, 60], 7);
+    const short = slot([0, 0], [-10.5 * (1 - 0.8 / Math.hypot(10.5, 60)), 60 * (1 - 0.8 / Math.hypot(10.5, 60))], 7);
+    const truth = unionLoops([rect, long]);
+    const off = unionLoops([rect, short]);
+    const lost = truth.reduce((a, l) => a + signedArea(l), 0) - off.reduce((a, l) => a + signedArea(l), 0);
+    closeTo(lost, 7 * 0.8, 1e-6);
+    expect(lost / truth.reduce((a, l) => a + signedArea(l), 0)).toBeGreaterThan(1e-3);
+    expect(() => guardAgainstPolygonUnion([rect, long], off, 1e-3)).toThrow(BooleanGuardError);
+    expect(() => guardAgainstPolygonUnion([rect, long], truth, 1e-3)).not.toThrow();
+    // The guard compares polygons with vertices on one angular grid per arc: so tight that a
+    // hundredth of its margin still passes the true union.
+    expect(() => guardAgainstPolygonUnion([rect, long], truth, 1e-5)).not.toThrow();
+  });
+
   it('an enclosed window comes back as a clockwise loop', () => {
     // a square ring made of four bars
     const bars = [

@@ -72,6 +72,22 @@ describe('the packed package', () => {
     expect(out.refused).toBe('layout,props,motor,arms,body');
   });
 
+  it('its `framewright` command runs from the installed package, with the code caches the build made', () => {
+    // npm links the package's bin; the launcher finds its program scripts, their caches and the
+    // shop profile from the installed folder (src/cli/packageRoot.ts), not from this repository.
+    const bin = join(project, 'node_modules', '.bin', 'framewright');
+    const help = sh(bin, ['--help'], project);
+    expect(help.code, help.out).toBe(0);
+    expect(help.out).toMatch(/^\s+check\b/m);
+    const check = spawnSync(bin, ['check', 'node_modules/framewright/designs/tessel-5.yaml', '--json'], { cwd: project, encoding: 'utf8', env: { ...process.env, FRAMEWRIGHT_CODE_CACHE_STATUS: '1' } });
+    expect(check.status, check.stderr).toBe(0);
+    expect((JSON.parse(check.stdout) as { summary: unknown }).summary).toEqual((JSON.parse(runCli(['check', 'designs/tessel-5.yaml', '--json']).stdout) as { summary: unknown }).summary);
+    // The same node that built the package runs it here, so V8 takes the cache.
+    expect(check.stderr).toContain('code cache: {"check":"used"}');
+    const quote = sh(bin, ['quote', 'node_modules/framewright/designs/tessel-5.yaml', '--qty', '2', '--out', join(tmp, 'quote'), '--date', '2025-01-01'], project);
+    expect(quote.code, quote.out).toBe(0);
+  });
+
   it('its types resolve through the exports map (a strict TypeScript consumer compiles, and a type error is caught)', () => {
     const tsc = join(REPO, 'node_modules', 'typescript', 'bin', 'tsc');
     const flags = ['--noEmit', '--strict', '--module', 'nodenext', '--moduleResolution', 'nodenext', '--target', 'es2022', '--skipLibCheck'];

@@ -1,5 +1,4 @@
 import type { Command } from 'commander';
-import { spawn } from 'node:child_process';
 import { UsageError } from '../io.js';
 
 export type LiveCliOptions = { port?: string; host?: string; open?: boolean };
@@ -17,8 +16,10 @@ function parseHost(text: string | undefined): string {
 }
 
 /** Open the page in the desktop's browser; a failure only costs the convenience (the URL is printed). */
-function openBrowser(url: string): void {
+async function openBrowser(url: string): Promise<void> {
   const [cmd, args] = process.platform === 'darwin' ? ['open', [url]] : process.platform === 'win32' ? ['cmd', ['/c', 'start', '', url]] : ['xdg-open', [url]];
+  // Loaded here, not at start-up: every other command would pay for it.
+  const { spawn } = await import('node:child_process');
   try {
     const child = spawn(cmd, args, { stdio: 'ignore', detached: true });
     child.on('error', () => undefined);
@@ -43,7 +44,7 @@ export function registerLive(program: Command): void {
       const { openLive } = await import('../../live/index.js');
       const live = await openLive({ designPath, host, port, log: (line) => process.stderr.write(`framewright live: ${line}\n`) });
       process.stdout.write(`framewright live: ${live.session.label} at ${live.url}\n(Ctrl-C to stop; edits are saved to the file as you make them)\n`);
-      if (opts.open !== false) openBrowser(live.url);
+      if (opts.open !== false) await openBrowser(live.url);
       await new Promise<void>((resolve) => {
         const stop = (): void => {
           process.off('SIGINT', stop);

@@ -1,15 +1,12 @@
 import type { Command } from 'commander';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { drawingFonts } from '../fonts.js';
+import { defaultShopPath } from '../packageRoot.js';
 import { readDesign, readText, UsageError, writeAllAtomically, type OutputFile } from '../io.js';
 import { textTable } from '../table.js';
 import { slug } from './build.js';
 
 export type QuoteCliOptions = { qty: string; sheet?: string; shop?: string; out?: string; json?: boolean; date?: string; tolerance?: string; r2000?: boolean; timeLimit?: string };
-
-/** The example shop profile shipped with the package (designs/ beside dist/). */
-const DEFAULT_SHOP = fileURLToPath(new URL('../../../designs/hollin-row-shop.yaml', import.meta.url));
 
 function parseQty(s: string): number {
   if (!/^\d+$/.test(s.trim()) || Number(s) < 1 || Number(s) > 10000) throw new UsageError(`--qty: ${JSON.stringify(s)} must be a whole number of frames from 1 to 10000`);
@@ -73,7 +70,7 @@ export function registerQuote(program: Command): void {
       const date = opts.date ? parseDate(opts.date) : null;
       const timeLimitS = opts.timeLimit !== undefined ? parseTimeLimit(opts.timeLimit) : undefined;
       const design = await readDesign(designPath);
-      const shopPath = opts.shop ?? DEFAULT_SHOP;
+      const shopPath = opts.shop ?? defaultShopPath();
       const shopText = readText(shopPath, 'a shop profile (YAML)');
       const [{ parseShopText }, { buildFrame }, { checkFrame }, { quoteParts }, { DEFAULT_GENERAL_TOLERANCE, quotePackage }, { buildAssembly, hardwareList }] = await Promise.all([
         import('../../params/shop.js'),
