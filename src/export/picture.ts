@@ -361,19 +361,23 @@ export function pictureSvg(o: PictureOptions): string {
     all = unionBox(all, textBox(view.x0, ny, n, NOTE_MM));
     ny += NOTE_MM * 1.35;
   }
-  const vb = padBox(all, m);
+  return svgDocument(padBox(all, m), o.title, [...head, ...o.body, ...(o.labels?.length ? [`<g class="labels">`, labelsSvg(o.labels), '</g>'] : []), ...foot], { comment: o.comment, background: o.background });
+}
+
+/**
+ * The SVG file round drawn content: the viewBox `vb` (the drawn extent plus its margin), width and
+ * height in mm equal to it (1 user unit = 1 mm), the title, an optional description, a background.
+ */
+export function svgDocument(vb: Box, title: string, body: readonly string[], o: Readonly<{ comment?: string; background?: string }> = {}): string {
   const W = vb.x1 - vb.x0;
   const H = vb.y1 - vb.y0;
   return [
     '<?xml version="1.0" encoding="UTF-8"?>',
     `<svg xmlns="http://www.w3.org/2000/svg" width="${fmt(W, 3)}mm" height="${fmt(H, 3)}mm" viewBox="${fmt(vb.x0, 3)} ${fmt(vb.y0, 3)} ${fmt(W, 3)} ${fmt(H, 3)}" font-family="${FONT_FAMILY}">`,
-    `<title>${xmlEscape(o.title)}</title>`,
+    `<title>${xmlEscape(title)}</title>`,
     ...(o.comment ? [`<desc>${xmlEscape(o.comment)}</desc>`] : []),
     `<rect class="background" x="${fmt(vb.x0, 3)}" y="${fmt(vb.y0, 3)}" width="${fmt(W, 3)}" height="${fmt(H, 3)}" fill="${o.background ?? '#ffffff'}"/>`,
-    ...head,
-    ...o.body,
-    ...(o.labels?.length ? [`<g class="labels">`, labelsSvg(o.labels), '</g>'] : []),
-    ...foot,
+    ...body,
     '</svg>',
     '',
   ].join('\n');
