@@ -312,6 +312,15 @@ const HEADING_MM = 4;
  * stroke or text is clipped. 1 user unit = 1 mm (width and height are given in mm).
  */
 export function pictureSvg(o: PictureOptions): string {
+  const c = pictureContent(o);
+  return svgDocument(c.viewBox, o.title, c.markup, { comment: o.comment, background: o.background });
+}
+
+/**
+ * What `pictureSvg` puts inside the file, and the viewBox round it: for pictures embedded in a page
+ * (the live page's views), which supplies its own `<svg>` element and title.
+ */
+export function pictureContent(o: Omit<PictureOptions, 'title' | 'comment' | 'background'>): Readonly<{ markup: string[]; viewBox: Box }> {
   const m = o.marginMm ?? 4;
   let view = o.contentBox;
   for (const l of o.labels ?? []) view = unionBox(view, l.box);
@@ -361,7 +370,7 @@ export function pictureSvg(o: PictureOptions): string {
     all = unionBox(all, textBox(view.x0, ny, n, NOTE_MM));
     ny += NOTE_MM * 1.35;
   }
-  return svgDocument(padBox(all, m), o.title, [...head, ...o.body, ...(o.labels?.length ? [`<g class="labels">`, labelsSvg(o.labels), '</g>'] : []), ...foot], { comment: o.comment, background: o.background });
+  return { markup: [...head, ...o.body, ...(o.labels?.length ? [`<g class="labels">`, labelsSvg(o.labels), '</g>'] : []), ...foot], viewBox: padBox(all, m) };
 }
 
 /**

@@ -86,14 +86,19 @@ export function framePlan(frame: Frame, map: (p: Vec2) => Vec2 = PLAN_VIEW.map):
   if (frame.cameraPlanMm) {
     body.push(`<path d="${loopPathData(frame.cameraPlanMm, map)}" fill="#1f6f5c" fill-opacity="0.9" stroke="#000000" stroke-width="0.25"><title>camera</title></path>`);
   }
-  const roles = [...new Set(copies.map((c) => c.part.role))];
-  const legend: LegendEntry[] = [
+  return { body, box: padBox(mappedBox(bb, map), PLAN_STROKE_MM / 2), legend: planLegend(frame) };
+}
+
+/** Legend rows of a frame's plan view: the plate roles it has (lowest first), prop discs, motor centres, the camera. */
+export function planLegend(frame: Frame): LegendEntry[] {
+  const placed = frame.parts.flatMap((part) => part.placements.map((pl) => ({ role: part.role, z: pl.zMm })));
+  const roles = [...new Set(placed.sort((a, b) => a.z - b.z).map((c) => c.role))];
+  return [
     ...roles.map((r) => ({ symbol: 'fill' as const, colour: ROLE_FILL[r], opacity: 0.85, label: ROLE_WORD[r] })),
     { symbol: 'fill', colour: PROP_DISC_STYLE.fill, opacity: 0.4, dash: '1 0.6', label: 'prop disc' },
     { symbol: 'dot', colour: '#d00000', label: 'motor centre' },
     ...(frame.cameraPlanMm ? [{ symbol: 'fill' as const, colour: '#1f6f5c', label: 'camera' }] : []),
   ];
-  return { body, box: padBox(mappedBox(bb, map), PLAN_STROKE_MM / 2), legend };
 }
 
 /** The screen box of a frame-coordinate box under an affine map (its four corners). */
