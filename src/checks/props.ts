@@ -65,28 +65,114 @@ export function propClearanceRule(frame: Frame, o: CheckOptions, discs: readonly
   return out;
 }
 
-/** The camera pose of a design with a camera, or null. FOVs from `checks.camera-view` when set. */
-export function cameraPose(frame: Frame, o: CheckOptions, forwardOffsetMm?: number, uptiltDeg?: number): CameraPose | null {
+/** Camera settings a fix may change; unset ones keep the design's values. */
+export type CameraChange = Partial<Readonly<{ forwardOffsetMm: number; uptiltDeg: number; pivotHeightMm: number; horizontalFovDeg: number; verticalFovDeg: number }>>;
+
+/** The camera pose of a design with a camera, or null. FOVs from `checks.camera-view` when set; `change` overrides. */
+export function cameraPose(frame: Frame, o: CheckOptions, change: CameraChange = {}): CameraPose | null {
   const d = frame.design;
   const c = d.camera;
   if (!c) return null;
   const frontX = Math.max(...d.body.standoffs.positionsMm.map((p) => p[0]));
   const v = o.limits['camera-view'];
   return {
-    eyeMm: [frontX + (forwardOffsetMm ?? c.forwardOffsetMm), 0, c.pivotHeightMm],
-    uptiltRad: degToRad(uptiltDeg ?? c.uptiltDeg),
-    hFovRad: degToRad(v.horizontalFovDeg ?? c.horizontalFovDeg),
-    vFovRad: degToRad(v.verticalFovDeg ?? c.verticalFovDeg),
+    eyeMm: [frontX + (change.forwardOffsetMm ?? c.forwardOffsetMm), 0, change.pivotHeightMm ?? c.pivotHeightMm],
+    uptiltRad: degToRad(change.uptiltDeg ?? c.uptiltDeg),
+    hFovRad: degToRad(change.horizontalFovDeg ?? v.horizontalFovDeg ?? c.horizontalFovDeg),
+    vFovRad: degToRad(change.verticalFovDeg ?? v.verticalFovDeg ?? c.verticalFovDeg),
   };
 }
 
 /** Forward-offset range searched for a prop-free view: the design file's allowed range. mm. */
 export const FORWARD_OFFSET_RANGE_MM = [-30, 80] as const;
+/** Pivot heights searched: the design file's allowed range of camera.pivotHeightMm. mm. */
+export const PIVOT_HEIGHT_RANGE_MM = [3, 80] as const;
+/** Narrowest fields of view the design file allows (camera.horizontalFovDeg, camera.verticalFovDeg). deg. */
+const MIN_HFOV_DEG = 30;
+const MIN_VFOV_DEG = 20;
+
+/** One way to hide every prop: the settings to change, how to say it, and its size as a fraction of the parameter's allowed range. */
+export type CameraFix = Readonly<{ change: CameraChange; text: string; fraction: number }>;
+
+const r2 = (x: number): string => x.toFixed(2);
+
+/**
+ * The nearest value of one setting, from `now` towards either end of [lo, hi], at which `clear(v)`
+ * holds, rounded to 0.01 away from `now` and then stepped on by 0.01 until it still clears (the
+ * advice is checked at the value printed). Null when no value in the range clears.
+ */
+export function nearestClearing(clear: (v: number) => number, now: number, lo: number, hi: number, step: number): number | null {
+  const up = now < hi ? smallestHiding(clear, now, hi, step) : null;
+  const dn = now > lo ? smallestHiding((v) => clear(-v), -now, -lo, step) : null;
+  const candidates = [up, dn === null ? null : -dn].filter((x): x is number => x !== null);
+  if (!candidates.length) return null;
+  const best = candidates.reduce((a, b) => (Math.abs(a - now) <= Math.abs(b - now) ? a : b));
+  const dir = best >= now ? 1 : -1;
+  let v = dir > 0 ? Math.ceil(best * 100 - 1e-6) / 100 : Math.floor(best * 100 + 1e-6) / 100;
+  for (let k = 0; k < 100 && clear(v) <= 0; k++) v += dir * 0.01;
+  return Math.min(hi, Math.max(lo, Math.round(v * 100) / 100));
+}
+
+/**
+ * Every single change that hides all props, smallest first (the change as a fraction of that
+ * setting's allowed range in the design file, so degrees and millimetres compare): the uptilt within
+ * the tilt slot, the forward offset, the pivot height, and a lens of longer focal length (both fields
+ * of view narrowed together: tan(FOV/2) scales by f/f′ for the same sensor).
+ */
+export function cameraFixes(frame: Frame, o: CheckOptions, discs: readonly PropDisc[]): CameraFix[] {
+  const c = frame.design.camera;
+  if (!c) return [];
+  // The searches only ask "all hidden?" (the sign), so a pose stops at the first disc in view.
+  const worst = (ch: CameraChange): number => {
+    const pose = cameraPose(frame, o, ch)!;
+    let least = Infinity;
+    for (const d of discs) {
+      const m = discViewMargin(pose, d);
+      if (!(m > 0)) return m;
+      least = Math.min(least, m);
+    }
+    return least;
+  };
+  const out: CameraFix[] = [];
+  const tilt = nearestClearing((v) => worst({ uptiltDeg: v }), c.uptiltDeg, c.uptiltMinDeg, c.uptiltMaxDeg, 0.25);
+  if (tilt !== null) {
+    const d = tilt - c.uptiltDeg;
+    out.push({ change: { uptiltDeg: tilt }, fraction: Math.abs(d) / 100, text: `camera.uptiltDeg ${r2(tilt)}° (now ${c.uptiltDeg}°, ${r2(Math.abs(d))}° ${d < 0 ? 'less' : 'more'} uptilt)` });
+  }
+  const off = nearestClearing((v) => worst({ forwardOffsetMm: v }), c.forwardOffsetMm, FORWARD_OFFSET_RANGE_MM[0], FORWARD_OFFSET_RANGE_MM[1], 0.5);
+  if (off !== null) {
+    const d = off - c.forwardOffsetMm;
+    out.push({ change: { forwardOffsetMm: off }, fraction: Math.abs(d) / (FORWARD_OFFSET_RANGE_MM[1] - FORWARD_OFFSET_RANGE_MM[0]), text: `camera.forwardOffsetMm ${r2(off)} mm (now ${c.forwardOffsetMm} mm, ${r2(Math.abs(d))} mm ${d > 0 ? 'forward' : 'back'})` });
+  }
+  const h = nearestClearing((v) => worst({ pivotHeightMm: v }), c.pivotHeightMm, PIVOT_HEIGHT_RANGE_MM[0], PIVOT_HEIGHT_RANGE_MM[1], 0.5);
+  if (h !== null) {
+    const d = h - c.pivotHeightMm;
+    out.push({ change: { pivotHeightMm: h }, fraction: Math.abs(d) / (PIVOT_HEIGHT_RANGE_MM[1] - PIVOT_HEIGHT_RANGE_MM[0]), text: `camera.pivotHeightMm ${r2(h)} mm (now ${c.pivotHeightMm} mm, mounted ${r2(Math.abs(d))} mm ${d > 0 ? 'higher' : 'lower'})` });
+  }
+  const v = o.limits['camera-view'];
+  const hNow = v.horizontalFovDeg ?? c.horizontalFovDeg;
+  const vNow = v.verticalFovDeg ?? c.verticalFovDeg;
+  const fovPath = v.horizontalFovDeg !== undefined ? 'checks.camera-view' : 'camera';
+  // A lens of focal length f/k: both half-angles' tangents scale by k (pinhole, same sensor).
+  const lens = (k: number): CameraChange => ({ horizontalFovDeg: (2 * Math.atan(k * Math.tan(degToRad(hNow) / 2)) * 180) / Math.PI, verticalFovDeg: (2 * Math.atan(k * Math.tan(degToRad(vNow) / 2)) * 180) / Math.PI });
+  // The narrowest lens keeps both fields of view inside the design file's ranges.
+  const kMin = Math.max(Math.tan(degToRad(MIN_HFOV_DEG) / 2) / Math.tan(degToRad(hNow) / 2), Math.tan(degToRad(MIN_VFOV_DEG) / 2) / Math.tan(degToRad(vNow) / 2));
+  if (kMin < 1) {
+    // Search the narrowed horizontal field; the vertical one follows it through k.
+    const hMin = Math.ceil(((2 * Math.atan(kMin * Math.tan(degToRad(hNow) / 2)) * 180) / Math.PI) * 100) / 100;
+    const fov = nearestClearing((deg) => worst(lens(Math.tan(degToRad(deg) / 2) / Math.tan(degToRad(hNow) / 2))), hNow, hMin, hNow, 0.5);
+    if (fov !== null && fov < hNow) {
+      const k = Math.tan(degToRad(fov) / 2) / Math.tan(degToRad(hNow) / 2);
+      const vFov = Math.max(MIN_VFOV_DEG, Math.floor(lens(k).verticalFovDeg! * 100) / 100);
+      out.push({ change: { horizontalFovDeg: fov, verticalFovDeg: vFov }, fraction: (hNow - fov) / (179 - MIN_HFOV_DEG), text: `a lens of ${r2(1 / k)}× the focal length: ${fovPath}.horizontalFovDeg ${r2(fov)}° and ${fovPath}.verticalFovDeg ${r2(vFov)}° (now ${hNow}° × ${vNow}°)` });
+    }
+  }
+  return out.sort((a, b) => a.fraction - b.fraction);
+}
 
 /**
  * Rule 7: a warning for every prop disc that reaches into the camera view (how far, in the prop
- * plane), and an info with the smallest camera forward offset, and the uptilt nearest the set one
- * within the tilt slot, at which no prop is visible.
+ * plane), with every single change of the camera that hides them all, smallest first (`cameraFixes`).
  */
 export function cameraViewRule(frame: Frame, o: CheckOptions, discs: readonly PropDisc[]): Finding[] {
   const pose = cameraPose(frame, o);
@@ -94,30 +180,10 @@ export function cameraViewRule(frame: Frame, o: CheckOptions, discs: readonly Pr
   if (!pose || !c || !o.limits['camera-view'].enabled) return [];
   const seen = discs.map((disc) => ({ disc, m: discViewMargin(pose, disc) })).filter((x) => x.m <= 0);
   if (seen.length === 0) return [];
-  // Positive (the smallest margin) when every disc is hidden, else the margin of the first disc
-  // found in view: the search only asks "all hidden?", so it stops at the first visible one.
-  const allHidden = (p: CameraPose): number => {
-    let least = Infinity;
-    for (const d of discs) {
-      const m = discViewMargin(p, d);
-      if (!(m > 0)) return m;
-      least = Math.min(least, m);
-    }
-    return least;
-  };
-  const off = smallestHiding((v) => allHidden(cameraPose(frame, o, v)!), FORWARD_OFFSET_RANGE_MM[0], FORWARD_OFFSET_RANGE_MM[1], 0.5);
-  const up = smallestHiding((v) => allHidden(cameraPose(frame, o, undefined, v)!), c.uptiltMinDeg, c.uptiltMaxDeg, 0.25);
-  const down = smallestHiding((v) => allHidden(cameraPose(frame, o, undefined, -v)!), -c.uptiltMaxDeg, -c.uptiltMinDeg, 0.25);
-  const tilts = [up, down === null ? null : -down].filter((x): x is number => x !== null);
-  const tilt = tilts.length ? tilts.reduce((a, b) => (Math.abs(a - c.uptiltDeg) <= Math.abs(b - c.uptiltDeg) ? a : b)) : null;
-  // One fix for every visible prop: the nearest camera setting that hides them all.
-  const fixes = [
-    ...(off !== null ? [`move the camera forward to camera.forwardOffsetMm ${(Math.ceil(off * 100) / 100).toFixed(2)} mm (now ${c.forwardOffsetMm} mm)`] : []),
-    ...(tilt !== null ? [`set the uptilt to ${tilt.toFixed(2)}° (now ${c.uptiltDeg}°)`] : []),
-  ];
+  const fixes = cameraFixes(frame, o, discs);
   const fix = fixes.length
-    ? fixes.join(' or ')
-    : `accept props in view or use a narrower lens, since no forward offset up to ${FORWARD_OFFSET_RANGE_MM[1]} mm and no uptilt in the slot's ${c.uptiltMinDeg}–${c.uptiltMaxDeg}° hides them`;
+    ? `set one of these, smallest change first, and every prop leaves the view: ${fixes.map((f) => f.text).join(', or ')}`
+    : `accept props in view: no uptilt in the slot's ${c.uptiltMinDeg}–${c.uptiltMaxDeg}°, no forward offset from ${FORWARD_OFFSET_RANGE_MM[0]} to ${FORWARD_OFFSET_RANGE_MM[1]} mm, no pivot height from ${PIVOT_HEIGHT_RANGE_MM[0]} to ${PIVOT_HEIGHT_RANGE_MM[1]} mm and no lens down to ${MIN_HFOV_DEG}° × ${MIN_VFOV_DEG}° hides them on its own`;
   const where = `camera at x ${mm(pose.eyeMm[0])}, z ${mm(pose.eyeMm[2])}, uptilt ${c.uptiltDeg}°`;
   return seen.map(({ disc, m }) =>
     finding(CAMERA_RULE, 'warning', FRAME_PART, -m, 0, 'mm', disc.centerMm,

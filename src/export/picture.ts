@@ -312,6 +312,15 @@ const HEADING_MM = 4;
  * stroke or text is clipped. 1 user unit = 1 mm (width and height are given in mm).
  */
 export function pictureSvg(o: PictureOptions): string {
+  const c = pictureContent(o);
+  return svgDocument(c.viewBox, o.title, c.markup, { comment: o.comment, background: o.background });
+}
+
+/**
+ * What `pictureSvg` puts inside the file, and the viewBox round it: for pictures embedded in a page
+ * (the live page's views), which supplies its own `<svg>` element and title.
+ */
+export function pictureContent(o: Omit<PictureOptions, 'title' | 'comment' | 'background'>): Readonly<{ markup: string[]; viewBox: Box }> {
   const m = o.marginMm ?? 4;
   let view = o.contentBox;
   for (const l of o.labels ?? []) view = unionBox(view, l.box);
@@ -361,19 +370,23 @@ export function pictureSvg(o: PictureOptions): string {
     all = unionBox(all, textBox(view.x0, ny, n, NOTE_MM));
     ny += NOTE_MM * 1.35;
   }
-  const vb = padBox(all, m);
+  return { markup: [...head, ...o.body, ...(o.labels?.length ? [`<g class="labels">`, labelsSvg(o.labels), '</g>'] : []), ...foot], viewBox: padBox(all, m) };
+}
+
+/**
+ * The SVG file round drawn content: the viewBox `vb` (the drawn extent plus its margin), width and
+ * height in mm equal to it (1 user unit = 1 mm), the title, an optional description, a background.
+ */
+export function svgDocument(vb: Box, title: string, body: readonly string[], o: Readonly<{ comment?: string; background?: string }> = {}): string {
   const W = vb.x1 - vb.x0;
   const H = vb.y1 - vb.y0;
   return [
     '<?xml version="1.0" encoding="UTF-8"?>',
     `<svg xmlns="http://www.w3.org/2000/svg" width="${fmt(W, 3)}mm" height="${fmt(H, 3)}mm" viewBox="${fmt(vb.x0, 3)} ${fmt(vb.y0, 3)} ${fmt(W, 3)} ${fmt(H, 3)}" font-family="${FONT_FAMILY}">`,
-    `<title>${xmlEscape(o.title)}</title>`,
+    `<title>${xmlEscape(title)}</title>`,
     ...(o.comment ? [`<desc>${xmlEscape(o.comment)}</desc>`] : []),
     `<rect class="background" x="${fmt(vb.x0, 3)}" y="${fmt(vb.y0, 3)}" width="${fmt(W, 3)}" height="${fmt(H, 3)}" fill="${o.background ?? '#ffffff'}"/>`,
-    ...head,
-    ...o.body,
-    ...(o.labels?.length ? [`<g class="labels">`, labelsSvg(o.labels), '</g>'] : []),
-    ...foot,
+    ...body,
     '</svg>',
     '',
   ].join('\n');

@@ -70,11 +70,7 @@ export function assemblyViewSvg(view: AssemblyView, options: AssemblyViewSvgOpti
     box = unionBox(box, ring);
     labels.push({ anchor: c, text: mk.label, sizeMm: 2.8, fill: '#d00000', clearMm: 2.5 });
   }
-  const legend: LegendEntry[] = [...kinds].map((k) => {
-    const s = STYLE[k];
-    return s.fill === 'none' ? { symbol: 'line', colour: s.stroke, label: s.word } : { symbol: 'fill', colour: s.fill, opacity: s.opacity, label: s.word };
-  });
-  if (view.dimensions.length) legend.push({ symbol: 'line', colour: '#c00000', label: 'stack-up heights, mm' });
+  const legend = viewLegend(kinds, view.dimensions.length > 0);
   if (options.markers?.length) legend.push({ symbol: 'dot', colour: '#d00000', label: 'finding (number as in the report)' });
   const side = view.view === 'side';
   return pictureSvg({
@@ -89,4 +85,14 @@ export function assemblyViewSvg(view: AssemblyView, options: AssemblyViewSvgOpti
     notes: [...(view.view === 'front' ? ['Seen from the front: the frame\'s front faces you.'] : []), ...(options.notes ?? [])],
     marginMm: options.marginMm ?? 4,
   });
+}
+
+/** Legend rows of an assembly view: one per kind of item drawn, and the stack-up dimension chain if drawn. */
+export function viewLegend(kinds: Iterable<ViewItemKind>, dimensions: boolean): LegendEntry[] {
+  const out: LegendEntry[] = [...kinds].map((k) => {
+    const s = STYLE[k];
+    return s.fill === 'none' ? { symbol: 'line', colour: s.stroke, label: s.word } : { symbol: 'fill', colour: s.fill, opacity: s.opacity, label: s.word };
+  });
+  if (dimensions) out.push({ symbol: 'line', colour: '#c00000', label: 'stack-up heights, mm' });
+  return out;
 }

@@ -2,7 +2,7 @@ import type { FrameModeShape } from '../analysis/frameShape.js';
 import type { Vec3 } from '../assembly/types.js';
 import type { Vec2 } from '../geometry/types.js';
 import { fmt, xmlEscape } from './format.js';
-import { EMPTY_BOX, FONT_FAMILY, frontArrow, legend, niceLengthMm, padBox, placeLabels, labelsSvg, scaleBar, svgText, textBox, unionBox, PLAN_VIEW, type Box } from './picture.js';
+import { EMPTY_BOX, frontArrow, legend, niceLengthMm, padBox, placeLabels, labelsSvg, scaleBar, svgDocument, svgText, textBox, unionBox, PLAN_VIEW, type Box } from './picture.js';
 
 /** What a picture of one assembled-frame mode shows (the analysis computed the shape). */
 export type FrameModePlot = Readonly<{
@@ -121,16 +121,5 @@ export function frameModeSvg(plot: FrameModePlot): string {
   const noteY = all.y1 + 4;
   body.push(svgText(all.x0, noteY, CAUTION, 2.8, { fill: '#444444' }));
   all = unionBox(all, textBox(all.x0, noteY, CAUTION, 2.8));
-  const vb = padBox(all, 4);
-  const W = vb.x1 - vb.x0;
-  const H = vb.y1 - vb.y0;
-  return [
-    '<?xml version="1.0" encoding="UTF-8"?>',
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${fmt(W, 3)}mm" height="${fmt(H, 3)}mm" viewBox="${fmt(vb.x0, 3)} ${fmt(vb.y0, 3)} ${fmt(W, 3)} ${fmt(H, 3)}" font-family="${FONT_FAMILY}">`,
-    `<title>${xmlEscape(`${plot.title}: ${fmt(plot.frequencyHz, 1)} Hz`)}</title>`,
-    `<rect class="background" x="${fmt(vb.x0, 3)}" y="${fmt(vb.y0, 3)}" width="${fmt(W, 3)}" height="${fmt(H, 3)}" fill="#ffffff"/>`,
-    ...body,
-    '</svg>',
-    '',
-  ].join('\n');
+  return svgDocument(padBox(all, 4), `${plot.title}: ${fmt(plot.frequencyHz, 1)} Hz`, body);
 }

@@ -1,4 +1,6 @@
+import { wrapText } from '../params/textWidth.js';
 import { fmt, xmlEscape } from './format.js';
+import { EMPTY_BOX, legend, padBox, svgDocument, svgText, textBox, unionBox, type Box, type LegendEntry } from './picture.js';
 
 /** One frame of a size range on the chart. Props in inches; wheelbase mm; mass g; frequencies Hz. */
 export type RangeChartPoint = Readonly<{
@@ -23,7 +25,7 @@ const PLOT_H = 60;
 const LEFT = 24;
 const RIGHT = 8;
 const TOP = 16;
-const PANEL_GAP = 22;
+const PANEL_GAP = 26;
 const FONT = 3.5;
 
 /**
@@ -42,15 +44,6 @@ export function niceTicks(lo: number, hi: number, count = 5): number[] {
   const out: number[] = [];
   for (let v = first; v < hi + step - 1e-9 * step; v += step) out.push(Number(v.toFixed(10)));
   return out;
-}
-
-/** Average advance of a sans-serif character, as a fraction of the font size (about half an em). */
-const CHAR_EM = 0.55;
-
-/** Break text at spaces into lines that fit `widthMm` at `fontMm` (a word longer than a line keeps its own line). */
-export function wrapText(text: string, widthMm: number, fontMm: number): string[] {
-  const max = Math.max(10, Math.floor(widthMm / (CHAR_EM * fontMm)));
-  return (text.match(new RegExp(`\\S.{0,${max - 1}}(?=\\s|$)|\\S+`, 'g')) ?? []).map((l) => l.trim());
 }
 
 type Series = Readonly<{ name: string; key: string; values: readonly number[]; colour: string; dashed?: boolean }>;
@@ -86,15 +79,14 @@ export function rangeChartSvg(points: readonly RangeChartPoint[], band: readonly
     },
   ];
   const panelH = TOP + PLOT_H + PANEL_GAP;
-  const W = LEFT + PLOT_W + RIGHT;
-  const H = head + panels.length * panelH + footer.length * 4.2 + 6;
-  const out: string[] = [
-    '<?xml version="1.0" encoding="UTF-8"?>',
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${fmt(W, 3)}mm" height="${fmt(H, 3)}mm" viewBox="0 0 ${fmt(W, 3)} ${fmt(H, 3)}" font-family="sans-serif">`,
-    `<title>${xmlEscape(options.title)}</title>`,
-    `<rect width="${fmt(W, 3)}" height="${fmt(H, 3)}" fill="#ffffff"/>`,
-    ...title.map((t, i) => `<text x="6" y="${fmt(9 + i * 6, 3)}" font-size="5">${xmlEscape(t)}</text>`),
-  ];
+  // Everything drawn widens `drawn`; the viewBox is that box plus a margin (the picture convention).
+  let drawn: Box = EMPTY_BOX;
+  const out: string[] = [];
+  const text = (x: number, y: number, t: string, size: number, anchor: 'start' | 'middle' | 'end' = 'start', bold = false): void => {
+    out.push(svgText(x, y, t, size, { anchor, bold }));
+    drawn = unionBox(drawn, textBox(x, y, t, size, anchor, bold));
+  };
+  title.forEach((t, i) => text(6, 9 + i * 6, t, 5));
   panels.forEach((panel, pi) => {
     const top = head + pi * panelH + TOP;
     const bottom = top + PLOT_H;
@@ -105,16 +97,18 @@ export function rangeChartSvg(points: readonly RangeChartPoint[], band: readonly
     const X = (v: number) => LEFT + ((v - x0) / (x1 - x0)) * PLOT_W;
     const Y = (v: number) => bottom - ((v - y0) / (y1 - y0)) * PLOT_H;
     out.push(`<g id="panel-${pi + 1}">`);
-    out.push(`<text x="${fmt(LEFT, 3)}" y="${fmt(top - 5, 3)}" font-size="${FONT + 0.5}" font-weight="bold">${xmlEscape(`${panel.title} [${panel.unit}]`)}</text>`);
+    text(LEFT, top - 5, `${panel.title} [${panel.unit}]`, FONT + 0.5, 'start', true);
     for (const t of yTicks) {
       out.push(`<line class="grid-y" data-value="${fmt(t, 6)}" x1="${fmt(LEFT, 3)}" y1="${fmt(Y(t), 3)}" x2="${fmt(LEFT + PLOT_W, 3)}" y2="${fmt(Y(t), 3)}" stroke="#dddddd" stroke-width="0.2"/>`);
       out.push(`<text class="tick-y" data-value="${fmt(t, 6)}" x="${fmt(LEFT - 1.5, 3)}" y="${fmt(Y(t) + 1.2, 3)}" font-size="${FONT}" text-anchor="end">${fmt(t, 6)}</text>`);
+      drawn = unionBox(drawn, textBox(LEFT - 1.5, Y(t) + 1.2, fmt(t, 6), FONT, 'end'));
     }
     for (const t of xTicks) {
       out.push(`<line class="grid-x" data-value="${fmt(t, 6)}" x1="${fmt(X(t), 3)}" y1="${fmt(top, 3)}" x2="${fmt(X(t), 3)}" y2="${fmt(bottom, 3)}" stroke="#eeeeee" stroke-width="0.2"/>`);
       out.push(`<text class="tick-x" data-value="${fmt(t, 6)}" x="${fmt(X(t), 3)}" y="${fmt(bottom + 5, 3)}" font-size="${FONT}" text-anchor="middle">${fmt(t, 6)}</text>`);
+      drawn = unionBox(drawn, textBox(X(t), bottom + 5, fmt(t, 6), FONT, 'middle'));
     }
-    out.push(`<text x="${fmt(LEFT + PLOT_W / 2, 3)}" y="${fmt(bottom + 10, 3)}" font-size="${FONT}" text-anchor="middle">prop diameter [in]</text>`);
+    text(LEFT + PLOT_W / 2, bottom + 10, 'prop diameter [in]', FONT, 'middle');
     if (panel.band && panel.band.length > 1) {
       const upper = panel.band.map((b) => `${fmt(X(b.propsIn), 3)},${fmt(Y(b.highHz), 3)}`);
       const lower = [...panel.band].reverse().map((b) => `${fmt(X(b.propsIn), 3)},${fmt(Y(b.lowHz), 3)}`);
@@ -128,20 +122,23 @@ export function rangeChartSvg(points: readonly RangeChartPoint[], band: readonly
         out.push(`<circle class="point" data-series="${s.key}" data-x="${fmt(p.propsIn, 6)}" data-y="${fmt(s.values[i], 6)}" cx="${fmt(cx, 3)}" cy="${fmt(cy, 3)}" r="1.2" fill="${p.source ? '#ffffff' : s.colour}" stroke="${s.colour}" stroke-width="0.4"><title>${xmlEscape(`${p.label}: ${s.name} ${fmt(s.values[i], 1)} ${panel.unit}`)}</title></circle>`);
       });
     }
-    // Legend, top right of the plot.
-    const legend = [...panel.series.map((s) => ({ text: s.name, colour: s.colour, dashed: s.dashed ?? false, box: false })), ...(panel.band ? [{ text: "motors' top rotation band", colour: '#f4a261', dashed: false, box: true }] : [])];
-    legend.forEach((l, i) => {
-      const ly = top + 4 + i * 4.5;
-      const lx = LEFT + PLOT_W - 62;
-      out.push(l.box
-        ? `<rect x="${fmt(lx, 3)}" y="${fmt(ly - 2, 3)}" width="6" height="3" fill="${l.colour}" fill-opacity="0.35"/>`
-        : `<line x1="${fmt(lx, 3)}" y1="${fmt(ly - 0.5, 3)}" x2="${fmt(lx + 6, 3)}" y2="${fmt(ly - 0.5, 3)}" stroke="${l.colour}" stroke-width="0.5"${l.dashed ? ' stroke-dasharray="2 1.5"' : ''}/>`);
-      out.push(`<text x="${fmt(lx + 8, 3)}" y="${fmt(ly + 0.7, 3)}" font-size="${FONT - 0.5}">${xmlEscape(l.text)}</text>`);
-    });
+    // Legend under the axis title: a row per series and the band (the shared legend of every picture).
+    const rows: LegendEntry[] = [
+      ...panel.series.map((s) => ({ symbol: 'line' as const, colour: s.colour, label: s.name, ...(s.dashed ? { dash: '2 1.5' } : {}) })),
+      ...(panel.band ? [{ symbol: 'fill' as const, colour: '#f4a261', opacity: 0.35, label: "motors' top rotation band" }] : []),
+      ...(sorted.some((p) => p.source) ? [{ symbol: 'ring' as const, colour: '#555555', opacity: 0, label: 'hollow point: the source design' }] : []),
+    ];
+    const lg = legend(LEFT, bottom + 12.5, rows, PLOT_W, FONT - 0.5);
+    out.push(lg.svg);
     out.push(`<rect x="${fmt(LEFT, 3)}" y="${fmt(top, 3)}" width="${fmt(PLOT_W, 3)}" height="${fmt(PLOT_H, 3)}" fill="none" stroke="#000000" stroke-width="0.3"/>`);
     out.push('</g>');
+    // The plot frame, and the points on its edges (radius 1.2 mm, stroke 0.4 mm).
+    drawn = unionBox(unionBox(drawn, lg.box), padBox({ x0: LEFT, y0: top, x1: LEFT + PLOT_W, y1: bottom }, 1.4));
   });
-  footer.forEach((line, i) => out.push(`<text x="6" y="${fmt(H - 4 - (footer.length - 1 - i) * 4.2, 3)}" font-size="${FONT - 0.5}">${xmlEscape(line)}</text>`));
-  out.push('</svg>', '');
-  return out.join('\n');
+  let fy = drawn.y1 + 2 + FONT;
+  for (const line of footer) {
+    text(6, fy, line, FONT - 0.5);
+    fy += 4.2;
+  }
+  return svgDocument(padBox(drawn, 4), options.title, out);
 }

@@ -1,9 +1,11 @@
 import type { Frame } from '../geometry/frame.js';
-import { loopBBox, transformLoop, unionBBox } from '../geometry/loop.js';
 import { partBBox } from '../geometry/metrics.js';
 import type { Part } from '../geometry/part.js';
-import type { BBox, Loop, Vec2 } from '../geometry/types.js';
+import type { Vec2 } from '../geometry/types.js';
+import { textWidthMm } from '../params/textWidth.js';
 import { fmt, xmlEscape } from './format.js';
+import { EMPTY_BOX, padBox, pictureSvg, PLAN_VIEW, svgText, textBox, unionBox, type Box, type LegendEntry } from './picture.js';
+import { framePlan, mappedBox, mergedLegend, ROLE_FILL, type FramePlan } from './svgOverview.js';
 import { loopPathData } from './svgPath.js';
 
 /** One column of the range sheet: a frame and the text printed under its plan view. */
@@ -17,99 +19,122 @@ export type RangeSheetOptions = Readonly<{
   footer?: readonly string[];
 }>;
 
-const FONT_MM = 4;
-const LINE_MM = 5.5;
+/** Text sizes and line pitch: the size's name, its notes, a part's caption. mm. */
+const LABEL_MM = 5;
+const NOTE_MM = 3.5;
+const CAPTION_MM = 3;
+const LINE = 1.35;
+/** Widest stroke of a flat part (its outline). mm. */
+const PART_STROKE_MM = 0.2;
 
-/** Plan-view loops of every flat plate copy, in frame coordinates (x forward, y left). */
-function planLoops(frame: Frame): Loop[] {
-  const out: Loop[] = [];
-  for (const part of frame.parts) {
-    for (const pl of part.placements) {
-      if (pl.vertical) continue;
-      out.push(transformLoop(part.outline, { rotateRad: pl.rotateRad, translate: pl.translateMm, mirrorY: pl.mirrorY }));
-    }
-  }
-  return out;
+const ORIENTATION_NOTE = 'Plan views with the front up; flat plates in their own coordinates, +x up (an arm\u2019s motor end up). One scale: 1 unit = 1 mm.';
+
+/** One flat plate in a column: its caption, and its size on screen in the plan-view convention (part +x up). */
+type Cell = Readonly<{ part: Part; caption: string; w: number; h: number; cellW: number }>;
+
+const captionOf = (p: Part): string => `${p.name} \u00d7${p.quantity}, ${fmt(p.thicknessMm, 2)} mm`;
+
+function cellOf(part: Part): Cell {
+  const bb = PLAN_VIEW.mapBox(partBBox(part));
+  const w = bb.x1 - bb.x0;
+  const h = bb.y1 - bb.y0;
+  const caption = captionOf(part);
+  return { part, caption, w, h, cellW: Math.max(w + PART_STROKE_MM, textWidthMm(caption, CAPTION_MM)) };
 }
 
-/** Plates drawn flat under the plan view: one copy of each, largest first. */
-const flatParts = (frame: Frame): Part[] => [...frame.parts].filter((p) => p.role !== 'camera-side');
+/** Cells flowed left to right in rows no wider than `widthMm`. */
+function rowsOf(cells: readonly Cell[], widthMm: number, gap: number): Cell[][] {
+  const rows: Cell[][] = [];
+  let row: Cell[] = [];
+  let used = 0;
+  for (const c of cells) {
+    if (row.length && used + gap + c.cellW > widthMm) {
+      rows.push(row);
+      row = [];
+      used = 0;
+    }
+    used += (row.length ? gap : 0) + c.cellW;
+    row.push(c);
+  }
+  if (row.length) rows.push(row);
+  return rows;
+}
+
+const rowWidth = (row: readonly Cell[], gap: number): number => row.reduce((a, c) => a + c.cellW, 0) + gap * (row.length - 1);
 
 /**
- * The range sheet: every size of a size range side by side at one scale (one user unit = 1 mm), each column
- * holding the plan view of the assembled frame (forward up, prop discs dashed), its notes, and each
- * flat plate drawn in its own coordinates below. Data in, SVG text out; deterministic.
+ * The range sheet: every size of a size range side by side at one scale (one user unit = 1 mm), in the
+ * picture convention (src/export/picture.ts): each column holds the plan view of the assembled frame
+ * (front up, prop discs dashed, plates by role), its name and notes, and every plate flat in its own
+ * coordinates (+x up) under it; a front arrow, a scale bar, a legend and the cautions at the foot.
+ * Data in, SVG text out; deterministic.
  */
 export function rangeSheetSvg(members: readonly RangeSheetMember[], options: RangeSheetOptions): string {
   const gap = options.gapMm ?? 15;
-  type Column = { member: RangeSheetMember; plan: Loop[]; planBox: BBox; parts: Array<{ part: Part; box: BBox }>; width: number; height: number };
-  const columns: Column[] = members.map((member) => {
-    const plan = planLoops(member.frame);
-    const r = member.frame.propDiameterMm / 2;
-    let box: BBox = [Infinity, Infinity, -Infinity, -Infinity];
-    for (const l of plan) box = unionBBox(box, loopBBox(l));
-    for (const s of member.frame.sites) box = unionBBox(box, [s.motorMm[0] - r, s.motorMm[1] - r, s.motorMm[0] + r, s.motorMm[1] + r]);
-    const parts = flatParts(member.frame).map((part) => ({ part, box: partBBox(part) }));
-    // Plan view is drawn forward-up: its screen width is the frame's y extent.
-    const width = Math.max(box[3] - box[1], ...parts.map((p) => p.box[2] - p.box[0]));
-    const height = box[2] - box[0] + (member.notes.length + 1) * LINE_MM + parts.reduce((a, p) => a + (p.box[3] - p.box[1]) + LINE_MM + gap / 2, 0);
-    return { member, plan, planBox: box, parts, width, height };
+  const body: string[] = [];
+  const legends: LegendEntry[][] = [];
+  let content: Box = EMPTY_BOX;
+  let x = 0;
+  for (const m of members) {
+    // Where the plan lands at the origin tells its size; it is then moved into its column.
+    const probe = framePlan(m.frame).box;
+    const cells = m.frame.parts.map(cellOf);
+    const texts = [textWidthMm(m.label, LABEL_MM, true), ...m.notes.map((n) => textWidthMm(n, NOTE_MM))];
+    // The column is as wide as its plan, its widest text, and its widest plate.
+    const colW = Math.max(probe.x1 - probe.x0, ...texts, ...cells.map((c) => c.cellW));
+    const cx = x + colW / 2;
+    const shift: Vec2 = [cx - (probe.x0 + probe.x1) / 2, -probe.y0];
+    const map = (p: Vec2): Vec2 => {
+      const q = PLAN_VIEW.map(p);
+      return [q[0] + shift[0], q[1] + shift[1]];
+    };
+    const plan: FramePlan = framePlan(m.frame, map);
+    legends.push([...plan.legend]);
+    body.push(`<g id="${xmlEscape(slugId(m.label))}">`, ...plan.body);
+    let box = plan.box;
+    let y = plan.box.y1 + LABEL_MM * LINE;
+    body.push(svgText(cx, y, m.label, LABEL_MM, { anchor: 'middle', bold: true }));
+    box = unionBox(box, textBox(cx, y, m.label, LABEL_MM, 'middle', true));
+    for (const n of m.notes) {
+      y += NOTE_MM * LINE;
+      body.push(svgText(cx, y, n, NOTE_MM, { anchor: 'middle' }));
+      box = unionBox(box, textBox(cx, y, n, NOTE_MM, 'middle'));
+    }
+    y += gap / 2;
+    for (const row of rowsOf(cells, colW, gap / 2)) {
+      let px = cx - rowWidth(row, gap / 2) / 2;
+      const captionY = y + CAPTION_MM;
+      const top = captionY + CAPTION_MM * 0.6;
+      for (const c of row) {
+        const mid = px + c.cellW / 2;
+        body.push(svgText(mid, captionY, c.caption, CAPTION_MM, { anchor: 'middle' }));
+        box = unionBox(box, textBox(mid, captionY, c.caption, CAPTION_MM, 'middle'));
+        const bb = PLAN_VIEW.mapBox(partBBox(c.part));
+        const at: Vec2 = [mid - (bb.x0 + bb.x1) / 2, top - bb.y0];
+        const pmap = (p: Vec2): Vec2 => {
+          const q = PLAN_VIEW.map(p);
+          return [q[0] + at[0], q[1] + at[1]];
+        };
+        const d = [c.part.outline, ...c.part.features.map((f) => f.loop)].map((l) => loopPathData(l, pmap)).join(' ');
+        body.push(`<path d="${d}" fill="${ROLE_FILL[c.part.role]}" fill-opacity="0.85" fill-rule="evenodd" stroke="#000000" stroke-width="${PART_STROKE_MM}"><title>${xmlEscape(c.part.name)}</title></path>`);
+        box = unionBox(box, padBox(mappedBox(partBBox(c.part), pmap), PART_STROKE_MM / 2));
+        px += c.cellW + gap / 2;
+      }
+      y = top + Math.max(...row.map((c) => c.h)) + gap / 2;
+    }
+    body.push('</g>');
+    content = unionBox(content, box);
+    x += colW + gap;
+  }
+  return pictureSvg({
+    title: options.title,
+    heading: `${options.title} \u2014 one scale, 1 unit = 1 mm`,
+    body,
+    contentBox: content,
+    front: 'front',
+    legend: mergedLegend(legends),
+    notes: [ORIENTATION_NOTE, ...(options.footer ?? [])],
   });
-  const headerH = 12;
-  const footer = options.footer ?? [];
-  const W = columns.reduce((a, c) => a + c.width + gap, gap);
-  const H = headerH + Math.max(0, ...columns.map((c) => c.height)) + gap + footer.length * LINE_MM + gap;
-  const out: string[] = [
-    '<?xml version="1.0" encoding="UTF-8"?>',
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${fmt(W, 3)}mm" height="${fmt(H, 3)}mm" viewBox="0 0 ${fmt(W, 3)} ${fmt(H, 3)}" font-family="sans-serif">`,
-    `<title>${xmlEscape(options.title)}</title>`,
-    `<rect width="${fmt(W, 3)}" height="${fmt(H, 3)}" fill="#ffffff"/>`,
-    `<text x="${fmt(gap, 3)}" y="${fmt(headerH - 3, 3)}" font-size="6">${xmlEscape(options.title)} — one scale, 1 unit = 1 mm</text>`,
-  ];
-  let x = gap;
-  for (const c of columns) {
-    const box = c.planBox;
-    const cx = x + c.width / 2;
-    const planW = box[3] - box[1];
-    const left = cx - planW / 2;
-    let y = headerH + gap / 2;
-    // Screen X = left + (maxY − y), screen Y = top + (maxX − x): forward up, left on the left.
-    const top = y;
-    const map = (p: Vec2): Vec2 => [left + (box[3] - p[1]), top + (box[2] - p[0])];
-    const r = c.member.frame.propDiameterMm / 2;
-    out.push(`<g id="${xmlEscape(slugId(c.member.label))}">`);
-    for (const s of c.member.frame.sites) {
-      const p = map(s.motorMm);
-      out.push(`<circle cx="${fmt(p[0], 3)}" cy="${fmt(p[1], 3)}" r="${fmt(r, 3)}" fill="#9ecbff" fill-opacity="0.2" stroke="#3b82c4" stroke-width="0.4" stroke-dasharray="3 2"/>`);
-    }
-    out.push(`<path d="${c.plan.map((l) => loopPathData(l, map)).join(' ')}" fill="#3a3f47" fill-opacity="0.8" stroke="#000000" stroke-width="0.25"/>`);
-    y = top + (box[2] - box[0]) + LINE_MM;
-    out.push(`<text x="${fmt(cx, 3)}" y="${fmt(y, 3)}" font-size="${FONT_MM + 1}" text-anchor="middle" font-weight="bold">${xmlEscape(c.member.label)}</text>`);
-    for (const n of c.member.notes) {
-      y += LINE_MM;
-      out.push(`<text x="${fmt(cx, 3)}" y="${fmt(y, 3)}" font-size="${FONT_MM}" text-anchor="middle">${xmlEscape(n)}</text>`);
-    }
-    for (const { part, box: pb } of c.parts) {
-      y += gap / 2 + LINE_MM;
-      out.push(`<text x="${fmt(cx, 3)}" y="${fmt(y - 1.5, 3)}" font-size="${FONT_MM - 0.5}" text-anchor="middle">${xmlEscape(`${part.name} ×${part.quantity}, ${fmt(part.thicknessMm, 2)} mm`)}</text>`);
-      const pw = pb[2] - pb[0];
-      const px = cx - pw / 2;
-      const py = y;
-      const pmap = (p: Vec2): Vec2 => [px + (p[0] - pb[0]), py + (pb[3] - p[1])];
-      const d = [part.outline, ...part.features.map((f) => f.loop)].map((l) => loopPathData(l, pmap)).join(' ');
-      out.push(`<path d="${d}" fill="#566070" fill-opacity="0.85" fill-rule="evenodd" stroke="#000000" stroke-width="0.2"><title>${xmlEscape(part.name)}</title></path>`);
-      y += pb[3] - pb[1];
-    }
-    out.push('</g>');
-    x += c.width + gap;
-  }
-  let fy = H - gap / 2 - (footer.length - 1) * LINE_MM;
-  for (const line of footer) {
-    out.push(`<text x="${fmt(gap, 3)}" y="${fmt(fy, 3)}" font-size="${FONT_MM - 0.5}">${xmlEscape(line)}</text>`);
-    fy += LINE_MM;
-  }
-  out.push('</svg>', '');
-  return out.join('\n');
 }
 
 const slugId = (s: string): string => `size-${s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '')}`;

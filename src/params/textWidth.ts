@@ -28,3 +28,21 @@ export function textWidthMm(text: string, sizeMm: number, bold = false): number 
   }
   return (w / 1000) * sizeMm;
 }
+
+/**
+ * Break text at spaces into lines no wider than `widthMm` at `fontMm`, measured with the drawing
+ * font's advance widths (`textWidthMm`); a word longer than a line keeps its own line.
+ */
+export function wrapText(text: string, widthMm: number, fontMm: number): string[] {
+  const out: string[] = [];
+  let line = '';
+  for (const word of text.split(/\s+/).filter((w) => w.length)) {
+    const next = line ? `${line} ${word}` : word;
+    if (line && textWidthMm(next, fontMm) > widthMm) {
+      out.push(line);
+      line = word;
+    } else line = next;
+  }
+  if (line) out.push(line);
+  return out;
+}

@@ -1,5 +1,5 @@
 import { arc, assertNever, line, type Loop, type Segment, type Vec2 } from '../geometry/index.js';
-import { TEXT_ASCENT_EM, TEXT_DESCENT_EM, textWidthMm } from '../params/textWidth.js';
+import { TEXT_ASCENT_EM, TEXT_DESCENT_EM, textWidthMm, wrapText } from '../params/textWidth.js';
 import { DRAWING_VIEW_MM, type DrawingSet, type DrawingSheet, type PartSheet, type SummarySheet, type Table, type TableRow } from './drawing.js';
 
 /**
@@ -425,16 +425,4 @@ function titleBlock(set: DrawingSet, sheet: DrawingSheet, title: string, n: numb
 }
 
 /** Greedy word wrap to a width in mm at the body text size. */
-function wrap(s: string, widthMm: number): string[] {
-  const out: string[] = [];
-  let cur = '';
-  for (const w of s.split(' ')) {
-    const next = cur ? `${cur} ${w}` : w;
-    if (cur && textWidthMm(next, T) > widthMm) {
-      out.push(cur);
-      cur = w;
-    } else cur = next;
-  }
-  if (cur) out.push(cur);
-  return out;
-}
+const wrap = (s: string, widthMm: number): string[] => wrapText(s, widthMm, T);

@@ -165,13 +165,47 @@ export function fitBody(source: Design, variant: Design): BodyFit {
     if (ok(mid)) lo = mid;
     else hi = mid;
   }
-  // Length rounded down to 0.5 mm; every position scaled by the same factor.
-  const length = Math.floor((variant.body.lengthMm * lo) / 0.5) * 0.5;
+  // Length rounded down to 0.5 mm; every position scaled by the same factor, except that the body
+  // grows back as far as the battery's strap slots need (see `batteryHold`).
+  const propLength = Math.floor((variant.body.lengthMm * lo) / 0.5) * 0.5;
+  const hold = batteryHold(variant, propLength / variant.body.lengthMm);
+  const length = Math.max(propLength, Math.ceil((variant.body.lengthMm * hold.factor) / 0.5 - 1e-9) * 0.5);
   const factor = length / variant.body.lengthMm;
-  const why = `props would crowd the body hardware (${now.what}: ${now.clearanceMm.toFixed(1)} mm, need ${required.toFixed(1)}); body shortened ×${factor.toFixed(3)}`;
+  const grown = length > propLength;
+  const why = `props would crowd the body hardware (${now.what}: ${now.clearanceMm.toFixed(1)} mm, need ${required.toFixed(1)}); body shortened ×${factor.toFixed(3)}${grown ? `, ${(length - propLength).toFixed(1)} mm longer than that so the battery's strap slots stay on the top plate` : ''}`;
   const changes: Change[] = [{ path: ['body', 'lengthMm'], old: variant.body.lengthMm, new: length, why }];
-  if (variant.topPlate.lengthMm !== undefined) changes.push({ path: ['topPlate', 'lengthMm'], old: variant.topPlate.lengthMm, new: Math.floor((variant.topPlate.lengthMm * factor) / 0.5) * 0.5, why: 'follows the body length' });
-  for (const p of xPositions(variant)) changes.push({ path: p.path, old: p.value, new: round2(p.value * factor), why: 'position moves with the body length (size kept)' });
+  if (variant.topPlate.lengthMm !== undefined) changes.push({ path: ['topPlate', 'lengthMm'], old: variant.topPlate.lengthMm, new: Math.ceil((variant.topPlate.lengthMm * factor) / 0.5 - 1e-9) * 0.5, why: 'follows the body length' });
+  const slots = batteryHold(variant, factor).slots;
+  for (const p of xPositions(variant)) {
+    const slot = p.path[1] === 'strapSlots' ? slots.get(p.value) : undefined;
+    if (slot !== undefined) changes.push({ path: p.path, old: p.value, new: round2(slot), why: 'strap slot keeps its distance from the battery (the battery does not shrink with the body)' });
+    else changes.push({ path: p.path, old: p.value, new: round2(p.value * factor), why: 'position moves with the body length (size kept)' });
+  }
   const after = propBodyClearanceMm(shortenedBody(variant, factor), variant.props.diameterMm);
-  return { ...base, clearanceMm: after.clearanceMm, factor, changes, line: `Body: shortened from ${variant.body.lengthMm} to ${length} mm so props clear standoffs and stack by ${after.clearanceMm.toFixed(1)} mm (required ${required.toFixed(1)} mm, the source's clearance capped at the tip gap).` };
+  return { ...base, clearanceMm: after.clearanceMm, factor, changes, line: `Body: shortened from ${variant.body.lengthMm} to ${length} mm so props clear standoffs and stack by ${after.clearanceMm.toFixed(1)} mm (required ${required.toFixed(1)} mm, the source's clearance capped at the tip gap)${grown ? `; ${(length - propLength).toFixed(1)} mm of it kept to hold the battery's strap slots` : ''}.` };
+}
+
+/**
+ * A battery strapped on the top plate keeps its length when the body is shortened, so its strap
+ * slots keep their distance from its centre (the centre moves with the body) rather than closing
+ * in on it. The slots must stay on the top plate with a margin beyond them (the source's, at most the
+ * web the checks warn below): the least
+ * body factor (≥ `factor`) at which they do, and each slot's new x keyed by its old x.
+ */
+export function batteryHold(d: Design, factor: number): { factor: number; slots: Map<number, number> } {
+  const battery = d.components.find((c) => c.kind === 'battery');
+  const xs = d.topPlate.strapSlots.xPositionsMm;
+  if (!battery || battery.kind !== 'battery' || battery.side !== 'top' || xs.length === 0) return { factor, slots: new Map(xs.map((x) => [x, x * factor])) };
+  const w = d.topPlate.strapSlots.slotWidthMm ?? 3;
+  const plate = d.topPlate.lengthMm ?? d.body.lengthMm;
+  const reach = (f: number) => Math.max(...xs.map((x) => Math.abs(battery.xMm * f + (x - battery.xMm)))) + w / 2;
+  // The source's margin beyond the outer slot, but no more than the web the checks ask of the top plate
+  // (warning level: the larger of minMm and perThickness × t, times warnFactor).
+  const web = d.checks['web-width'];
+  const webMm = Math.max(web.minMm, web.perThickness * d.topPlate.thicknessMm) * web.warnFactor;
+  const margin = Math.min(Math.max(0, plate / 2 - reach(1)), webMm);
+  // The reach shrinks as the factor grows (the battery moves out with it), so a few passes settle.
+  let f = factor;
+  for (let i = 0; i < 20; i++) f = Math.min(1, Math.max(factor, (2 * (reach(f) + margin)) / plate));
+  return { factor: f, slots: new Map(xs.map((x) => [x, battery.xMm * f + (x - battery.xMm)])) };
 }

@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { buildFrame } from '../../src/geometry/index.js';
 import { validateDesign } from '../../src/params/index.js';
 import { cameraViewRule, checkFrame, checkOptions, discViewMargin, optionsForDesign, propDiscs, smallestHiding, type CameraPose } from '../../src/checks/index.js';
+import { cameraFixes, type CameraChange } from '../../src/checks/props.js';
 import { designWith } from '../helpers/demo.js';
 
 const rad = (d: number): number => (d * Math.PI) / 180;
@@ -54,6 +55,33 @@ describe('camera-view rule on a design', () => {
     };
     expect(at(off + 0.01)).toBe(0);
     expect(at(off - 0.5)).toBeGreaterThan(0);
+  });
+
+  it('every advised change hides every prop when re-checked at the printed value; slightly short of it does not; smallest first', () => {
+    // Pivot 30 mm up, 40° uptilt: uptilt, lens, pivot height and forward offset each clear on their own.
+    const camera = { pivotHeightMm: 30, uptiltDeg: 40 };
+    const warnings = (change: CameraChange) => {
+      const fr = buildFrame(validateDesign(designWith('tessel-5.yaml', { camera: { ...camera, ...change } })));
+      return cameraViewRule(fr, optionsForDesign(fr.design), propDiscs(fr)).filter((x) => x.severity === 'warning');
+    };
+    const frame = buildFrame(validateDesign(designWith('tessel-5.yaml', { camera })));
+    const fixes = cameraFixes(frame, optionsForDesign(frame.design), propDiscs(frame));
+    expect(fixes.map((f) => Object.keys(f.change).join('+')).sort()).toEqual(['forwardOffsetMm', 'horizontalFovDeg+verticalFovDeg', 'pivotHeightMm', 'uptiltDeg']);
+    const found = warnings({});
+    expect(found.length).toBeGreaterThan(0);
+    // The message lists them in the same order, each with its parameter path and the printed value.
+    const listed = fixes.map((f) => found[0].message.indexOf(f.text));
+    expect(listed.every((i) => i > 0)).toBe(true);
+    expect([...listed].sort((a, b) => a - b)).toEqual(listed);
+    for (let i = 1; i < fixes.length; i++) expect(fixes[i].fraction).toBeGreaterThanOrEqual(fixes[i - 1].fraction);
+    const now: Record<string, number> = { forwardOffsetMm: 16, pivotHeightMm: 30, uptiltDeg: 40, horizontalFovDeg: 120, verticalFovDeg: 90 };
+    for (const f of fixes) {
+      for (const [k, v] of Object.entries(f.change)) expect(f.text, k).toContain(`camera.${k} ${v.toFixed(2)}`);
+      expect(warnings(f.change), f.text).toEqual([]);
+      // Short of it: half a step (0.5 mm, 0.25°, 0.5° of field) back towards the design's value.
+      const back = Object.fromEntries(Object.entries(f.change).map(([k, v]) => [k, v - Math.sign(v - now[k]) * (k === 'uptiltDeg' ? 0.25 : 0.5)]));
+      expect(warnings(back).length, `${f.text}, short: ${JSON.stringify(back)}`).toBeGreaterThan(0);
+    }
   });
 
   it('limits from the checks section change the field of view', () => {

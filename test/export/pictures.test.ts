@@ -13,6 +13,9 @@ import { assemblyViewSvg } from '../../src/export/svgAssemblyView.js';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
 import { chromiumTextBoxes, drawnExtent, overlappingTexts } from '../helpers/render.js';
 import { textWidthMm } from '../../src/params/textWidth.js';
+import { rangeSheetSvg } from '../../src/export/svgRangeSheet.js';
+import { rangeChartSvg } from '../../src/export/svgRangeChart.js';
+import { armSizeText, bandSamples, rangeRow } from '../../src/variant/index.js';
 
 /** The font the PDF embeds and the width table measures; wider than most sans-serif faces. */
 const DRAWING_FONT = 'DejaVu Sans';
@@ -54,6 +57,19 @@ function pictures(): Array<{ name: string; svg: string }> {
     const set = drawingSet(frame.parts, quote, { design: frame.name, revision: frame.revision, date: '2026-12-01', checks: { errors: 0, warnings: 1 } });
     drawingToSvgs(layoutDrawing(set)).forEach((svg, i) => out.push({ name: `${file} drawing sheet ${i + 1}`, svg }));
   }
+  // The size-range sheet and chart, with the demo designs standing in for the sizes of one range
+  // (the CLI's own range output is rendered in test/variant/cli.test.ts).
+  const rows = DEMO_FILES.map((file) => {
+    const frame = demoFrame(file);
+    return { frame, row: rangeRow(frame.name, frame.design, frame, checkFrame(frame), 300) };
+  });
+  const notes = (r: (typeof rows)[number]['row']) => [`props ${r.propsIn} in, wheelbase ${r.wheelbaseMm} mm`, `arms ${armSizeText(r)} mm, f1 ${r.armFrequencyHz} Hz`, `${r.massG} g, checks: ${r.status}`];
+  out.push({ name: 'range sheet', svg: rangeSheetSvg(rows.map(({ frame, row }) => ({ label: row.label, notes: notes(row), frame })), { title: 'Demo frames: size range', footer: ['Caution: estimates, not a certification; test a new frame with props off first.'] }) });
+  const inches = rows.map((r) => r.row.propsIn);
+  out.push({
+    name: 'range chart',
+    svg: rangeChartSvg(rows.map(({ row }, i) => ({ label: row.label, propsIn: row.propsIn, wheelbaseMm: row.wheelbaseMm, massG: row.massG, armFrequencyHz: row.armFrequencyHz, requiredHz: row.requiredHz, source: i === 0 })), bandSamples(Math.min(...inches), Math.max(...inches)), { title: 'Demo frames: wheelbase, mass, arm f1 and the motors\u2019 rotation band', footer: ['Caution: estimates, not a certification; test a new frame with props off first.'] }),
+  });
   return out;
 }
 
@@ -91,6 +107,11 @@ describe('pictures in real renderers', () => {
       expect(drawn!.y, p.name).toBeGreaterThanOrEqual(viewBox.y - px);
       expect(drawn!.x + drawn!.w, p.name).toBeLessThanOrEqual(viewBox.x + viewBox.w + px);
       expect(drawn!.y + drawn!.h, p.name).toBeLessThanOrEqual(viewBox.y + viewBox.h + px);
+      // The viewBox comes from the drawn extent: pictures in the shared frame keep only their 4 mm
+      // margin round what is drawn (plus 1 mm for text the width table measures a little wider).
+      if (!p.svg.includes('class="background"')) continue;
+      const slack = [drawn!.x - viewBox.x, drawn!.y - viewBox.y, viewBox.x + viewBox.w - drawn!.x - drawn!.w, viewBox.y + viewBox.h - drawn!.y - drawn!.h];
+      for (const s of slack) expect(s, `${p.name}: margin ${slack.map((v) => v.toFixed(2)).join(' ')}`).toBeLessThanOrEqual(5);
     }
   }, 240_000); // every picture of every demo design rendered at 8 px/mm: minutes on a loaded 2-core machine
 
@@ -116,6 +137,11 @@ describe('pictures in real renderers', () => {
       expect(p.svg, p.name).not.toMatch(/Helvetica|Arial|Verdana|Segoe/);
       expect(p.svg, p.name).toMatch(/font-family="sans-serif"/);
       if (/drawing sheet/.test(p.name)) continue; // drawing sheets carry a stated scale, a weave and a front arrow
+      if (p.name === 'range chart') {
+        // A chart of numbers against prop size: no front and no length scale, but a legend in every panel.
+        expect(p.svg.match(/class="legend"/g)?.length, p.name).toBe(3);
+        continue;
+      }
       if (/front view/.test(p.name)) {
         // Looking at the front: no arrow, a note says so.
         expect(p.svg).toContain('the frame&apos;s front faces you'.replace('&apos;', "'"));

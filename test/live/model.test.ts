@@ -23,14 +23,15 @@ describe('the live model', () => {
     });
   }
 
-  it('a part finding points at the part (x, −y) and at every copy in plan view, front up (−y, −x)', () => {
+  it('a part finding points at the part and at every copy in plan view, both front (+x) up: (−y, −x)', () => {
     const m = model(demoText('tessel-5.yaml'));
     const frame = demoFrame('tessel-5.yaml');
     const f = m.findings.find((x) => x.part === 'arm' && x.targets.length > 0)!;
     const raw = checkFrame(frame).findings[f.id];
     const arm = frame.parts.find((p) => p.name === 'arm')!;
     const at = raw.atMm!;
-    expect(f.targets[0]).toEqual({ view: 'part:arm', at: [at[0], -at[1]] });
+    // The part's own picture has its +x up like the exported part SVG: screen (−y, −x).
+    expect(f.targets[0]).toEqual({ view: 'part:arm', at: [-at[1] + 0, -at[0] + 0] });
     // Each copy by hand: mirror y if the copy is mirrored, rotate by its angle, move to its place.
     const byHand = arm.placements.map((pl) => {
       const y = pl.mirrorY ? -at[1] : at[1];

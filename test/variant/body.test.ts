@@ -1,6 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import YAML from 'yaml';
 import { makeVariant, planVariant, VariantRefusal } from '../../src/variant/index.js';
+import { buildFrame } from '../../src/geometry/frame.js';
+import { validateDesign } from '../../src/params/index.js';
+import { checkFrame } from '../../src/checks/index.js';
+import { batteryHold } from '../../src/variant/body.js';
+import { designWith } from '../helpers/demo.js';
 import { demoText, motorsFromRaw, propMmFromRaw } from './helpers.js';
 
 /**
@@ -53,6 +58,31 @@ describe('body length: only what the new clearances need', () => {
     expect(raw.topPlate.strapSlots.strapWidthMm).toBe(src.topPlate.strapSlots.strapWidthMm);
   });
 
+  it('a shortened body keeps the battery between its strap slots (they keep their distance from it) and the slots on the top plate', () => {
+    const src = YAML.parse(demoText('tessel-5'));
+    const auto = makeVariant(demoText('tessel-5'), { props: '7in' });
+    const given = Math.ceil((auto.wheelbase.minimumMm + auto.wheelbase.bodyKeptMm) / 2);
+    const raw = YAML.parse(planVariant(demoText('tessel-5'), { props: '7in', wheelbase: given }).text);
+    const k = raw.body.lengthMm / src.body.lengthMm;
+    expect(k).toBeLessThan(1);
+    const battery = src.components.find((c: { kind: string }) => c.kind === 'battery');
+    const b = raw.components.find((c: { kind: string }) => c.kind === 'battery');
+    const L = battery.sizeMm[0];
+    const w = src.topPlate.strapSlots.slotWidthMm ?? 3;
+    const spacing = (xs: number[]) => Math.max(...xs) - Math.min(...xs);
+    // By hand, from the files: the source's slots scaled with the body would leave less room between
+    // them than the battery is long (the strap could not pass: what the battery-fit check reports) ...
+    expect(k * spacing(src.topPlate.strapSlots.xPositionsMm) - w).toBeLessThan(L);
+    // ... so they keep their distance from the battery's centre, and the battery fits between them.
+    raw.topPlate.strapSlots.xPositionsMm.forEach((x: number, i: number) => expect(x - (b.xMm ?? 0)).toBeCloseTo(src.topPlate.strapSlots.xPositionsMm[i] - (battery.xMm ?? 0), 1));
+    expect(spacing(raw.topPlate.strapSlots.xPositionsMm) - w).toBeGreaterThanOrEqual(L);
+    // The slots stay on the top plate.
+    const plate = raw.topPlate.lengthMm ?? raw.body.lengthMm;
+    for (const x of raw.topPlate.strapSlots.xPositionsMm) expect(Math.abs(x) + w / 2).toBeLessThanOrEqual(plate / 2);
+    const report = checkFrame(buildFrame(validateDesign(raw)));
+    expect(report.findings.filter((f) => f.rule === 'battery-fit')).toEqual([]);
+  });
+
   it('a body shortened that much no longer holds its parts clear of the props: refused, pointing to --wheelbase auto', () => {
     const auto = makeVariant(demoText('tessel-5'), { props: '7in' });
     const given = Math.ceil((auto.wheelbase.minimumMm + auto.wheelbase.bodyKeptMm) / 2);
@@ -66,5 +96,21 @@ describe('body length: only what the new clearances need', () => {
     expect(refusal!.constraint).toMatch(/every check \(\d+ errors? on the lightest arm that meets the size rule: /);
     expect(refusal!.alternative).toMatch(/--wheelbase auto/);
     expect(refusal!.attempt!.errors).toBeGreaterThan(0);
+  });
+
+  it('a body shortened further than the strap slots allow grows back until the outer slot keeps its web to the plate end', () => {
+    // Battery at x 0, slots moved out to ±40 mm on the 116 mm top plate (source margin 58 − 40 − w/2).
+    const d = validateDesign(designWith('tessel-5.yaml', { topPlate: { strapSlots: { xPositionsMm: [-40, 40] } } }));
+    const plate = d.topPlate.lengthMm ?? d.body.lengthMm;
+    const w = d.topPlate.strapSlots.slotWidthMm ?? 3;
+    const web = d.checks['web-width'];
+    const m = Math.min(plate / 2 - 40 - w / 2, Math.max(web.minMm, web.perThickness * d.topPlate.thicknessMm) * web.warnFactor);
+    const hold = batteryHold(d, 0.5);
+    // By hand: the plate's half length f × plate / 2 must reach 40 + w/2 + m.
+    expect(hold.factor).toBeCloseTo((2 * (40 + w / 2 + m)) / plate, 9);
+    expect(hold.factor).toBeGreaterThan(0.5);
+    expect([...hold.slots.values()]).toEqual([-40, 40]);
+    // A factor that already holds them is kept.
+    expect(batteryHold(d, 0.95).factor).toBe(0.95);
   });
 });

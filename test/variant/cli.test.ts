@@ -102,7 +102,7 @@ describe('framewright variant (built CLI)', () => {
 
     const svg = readFileSync(join(dir, 'range-sheet.svg'), 'utf8');
     // one user unit = 1 mm (CSS Values 3 / SVG 2: width in mm equal to the viewBox width)
-    const m = /width="([0-9.]+)mm" height="([0-9.]+)mm" viewBox="0 0 ([0-9.]+) ([0-9.]+)"/.exec(svg)!;
+    const m = /width="([0-9.]+)mm" height="([0-9.]+)mm" viewBox="[-0-9.]+ [-0-9.]+ ([0-9.]+) ([0-9.]+)"/.exec(svg)!;
     expect(m[1]).toBe(m[3]);
     expect(m[2]).toBe(m[4]);
     // one scale: every size's prop discs are drawn at radius P/2 in mm (7, 5, 6, 7 in)
