@@ -107,6 +107,35 @@ function killTrial(oldSet: ReadonlyMap<string, string>, args: readonly string[],
   });
 }
 
+/**
+ * How long a command's write window lasts on this machine now: from its new set's temporary folder
+ * appearing to the process's exit, the median of three runs over an old set. Kill moments drawn
+ * over twice this window land before and after the swap about equally, whatever the machine's speed
+ * (a fixed window missed the swap on an idle machine, where the writer takes longer to finish than
+ * the fixed window from the folder's appearance).
+ */
+async function writeWindowMs(oldSet: ReadonlyMap<string, string>, args: readonly string[]): Promise<number> {
+  const once = () => {
+    const parent = tmp();
+    const out = join(parent, 'o');
+    mkdirSync(out);
+    for (const [name, data] of oldSet) writeFileSync(join(out, name), data, 'latin1');
+    return new Promise<number>((done) => {
+      let appeared: number | undefined;
+      const watcher = watch(parent, (_e, name) => {
+        if (appeared === undefined && name?.startsWith('.o.fw-new-')) appeared = performance.now();
+      });
+      const child = spawn(process.execPath, args.map((a) => a.replaceAll('{out}', out)), { cwd: REPO, stdio: 'ignore' });
+      child.on('exit', () => {
+        watcher.close();
+        done(appeared === undefined ? 0 : performance.now() - appeared);
+      });
+    });
+  };
+  const w = [await once(), await once(), await once()].sort((a, b) => a - b);
+  return w[1];
+}
+
 /** Run seeded kill trials and check every outcome; returns how often each set survived. */
 async function killTrials(seed: number, trials: number, oldSet: Map<string, string>, newSet: Map<string, string>, args: readonly string[], windowMs: number, runMs: number) {
   const random = rng(seed);
@@ -155,8 +184,10 @@ describe('a kill at any moment leaves one complete set (SIGKILL at seeded random
     await finish(make(2, join(dir, 'new')));
     const runMs = performance.now() - t0;
     const [oldSet, newSet] = [snapshot(join(dir, 'old'))!, snapshot(join(dir, 'new'))!];
-    const outcomes = await killTrials(16, Math.round(24 * scale), oldSet, newSet, ['--input-type=module', '-e', WRITER('{out}', 2)], 15, runMs);
-    if (process.env.KILL_TRIALS) console.log(JSON.stringify(outcomes));
+    const args = ['--input-type=module', '-e', WRITER('{out}', 2)];
+    const windowMs = Math.max(4, Math.ceil(2 * (await writeWindowMs(oldSet, args))));
+    const outcomes = await killTrials(16, Math.round(24 * scale), oldSet, newSet, args, windowMs, runMs);
+    if (process.env.KILL_TRIALS) console.log(JSON.stringify({ windowMs, ...outcomes }));
     // Both outcomes must have happened, or the kills missed the write window altogether.
     expect(outcomes.old, JSON.stringify(outcomes)).toBeGreaterThan(0);
     expect(outcomes.new, JSON.stringify(outcomes)).toBeGreaterThan(0);
