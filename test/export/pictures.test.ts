@@ -11,7 +11,7 @@ import { exampleShop } from '../quote/fixtures.js';
 import { assemblyView, buildAssembly } from '../../src/assembly/index.js';
 import { assemblyViewSvg } from '../../src/export/svgAssemblyView.js';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
-import { chromiumTextBoxes, drawnExtent, overlappingTexts } from '../helpers/render.js';
+import { chromiumTextBoxes, drawnExtent, ONE_PIXEL_MM, overlappingTexts } from '../helpers/render.js';
 import { textWidthMm } from '../../src/params/textWidth.js';
 import { rangeSheetSvg } from '../../src/export/svgRangeSheet.js';
 import { rangeChartSvg } from '../../src/export/svgRangeChart.js';
@@ -101,8 +101,8 @@ describe('pictures in real renderers', () => {
     for (const p of all) {
       const { drawn, viewBox } = drawnExtent(p.svg);
       expect(drawn, p.name).not.toBeNull();
-      // One pixel at 8 px/mm of anti-aliasing.
-      const px = 0.125;
+      // One pixel of anti-aliasing.
+      const px = ONE_PIXEL_MM;
       expect(drawn!.x, p.name).toBeGreaterThanOrEqual(viewBox.x - px);
       expect(drawn!.y, p.name).toBeGreaterThanOrEqual(viewBox.y - px);
       expect(drawn!.x + drawn!.w, p.name).toBeLessThanOrEqual(viewBox.x + viewBox.w + px);
@@ -113,7 +113,7 @@ describe('pictures in real renderers', () => {
       const slack = [drawn!.x - viewBox.x, drawn!.y - viewBox.y, viewBox.x + viewBox.w - drawn!.x - drawn!.w, viewBox.y + viewBox.h - drawn!.y - drawn!.h];
       for (const s of slack) expect(s, `${p.name}: margin ${slack.map((v) => v.toFixed(2)).join(' ')}`).toBeLessThanOrEqual(5);
     }
-  }, 240_000); // every picture of every demo design rendered at 8 px/mm: minutes on a loaded 2-core machine
+  }, 240_000); // every picture of every demo design rendered: a minute on a loaded 2-core machine
 
   it('chromium: no two text boxes overlap, and every text lies inside its picture (default sans-serif and the wide drawing font)', () => {
     if (!requireTool(commandAvailable('chromium'), 'chromium')) return;

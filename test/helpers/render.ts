@@ -65,7 +65,16 @@ export function decodePng(buf: Buffer): { width: number; height: number; rgba: U
  * returns the bounding box (in the picture's user units) of every pixel drawn, and the viewBox.
  * Content inside the viewBox means nothing was clipped.
  */
-export function drawnExtent(svg: string, pxPerUnit = 8, padFraction = 0.1): { drawn: ViewBox | null; viewBox: ViewBox } {
+/**
+ * Resolution of the extent renders: 4 px per mm. Pictures keep a 4 mm margin round what they draw,
+ * so a clipped stroke or text shows by millimetres; a quarter millimetre finds it at a quarter of the
+ * pixels of 8 px/mm (the render checks were the suite's slowest test).
+ */
+export const RENDER_PX_PER_MM = 4;
+/** One pixel of the extent render, in mm: the anti-aliasing allowance of the checks. */
+export const ONE_PIXEL_MM = 1 / RENDER_PX_PER_MM;
+
+export function drawnExtent(svg: string, pxPerUnit = RENDER_PX_PER_MM, padFraction = 0.1): { drawn: ViewBox | null; viewBox: ViewBox } {
   const vb = viewBoxOf(svg);
   const pad = Math.max(vb.w, vb.h) * padFraction;
   const outer = { x: vb.x - pad, y: vb.y - pad, w: vb.w + 2 * pad, h: vb.h + 2 * pad };

@@ -5,7 +5,7 @@ import { liveModel } from '../../src/live/model.js';
 import type { SvgView } from '../../src/live/views.js';
 import { DEMO_FILES, demoText } from '../helpers/demo.js';
 import { commandAvailable, requireTool } from '../helpers/reference.js';
-import { chromiumTextBoxes, drawnExtent, overlappingTexts } from '../helpers/render.js';
+import { chromiumTextBoxes, drawnExtent, ONE_PIXEL_MM, overlappingTexts } from '../helpers/render.js';
 
 const schema = designJsonSchema() as SchemaNode;
 
@@ -45,10 +45,10 @@ describe('the live page draws its views in the shared picture convention', () =>
     for (const p of pictures) {
       const { drawn, viewBox } = drawnExtent(p.svg);
       expect(drawn, p.name).not.toBeNull();
-      // One pixel at 8 px/mm of anti-aliasing; 4 mm margin (2 mm for parts) plus 1 mm for text widths.
+      // One pixel of anti-aliasing; 4 mm margin (2 mm for parts) plus 1 mm for text widths.
       const slack = [drawn!.x - viewBox.x, drawn!.y - viewBox.y, viewBox.x + viewBox.w - drawn!.x - drawn!.w, viewBox.y + viewBox.h - drawn!.y - drawn!.h];
       for (const s of slack) {
-        expect(s, `${p.name}: margins ${slack.map((v) => v.toFixed(2)).join(' ')}`).toBeGreaterThanOrEqual(-0.125);
+        expect(s, `${p.name}: margins ${slack.map((v) => v.toFixed(2)).join(' ')}`).toBeGreaterThanOrEqual(-ONE_PIXEL_MM);
         expect(s, `${p.name}: margins ${slack.map((v) => v.toFixed(2)).join(' ')}`).toBeLessThanOrEqual(5);
       }
     }
