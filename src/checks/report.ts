@@ -86,43 +86,63 @@ function badness(f: Finding): [number, number] {
  * at least MERGE_DISTANCE_MM apart. Uses a 1 mm grid, so it stays linear in the finding count.
  */
 export function mergeFindings(findings: readonly Finding[]): Finding[] {
-  // Badness computed once per finding; the sort is stable, so ties keep the findings' order.
-  const ranked = findings.map((f) => ({ f, b: badness(f) })).sort((x, y) => x.b[0] - y.b[0] || x.b[1] - y.b[1]);
-  // Per part and rule, kept places by grid cell (a number: thousands of findings build no strings).
-  const groups = new Map<string, Map<number, Vec2[]>>();
-  const seenMessages = new Set<string>();
-  const kept = new Set<Finding>();
+  // Badness as two numbers per finding and an index sort (thousands of findings on a drilled plate:
+  // no key arrays, no per-finding strings). Ties keep the findings' order.
+  const n = findings.length;
+  const sev = new Float64Array(n);
+  const past = new Float64Array(n);
+  findings.forEach((f, i) => {
+    const [a, b] = badness(f);
+    sev[i] = a;
+    past[i] = b;
+  });
+  const order = Array.from({ length: n }, (_, i) => i).sort((x, y) => sev[x] - sev[y] || past[x] - past[y] || x - y);
+  // Per part, then per rule, kept places by grid cell (a number key).
+  const groups = new Map<string, Map<string, Map<number, Vec2[]>>>();
+  const seenMessages = new Map<string, Map<string, Set<string>>>();
+  const kept = new Uint8Array(n);
   const CELL_SPAN = 2 ** 22;
   const cellKey = (i: number, j: number): number => (i + CELL_SPAN / 2) * CELL_SPAN + (j + CELL_SPAN / 2);
-  for (const { f } of ranked) {
-    const group = `${f.part}\u0000${f.rule}`;
+  const inner = <V>(outer: Map<string, Map<string, V>>, part: string, rule: string, make: () => V): V => {
+    let byRule = outer.get(part);
+    if (!byRule) outer.set(part, (byRule = new Map()));
+    let v = byRule.get(rule);
+    if (v === undefined) byRule.set(rule, (v = make()));
+    return v;
+  };
+  for (const k of order) {
+    const f = findings[k];
     if (!f.atMm) {
-      const key = `${group}\u0000${f.message}`;
-      if (!seenMessages.has(key)) kept.add(f);
-      seenMessages.add(key);
+      const messages = inner(seenMessages, f.part, f.rule, () => new Set<string>());
+      if (!messages.has(f.message)) kept[k] = 1;
+      messages.add(f.message);
       continue;
     }
-    let cells = groups.get(group);
-    if (!cells) groups.set(group, (cells = new Map()));
+    const cells = inner(groups, f.part, f.rule, () => new Map<number, Vec2[]>());
     const [x, y] = f.atMm;
     const i = Math.floor(x / MERGE_DISTANCE_MM);
     const j = Math.floor(y / MERGE_DISTANCE_MM);
     let near = false;
     for (let di = -1; di <= 1 && !near; di++) {
       for (let dj = -1; dj <= 1 && !near; dj++) {
-        for (const g of cells.get(cellKey(i + di, j + dj)) ?? []) {
-          if (Math.hypot(g[0] - x, g[1] - y) < MERGE_DISTANCE_MM) near = true;
+        const list = cells.get(cellKey(i + di, j + dj));
+        if (!list) continue;
+        for (const g of list) {
+          if (Math.hypot(g[0] - x, g[1] - y) < MERGE_DISTANCE_MM) {
+            near = true;
+            break;
+          }
         }
       }
     }
     if (near) continue;
-    kept.add(f);
-    const k = cellKey(i, j);
-    const list = cells.get(k);
+    kept[k] = 1;
+    const key = cellKey(i, j);
+    const list = cells.get(key);
     if (list) list.push(f.atMm);
-    else cells.set(k, [f.atMm]);
+    else cells.set(key, [f.atMm]);
   }
-  return findings.filter((f) => kept.has(f));
+  return findings.filter((_, k) => kept[k] === 1);
 }
 
 /**
