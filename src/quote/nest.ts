@@ -3,7 +3,7 @@ import { partArea, type Part, type Transform } from '../geometry/index.js';
 import { DesignError } from '../params/errors.js';
 import { verifySheet } from './nestCheck.js';
 import { bestLattice, clearOf, type Lattice, type LatticeSource, type NfpIndexCache } from './nestLattice.js';
-import { NEST_SCALE, dilatedShape, noFitPolygon, occupiedAreaMm2, quarterTurn, ringArea2, ringBox, sameShape, turnPoint, type IBox, type NestShape } from './nestShapes.js';
+import { NEST_SCALE, dilatedShape, filledGrownAreaMm2, noFitPolygon, occupiedAreaMm2, quarterTurn, ringArea2, ringBox, sameShape, turnPoint, type IBox, type NestShape } from './nestShapes.js';
 
 export type SheetSize = Readonly<{ widthMm: number; heightMm: number }>;
 
@@ -57,8 +57,9 @@ export type NestGroup = Readonly<{
   sheets: number;
   partAreaMm2: number;
   /**
-   * Sheets the parts' occupied areas fill (each part grown by half the spacing, inner contours shrunk by
-   * it, over the usable area grown by half the spacing): no layout can use fewer than its ceiling.
+   * Sheets the parts' occupied areas fill (each part grown by half the spacing, minus its inner contours
+   * shrunk by it where another part of the group could sit in them, over the usable area grown by half
+   * the spacing): no layout can use fewer than its ceiling.
    */
   boundSheets: number;
   /** ceil(boundSheets): a true lower bound on the sheets, spacing and margins included. */
@@ -127,7 +128,8 @@ export function nestParts(items: readonly NestItem[], options: NestOptions): Nes
     const copies = new Map<number, number>();
     let area = 0;
     let occupied = 0;
-    for (const i of members) occupied += items[i].count * occupiedAreaMm2(items[i].part, s / 2);
+    const smallestGuest = Math.min(...members.map((i) => filledGrownAreaMm2(items[i].part, s / 2)));
+    for (const i of members) occupied += items[i].count * occupiedAreaMm2(items[i].part, s / 2, smallestGuest);
     for (const sheet of layout) {
       const placements: Placement[] = sheet.placed.map((p) => {
         const item = g.items[p.o.item];

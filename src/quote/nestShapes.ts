@@ -378,11 +378,15 @@ export function convolution(P: Path64, Q: Path64): Path64 {
 
 /**
  * Area a part takes from a sheet at the least: the part grown by half the spacing (exact lines and
- * arcs), minus what is left of each inner contour shrunk by half the spacing. Two parts' grown shapes
- * never overlap and all of them lie in the sheet's usable area grown by half the spacing, so the sum of
- * these areas over that area is a true lower bound on the sheets needed. mm².
+ * arcs), minus what is left of each inner contour shrunk by half the spacing that could hold another
+ * part. Two parts' grown shapes never overlap and all of them lie in the sheet's usable area grown by
+ * half the spacing, so the sum of these areas over that area is a true lower bound on the sheets
+ * needed. A part set inside a window keeps the spacing from its rim, so its grown outline (filled) lies
+ * inside the window shrunk by half the spacing: a window whose shrunk area is below
+ * `smallestGuestMm2` (the least filled grown outline of the parts that share the sheets) holds none,
+ * and its area stays with its part. mm².
  */
-export function occupiedAreaMm2(part: Part, halfSpacingMm: number): number {
+export function occupiedAreaMm2(part: Part, halfSpacingMm: number, smallestGuestMm2 = 0): number {
   // A polygon fallback lies within 0.002 mm of the exact offset: stay below the exact area.
   const slack = (r: { kind: string; loop: Loop }) => (r.kind === 'polygon' ? 0.002 * loopLength(r.loop) : 0);
   const out = offsetRight(part.outline, halfSpacingMm);
@@ -390,7 +394,15 @@ export function occupiedAreaMm2(part: Part, halfSpacingMm: number): number {
   let a = Math.abs(signedArea(out.loop)) - slack(out);
   for (const f of part.features) {
     const w = offsetRight(f.loop, halfSpacingMm);
-    if (w.kind !== 'collapsed') a -= Math.abs(signedArea(w.loop)) + slack(w);
+    if (w.kind === 'collapsed') continue;
+    // Upper estimate of the window's free area, so "too small to hold a guest" is never claimed wrongly.
+    const free = Math.abs(signedArea(w.loop)) + slack(w);
+    if (free >= smallestGuestMm2) a -= free;
   }
   return Math.max(0, a);
+}
+
+/** A part's outline grown by half the spacing, filled (its windows ignored): what a guest needs of a window. mm², a lower estimate. */
+export function filledGrownAreaMm2(part: Part, halfSpacingMm: number): number {
+  return occupiedAreaMm2({ ...part, features: [] }, halfSpacingMm);
 }

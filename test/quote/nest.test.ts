@@ -262,6 +262,20 @@ describe('the lower bound and the shapes behind the nesting', () => {
     expect(occupiedAreaMm2(p, 2.5)).toBeCloseTo(2400 + 200 * 2.5 + Math.PI * 2.5 ** 2 - Math.PI * 7.5 ** 2, 6);
   });
 
+  it('a window too small to hold any part of the group keeps its area with its part (hand count)', () => {
+    // 60 × 40 plate, Ø20 hole, spacing 5 (r = 2.5): the hole shrunk by r is a Ø15 disc, 176.715 mm².
+    // A guest needs its filled outline grown by r inside that disc: a 10 × 10 square needs
+    // 100 + 40·2.5 + π·2.5² = 219.635 mm² (too big: the window is wasted), a 5 × 5 square
+    // 25 + 20·2.5 + π·2.5² = 94.635 mm² (it may sit there: the window is free area).
+    const host = plate('host', polygon([[0, 0], [60, 0], [60, 40], [0, 40]]), [roundHole([20, 20], 20)], 2);
+    const square = (name: string, a: number) => plate(name, polygon([[0, 0], [a, 0], [a, a], [0, a]]), [], 2);
+    const grown = (area: number, perimeter: number) => area + perimeter * 2.5 + Math.PI * 6.25;
+    const usable = 385 * 285;
+    const bound = (guest: ReturnType<typeof square>) => nestParts([{ part: host, count: 1 }, { part: guest, count: 1 }], { sheet: SHEET, spacingMm: 5, marginMm: 10 }).groups[0].boundSheets;
+    expect(bound(square('big', 10)) * usable).toBeCloseTo(grown(2400, 200) + grown(100, 40), 6);
+    expect(bound(square('small', 5)) * usable).toBeCloseTo(grown(2400, 200) - Math.PI * 7.5 ** 2 + grown(25, 20), 6);
+  });
+
   it('the bound never exceeds the sheets used, and equals the hand count for identical rectangles', () => {
     // 100 plates 40 × 30, spacing 5, margin 10, sheet 400 × 300: each occupies (40·30 + 140·2.5 + π 2.5²)
     // = 1569.635 mm² of the (385 × 285) mm grown usable area: 100 × 1569.635 / 109725 = 1.43 → 2 sheets.
