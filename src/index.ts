@@ -71,4 +71,5 @@ export { assemblyViewSvg, type AssemblyViewSvgOptions } from './export/svgAssemb
 export { frameModeSvg, type FrameModePlot } from './export/svgFrameModes.js';
 export { hardwareCsv } from './export/hardwareCsv.js';
 export { quotePackage, type PackageFile, type QuotePackageMeta } from './export/quotePackage.js';
+export { woffToSfnt } from './export/woff.js';
 export { zipStore, type ZipEntry } from './export/zip.js';

@@ -1,14 +1,14 @@
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { DrawingFonts } from '../export/pdfDrawing.js';
-import { woffToSfnt } from './woff.js';
+import { woffToSfnt } from '../export/woff.js';
 
 const require = createRequire(import.meta.url);
 
 /**
  * The drawing font embedded in every PDF: DejaVu Sans, regular and bold, from the npm package
  * `@fontsource/dejavu-sans` (free licence: see the package's LICENSE; README "Drawings").
- * Read here because only the CLI touches files; unpacked from WOFF here too (woff.ts says why).
+ * Read here because only the CLI touches files; unpacked from WOFF first (src/export/woff.ts says why).
  */
 export function drawingFonts(): DrawingFonts {
   const file = (w: number): Uint8Array => woffToSfnt(readFileSync(require.resolve(`@fontsource/dejavu-sans/files/dejavu-sans-latin-${w}-normal.woff`)));

@@ -3,7 +3,7 @@ import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { woffToSfnt } from '../../src/cli/woff.js';
+import { woffToSfnt } from '../../src/export/woff.js';
 import { pythonModuleAvailable, requireTool, runPythonJson } from '../helpers/reference.js';
 
 const require = createRequire(import.meta.url);
