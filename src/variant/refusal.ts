@@ -65,13 +65,13 @@ export function sourceErrorHint(source: Design): string[] {
 }
 
 /** Changes that would clear the check errors of the closest attempt. */
-export function checkAlternatives(source: Design, report: CheckReport | null, wheelbaseGiven: boolean): string[] {
+export function checkAlternatives(source: Design, report: CheckReport | null, wheelbaseAlternative: string | null): string[] {
   const out: string[] = [];
   if (report) {
     const errors = (r: CheckReport) => r.findings.filter((f) => f.severity === 'error').map((f) => `${f.rule} ${f.part}`);
     const inSource = new Set(errors(checkFrame(buildFrame(source))));
     if (errors(report).some((k) => inSource.has(k))) out.push('fix the source design first (`framewright check` finds the same errors there)');
   }
-  if (wheelbaseGiven) out.push('--wheelbase auto');
+  if (wheelbaseAlternative) out.push(wheelbaseAlternative);
   return out;
 }

@@ -366,7 +366,18 @@ function variantOrRefusal(sourceText: string, req: VariantRequest, sourceName: s
     const constraint = failure.report ? `every check (${n} error${n === 1 ? '' : 's'} on the lightest arm that meets the size rule: ${failure.problem})` : `a buildable arm (${failure.problem})`;
     const attempt = failure.draft && failure.report ? { text: failure.draft.text, errors: failure.report.summary.errors, warnings: failure.report.summary.warnings } : null;
     const near = () => nearestPassingProps(sourceText, req, sourceName);
-    throw new VariantRefusal(propsText, constraint, withAlternatives ? alternatives(checkAlternatives(source, failure.report, typeof req.wheelbase === 'number'), near, 'none found nearby') : 'none searched', attempt);
+    // A wheelbase the user gave that fails: the one auto would choose, when that variant passes.
+    const autoWheelbase = (): string | null => {
+      if (typeof req.wheelbase !== 'number') return null;
+      try {
+        const layout = variantOrRefusal(sourceText, { ...req, wheelbase: 'auto' }, sourceName, false).design.layout;
+        return 'wheelbaseMm' in layout ? `--wheelbase auto (${layout.wheelbaseMm} mm)` : '--wheelbase auto';
+      } catch (e) {
+        if (e instanceof VariantRefusal) return null;
+        throw e;
+      }
+    };
+    throw new VariantRefusal(propsText, constraint, withAlternatives ? alternatives(checkAlternatives(source, failure.report, autoWheelbase()), near, 'none found nearby') : 'none searched', attempt);
   }
 
   const design = accepted.draft.design;

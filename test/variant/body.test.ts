@@ -94,7 +94,8 @@ describe('body length: only what the new clearances need', () => {
     }
     expect(refusal).toBeInstanceOf(VariantRefusal);
     expect(refusal!.constraint).toMatch(/every check \(\d+ errors? on the lightest arm that meets the size rule: /);
-    expect(refusal!.alternative).toMatch(/--wheelbase auto/);
+    // The alternative names the wheelbase auto picks, and that variant is the one made without --wheelbase.
+    expect(refusal!.alternative).toContain(`--wheelbase auto (${auto.design.layout.kind === 'asymmetric' ? '' : auto.design.layout.wheelbaseMm} mm)`);
     expect(refusal!.attempt!.errors).toBeGreaterThan(0);
   });
 
