@@ -60,7 +60,7 @@ describe('the packed package', () => {
     const r = sh(process.execPath, ['use.mjs'], project);
     expect(r.code, r.out).toBe(0);
     const out = JSON.parse(r.out.trim().split('\n')[0]) as { exports: string[]; parts: string[]; summary: unknown; refused: string };
-    for (const name of ['parseDesignText', 'validateDesign', 'designJsonSchema', 'buildFrame', 'buildAssembly', 'massBalance', 'hardwareList', 'assembledFrameModes', 'checkFrame', 'checkParts', 'importDxf', 'frameModes', 'makeVariant', 'quoteParts', 'quotePackage', 'partToDxf', 'partToSvg', 'frameOverviewSvg', 'setDesignValues', 'DesignError']) {
+    for (const name of ['parseDesignText', 'validateDesign', 'designJsonSchema', 'buildFrame', 'buildAssembly', 'massBalance', 'hardwareList', 'assembledFrameModes', 'checkFrame', 'checkParts', 'importDxf', 'frameModes', 'makeVariant', 'quoteParts', 'quotePackage', 'woffToSfnt', 'partToDxf', 'partToSvg', 'frameOverviewSvg', 'setDesignValues', 'DesignError']) {
       expect(out.exports).toContain(name);
     }
     expect(out.parts).toEqual(['bottom-plate', 'arm', 'top-plate', 'brace', 'camera-side']);
