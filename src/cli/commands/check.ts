@@ -147,7 +147,7 @@ export async function checkInputs(paths: readonly string[], opts: CheckCliOption
 export function registerCheck(program: Command): void {
   program
     .command('check')
-    .description('design-rule checks before cutting: webs, hole edges, router-bit reach, weave direction, hole stress, prop clearance, props in the camera view')
+    .description('design-rule checks before cutting: webs, hole edges, router-bit reach, weave direction, hole stress, prop clearance, props in the camera view, and the fits of the assembled frame (interference, stack, camera, battery, motor screws)')
     .argument('<inputs...>', 'design files (YAML or JSON; - reads one from standard input), or DXF cut files drawn elsewhere (.dxf)')
     .option('--json', 'print the report as JSON (the report contract in the README; an array of reports for several inputs)')
     .option('--annotate <dir>', 'write an SVG per part with each finding marked, and an overview with prop discs and the camera view (a folder per input when several)')
