@@ -147,7 +147,7 @@ export async function checkInputs(paths: readonly string[], opts: CheckCliOption
 export function registerCheck(program: Command): void {
   program
     .command('check')
-    .description('design-rule checks before cutting: webs, hole edges, router-bit reach, weave direction, hole stress, prop clearance, props in the camera view')
+    .description('design-rule checks before cutting: webs, hole edges, router-bit reach, weave direction, hole stress, prop clearance, props in the camera view, and the fits of the assembled frame (interference, stack, camera, battery, motor screws)')
     .argument('<inputs...>', 'design files (YAML or JSON; - reads one from standard input), or DXF cut files drawn elsewhere (.dxf)')
     .option('--json', 'print the report as JSON (the report contract in the README; an array of reports for several inputs)')
     .option('--annotate <dir>', 'write an SVG per part with each finding marked, and an overview with prop discs and the camera view (a folder per input when several)')
@@ -156,7 +156,7 @@ export function registerCheck(program: Command): void {
     .option('--limit <rule.key=value>', 'override a limit of the checks section, e.g. --limit web-width.minMm=2 (repeat for more)', (v: string, acc: string[]) => [...acc, v], [] as string[])
     .option('--thickness <mm>', 'DXF only: plate thickness in mm (else the sidecar FILE.dxf.yaml, else 2 mm with a warning)')
     .option('--material <name>', 'DXF only: material name (woven-cf, or one defined in the sidecar)')
-    .option('--units <unit>', 'DXF only: drawing units mm, cm, m, in, ft (overrides $INSUNITS)')
+    .option('--units <unit>', 'DXF only: drawing units mm, cm, m, in, ft, mil, um, dm (overrides $INSUNITS)')
     .option('--layers <a,b>', 'DXF only: the layers that hold cut geometry (default: all but frozen, off and annotation layers)')
     .option('--watch', 'check again whenever an input file changes (Ctrl-C to stop)')
     .action(async (paths: string[], opts: CheckCliOptions & { watch?: boolean }) => {

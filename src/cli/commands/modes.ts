@@ -319,7 +319,7 @@ export function registerModes(program: Command): void {
     .option('--thrust <N>', `thrust of one motor for the static figures, N (default ${DEFAULT_THRUST_N})`)
     .option('--thickness <mm>', 'DXF only: plate thickness in mm (or thicknessMm in the sidecar FILE.dxf.yaml)')
     .option('--material <name>', 'DXF only: material name (woven-cf, or one defined in the sidecar)')
-    .option('--units <unit>', 'DXF only: drawing units mm, cm, m, in, ft (overrides $INSUNITS)')
+    .option('--units <unit>', 'DXF only: drawing units mm, cm, m, in, ft, mil, um, dm (overrides $INSUNITS)')
     .option('--layers <a,b>', 'DXF only: the layers that hold cut geometry')
     .action(async (inputs: string[], opts: ModesCliOptions) => {
       const items: Array<Loaded & { path: string }> = [];
