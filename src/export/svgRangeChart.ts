@@ -14,7 +14,7 @@ export type RangeChartPoint = Readonly<{
   source: boolean;
 }>;
 
-/** The motors' top rotation band sampled against prop size (from ../analysis/rotation.ts). */
+/** The motors' rotation band (low to top) sampled against prop size (from ../analysis/rotation.ts). */
 export type RangeChartBandSample = Readonly<{ propsIn: number; lowHz: number; highHz: number }>;
 
 export type RangeChartOptions = Readonly<{ title: string; footer?: readonly string[] }>;
@@ -112,7 +112,7 @@ export function rangeChartSvg(points: readonly RangeChartPoint[], band: readonly
     if (panel.band && panel.band.length > 1) {
       const upper = panel.band.map((b) => `${fmt(X(b.propsIn), 3)},${fmt(Y(b.highHz), 3)}`);
       const lower = [...panel.band].reverse().map((b) => `${fmt(X(b.propsIn), 3)},${fmt(Y(b.lowHz), 3)}`);
-      out.push(`<polygon class="band" points="${[...upper, ...lower].join(' ')}" fill="#f4a261" fill-opacity="0.35" stroke="none"><title>motors' top rotation band</title></polygon>`);
+      out.push(`<polygon class="band" points="${[...upper, ...lower].join(' ')}" fill="#f4a261" fill-opacity="0.35" stroke="none"><title>motors' rotation band (30 % of the top speed up to the top)</title></polygon>`);
     }
     for (const s of panel.series) {
       const pts = sorted.map((p, i) => [X(p.propsIn), Y(s.values[i])] as const);
@@ -125,7 +125,7 @@ export function rangeChartSvg(points: readonly RangeChartPoint[], band: readonly
     // Legend under the axis title: a row per series and the band (the shared legend of every picture).
     const rows: LegendEntry[] = [
       ...panel.series.map((s) => ({ symbol: 'line' as const, colour: s.colour, label: s.name, ...(s.dashed ? { dash: '2 1.5' } : {}) })),
-      ...(panel.band ? [{ symbol: 'fill' as const, colour: '#f4a261', opacity: 0.35, label: "motors' top rotation band" }] : []),
+      ...(panel.band ? [{ symbol: 'fill' as const, colour: '#f4a261', opacity: 0.35, label: "motors' rotation band" }] : []),
       ...(sorted.some((p) => p.source) ? [{ symbol: 'ring' as const, colour: '#555555', opacity: 0, label: 'hollow point: the source design' }] : []),
     ];
     const lg = legend(LEFT, bottom + 12.5, rows, PLOT_W, FONT - 0.5);

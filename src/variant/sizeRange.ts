@@ -71,7 +71,7 @@ export const sourceRow = (v: VariantResult, report: CheckReport | null): RangeRo
 export const armSizeText = (row: RangeRow): string => `${Object.values(row.armWidthsMm).join('/')} × ${row.armThicknessMm}`;
 
 /**
- * The motors' top rotation band sampled at `n` prop sizes from `fromIn` to `toIn` (inches), for
+ * The motors' rotation band (its low and top ends) sampled at `n` prop sizes from `fromIn` to `toIn` (inches), for
  * the range chart.
  */
 export function bandSamples(fromIn: number, toIn: number, n = 41): Array<{ propsIn: number; lowHz: number; highHz: number }> {
