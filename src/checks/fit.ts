@@ -1,4 +1,4 @@
-import { FillRule, intersectD, rectClip, type PathsD } from 'clipper2-ts';
+import { FillRule, areaD, differenceD, intersectD, rectClip, type PathD, type PathsD } from 'clipper2-ts';
 import type { Assembly, Component, Prop } from '../assembly/types.js';
 import { distanceToLoop, windingNumber } from '../geometry/inside.js';
 import type { Loop, Vec2 } from '../geometry/types.js';
@@ -43,6 +43,57 @@ export function interferenceRule(a: Assembly, o: CheckOptions, prisms: readonly 
       out.push(fitFinding(INTERFERENCE_RULE, 'error', ov.volumeMm3, 0, 'mm³', [p.id, q.id], ov.where,
         `${p.id} and ${q.id} intersect near ${pt3(ov.where)}: overlap ${ov.volumeMm3.toFixed(2)} mm³ is above the limit 0.00 mm³; ${advice(p, q)}`));
     }
+  }
+  return out;
+}
+
+/** Least overhang area that is reported: ten times what flattening arcs at FIT_CHORD_MM can leave. mm². */
+const ROOT_OVERHANG_MM2 = 1;
+
+/** Convex hull (counter-clockwise) of plan points, by the monotone chain. */
+function convexHull(points: readonly Vec2[]): Vec2[] {
+  const ps = [...points].sort((a, b) => a[0] - b[0] || a[1] - b[1]);
+  const cross = (o: Vec2, a: Vec2, b: Vec2) => (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
+  const half = (list: Vec2[]) => {
+    const h: Vec2[] = [];
+    for (const p of list) {
+      while (h.length >= 2 && cross(h[h.length - 2], h[h.length - 1], p) <= 0) h.pop();
+      h.push(p);
+    }
+    h.pop();
+    return h;
+  };
+  return [...half(ps), ...half([...ps].reverse())];
+}
+
+/**
+ * Separate arms: the clamped root (the arm's material under the heads of its root screws and
+ * between them) must lie on the bottom plate, or the clamp bears on nothing there. The clamp zone is
+ * the convex hull of the root screws' head footprints, cut to the arm's outline; what of it lies
+ * outside the bottom plate's outline is an error, with its area and a point in it.
+ */
+export function armRootFootprintRule(a: Assembly, o: CheckOptions, prisms: readonly Prism[]): Finding[] {
+  if (!o.limits.interference.enabled) return [];
+  const byId = new Map(prisms.map((p) => [p.id, p]));
+  const body = prisms.find((p) => p.kind === 'plate' && p.id === 'bottom-plate');
+  if (!body) return [];
+  const roots = new Map<string, typeof a.joints[number][]>();
+  for (const j of a.joints) {
+    if (j.kind !== 'arm-root') continue;
+    for (const id of j.clamps) if (byId.get(id)?.kind === 'plate' && id.startsWith('arm ')) roots.set(id, [...(roots.get(id) ?? []), j]);
+  }
+  const out: Finding[] = [];
+  for (const [armId, joints] of roots) {
+    const ring: Vec2[] = joints.flatMap((j) => Array.from({ length: 32 }, (_, k): Vec2 => [j.planMm[0] + j.headRadiusMm * Math.cos((k * Math.PI) / 16), j.planMm[1] + j.headRadiusMm * Math.sin((k * Math.PI) / 16)]));
+    const hull: PathD = convexHull(ring).map(([x, y]) => ({ x, y }));
+    const clamped = intersectD([hull], byId.get(armId)!.paths, FillRule.NonZero);
+    const outside = differenceD(clamped, body.paths, FillRule.NonZero);
+    const area = outside.reduce((s, path) => s + Math.abs(areaD(path)), 0);
+    if (!(area > ROOT_OVERHANG_MM2)) continue;
+    const worst = outside.reduce((x, y) => (Math.abs(areaD(y)) > Math.abs(areaD(x)) ? y : x));
+    const at: [number, number, number] = [worst.reduce((s, q) => s + q.x, 0) / worst.length, worst.reduce((s, q) => s + q.y, 0) / worst.length, body.hi];
+    out.push(fitFinding(INTERFERENCE_RULE, 'error', area, 0, 'mm²', [armId, body.id], at,
+      `${armId} root: ${area.toFixed(2)} mm² of its clamped root lies outside the bottom plate near ${pt3(at)} (limit ${ROOT_OVERHANG_MM2.toFixed(2)} mm²); enlarge the body's arm pads or move the root screws inward (arms.root)`));
   }
   return out;
 }

@@ -12,7 +12,7 @@ import { cameraViewRule, propClearanceRule, propDiscs } from './props.js';
 import { buildAssembly } from '../assembly/build.js';
 import type { Assembly } from '../assembly/types.js';
 import { batteryFitRule, cameraFitRule, motorScrewRule, stackFitRule } from './componentFit.js';
-import { interferenceRule } from './fit.js';
+import { armRootFootprintRule, interferenceRule } from './fit.js';
 import { assemblyPrisms, type Prism } from './solids.js';
 import type { CheckReport, Finding, PartMetrics, Severity } from './types.js';
 import { webLimitMm, webRule } from './webs.js';
@@ -217,6 +217,7 @@ export function checkFrame(frame: Frame, options: Partial<CheckOptions> = {}, as
 export function fitFindings(frame: Frame, a: Assembly, o: CheckOptions, prisms: readonly Prism[] = assemblyPrisms(a)): Finding[] {
   return [
     ...interferenceRule(a, o, prisms),
+    ...armRootFootprintRule(a, o, prisms),
     ...stackFitRule(a, o, prisms),
     ...cameraFitRule(a, o, prisms),
     ...batteryFitRule(a, o, frame.design.topPlate.strapSlots.slotWidthMm),

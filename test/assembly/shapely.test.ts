@@ -2,10 +2,13 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { pythonModuleAvailable, requireTool, runPythonJson } from '../helpers/reference.js';
 import { built, circleRing, plateRings, tesselWith } from './helpers.js';
+import { armRootFootprintRule } from '../../src/checks/fit.js';
+import { optionsForDesign } from '../../src/checks/options.js';
+import { assemblyPrisms } from '../../src/checks/solids.js';
 
 const SCRIPT = join(import.meta.dirname, 'shapely_assembly.py');
 const hasShapely = requireTool(pythonModuleAvailable('shapely'), 'python3-shapely');
-type Ref = { overlaps: number[]; distances: number[]; outside: [number, number][] };
+type Ref = { overlaps: number[]; distances: number[]; outside: [number, number][]; overhangs: number[] };
 
 const fitError = (report: ReturnType<typeof built>['report'], rule: string, a: string, b: string) =>
   report.findings.find((f) => f.rule === rule && f.severity === 'error' && f.parts && ((f.parts[0] === a && f.parts[1] === b) || (f.parts[0] === b && f.parts[1] === a)));
@@ -21,6 +24,26 @@ describe.skipIf(!hasShapely)('fit checks against Shapely (GEOS), an independent 
     // Our polygons are flattened to 0.05 mm chords: well within 1 % of the area here.
     expect(f.measured! / (ref.overlaps[0] * fl.thicknessMm)).toBeCloseTo(1, 2);
     expect(f.unit).toBe('mm³');
+  });
+
+  it('arm roots clamped outside the bottom plate: (convex hull of the root screw heads ∩ arm) − body, area', () => {
+    const b = tesselWith({});
+    // The demo's pads carry every root: no such error.
+    expect(b.report.findings.filter((f) => / root: .* outside the bottom plate/.test(f.message))).toEqual([]);
+    // A body cut down to a 44 mm square leaves every root hanging out of it.
+    const square = [[-22, -22], [22, -22], [22, 22], [-22, 22]];
+    const prisms = assemblyPrisms(b.assembly).map((p) => (p.id === 'bottom-plate' ? { ...p, paths: [square.map(([x, y]) => ({ x, y }))] } : p));
+    const found = armRootFootprintRule(b.assembly, optionsForDesign(b.design), prisms);
+    expect(found.map((f) => f.parts![0]).sort()).toEqual(['arm front-left', 'arm front-right', 'arm rear-left', 'arm rear-right']);
+    for (const f of found) {
+      const arm = b.assembly.plates.find((p) => p.id === f.parts![0])!;
+      const roots = b.assembly.joints.filter((j) => j.kind === 'arm-root' && j.clamps.includes(arm.id));
+      const ref = runPythonJson<Ref>(SCRIPT, { overhangs: [{ centres: roots.map((j) => j.planMm), radius: roots[0].headRadiusMm, arm: [plateRings(arm)[0]], body: [square] }] });
+      // Our hull takes 32 points per head circle and 0.05 mm chords on the arm: within 1 %.
+      expect(f.measured! / ref.overhangs[0]).toBeCloseTo(1, 2);
+      expect(f.severity).toBe('error');
+      expect(f.parts![1]).toBe('bottom-plate');
+    }
   });
 
   it('a standoff screw head under the bottom plate against an arm root: circle ∩ arm × the head height', () => {
