@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { binaryKind, decodeText, detectEncoding } from '../../src/cli/fileKind.js';
 
@@ -22,7 +23,9 @@ describe('what an input file is, from its bytes', () => {
     expect(binaryKind(b(0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a))).toBe('a PNG image');
     expect(binaryKind(b(0x50, 0x4b, 0x03, 0x04, 0x14, 0x00))).toMatch(/^a ZIP archive/);
     expect(binaryKind(b(0x1f, 0x8b, 0x08, 0x00))).toBe('gzip-compressed data');
-    expect(binaryKind(Buffer.from('AutoCAD Binary DXF\r\n\u001a\u0000', 'latin1'))).toMatch(/binary DXF/);
+    // The 22-byte binary DXF sentinel as an independent writer puts it (ezdxf, test/fixtures/dxf/make_fixtures.py).
+    const sentinel = readFileSync(new URL('../fixtures/dxf/binary.dxf', import.meta.url)).subarray(0, 22);
+    expect(binaryKind(sentinel)).toMatch(/binary DXF/);
     expect(binaryKind(Buffer.from('AC1015\u0000\u0000\u0000\u0000\u0000\u0001', 'latin1'))).toMatch(/binary CAD drawing/);
     // Text that happens to begin like a signature stays text.
     expect(binaryKind(Buffer.from('AC1: a key\n'))).toBeNull();

@@ -295,25 +295,25 @@ def main():
     bell = motor.get("bellDiameterMm", 28)
     # The stated height, else 0.6 x the bell diameter but not into the prop band (README, design reference).
     height = motor.get("heightMm", min(0.6 * bell, props.get("heightAboveArmMm", 14) - props.get("bandMm", 6) / 2))
-    mass_t = motor["massG"] * 1e-6
-    mscrew = motor.get("boltSize", "M3")
+    motor_tonnes = motor["massG"] / 1e6  # g to t (the deck works in t, mm, s)
+    motor_screw = motor.get("boltSize", "M3")
     for site, (mx, my) in sites.items():
         k = next(i for i, pl in enumerate(plates) if pl.name == (f"arm {site}" if not unibody else "bottom-plate"))
         pl = plates[k]
         tied = []
         for (fx, fy), dd, (u, v) in pl.holes_frame():
-            if math.hypot(fx - mx, fy - my) <= bell / 2 and abs(dd - ISO_273[mscrew][series]) < 0.01:
-                tied += footprint(k, u, v, SOCKET_DK[mscrew] / 2)
+            if math.hypot(fx - mx, fy - my) <= bell / 2 and abs(dd - ISO_273[motor_screw][series]) < 0.01:
+                tied += footprint(k, u, v, SOCKET_DK[motor_screw] / 2)
         for loop in pl.plate["inner"]:
             arcs = [s for s in loop if s["kind"] == "arc"]
             ends = [pl.to_frame(*s["center"]) + (s["center"],) for s in arcs]
             ends = [e for e in ends if math.hypot(e[0] - mx, e[1] - my) <= bell / 2]
             if len(ends) >= 2:
                 inner_end = min(ends, key=lambda e: math.hypot(e[0] - mx, e[1] - my))
-                tied += footprint(k, inner_end[2][0], inner_end[2][1], SOCKET_DK[mscrew] / 2)
+                tied += footprint(k, inner_end[2][0], inner_end[2][1], SOCKET_DK[motor_screw] / 2)
         if not tied:
             raise SystemExit(f"no motor screws found for {site}")
-        deck.rigid_mass(tied, mass_t, (mx, my, arm_top + height / 2), cylinder_inertia(mass_t, bell, height))
+        deck.rigid_mass(tied, motor_tonnes, (mx, my, arm_top + height / 2), cylinder_inertia(motor_tonnes, bell, height))
     if cam:
         left = next(k for k, pl in enumerate(plates) if pl.name == "camera-side left")
         right = next(k for k, pl in enumerate(plates) if pl.name == "camera-side right")
