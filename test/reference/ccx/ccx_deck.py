@@ -13,6 +13,28 @@ import re
 import subprocess
 
 
+def read_inp_mesh(path, element_types, dims, nodes_per_element):
+    """Nodes (first `dims` coordinates) and elements of the given types from a gmsh Abaqus-format
+    mesh; only the nodes the elements use are returned."""
+    nodes, elems, mode = {}, [], None
+    with open(path) as f:
+        for raw in f:
+            line = raw.strip()
+            if not line:
+                continue
+            if line.startswith("*"):
+                up = line.upper()
+                mode = "node" if up.startswith("*NODE") else ("elem" if up.startswith("*ELEMENT") and any(t in up for t in element_types) else None)
+                continue
+            parts = [p for p in line.split(",") if p.strip()]
+            if mode == "node":
+                nodes[int(parts[0])] = tuple(float(v) for v in parts[1 : 1 + dims])
+            elif mode == "elem":
+                elems.append([int(v) for v in parts[1 : 1 + nodes_per_element]])
+    used = sorted({n for e in elems for n in e})
+    return {n: nodes[n] for n in used}, elems
+
+
 class Deck:
     """Collects nodes, elements and keyword lines; numbers nodes and elements."""
 
@@ -166,22 +188,8 @@ class Deck:
             f.write(f"Cylinder(1) = {{{start[0]}, {start[1]}, {start[2]}, {d[0]}, {d[1]}, {d[2]}, {radius}}};\n")
             f.write(f"Mesh.CharacteristicLengthMax = {size};\nMesh.ElementOrder = 2;\nPhysical Volume(1) = {{1}};\n")
         subprocess.run(["gmsh", "-3", "-order", "2", geo, "-format", "inp", "-o", inp], check=True, capture_output=True)
-        local, elems, mode = {}, [], None
-        with open(inp) as f:
-            for raw in f:
-                line = raw.strip()
-                if not line:
-                    continue
-                if line.startswith("*"):
-                    up = line.upper()
-                    mode = "node" if up.startswith("*NODE") else ("elem" if up.startswith("*ELEMENT") and "C3D10" in up else None)
-                    continue
-                parts = [p for p in line.split(",") if p.strip()]
-                if mode == "node":
-                    local[int(parts[0])] = tuple(float(v) for v in parts[1:4])
-                elif mode == "elem":
-                    elems.append([int(v) for v in parts[1:11]])
-        used = sorted({n for e in elems for n in e})
+        local, elems = read_inp_mesh(inp, ("C3D10",), 3, 10)
+        used = sorted(local)
         ids = {n: self.node(local[n]) for n in used}
         length = math.hypot(*d)
         axis = [v / length for v in d]

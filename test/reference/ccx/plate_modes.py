@@ -28,7 +28,7 @@ import sys
 import tempfile
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from ccx_deck import Deck, cylinder_inertia, run_frequencies  # noqa: E402
+from ccx_deck import Deck, cylinder_inertia, read_inp_mesh, run_frequencies  # noqa: E402
 
 
 def arc_pieces(seg):
@@ -143,30 +143,7 @@ def mesh_plate(spec, workdir, name, rings=()):
 
 
 def read_inp(path):
-    nodes = {}
-    elems = []
-    mode = None
-    with open(path) as f:
-        for raw in f:
-            line = raw.strip()
-            if not line:
-                continue
-            if line.startswith("*"):
-                up = line.upper()
-                if up.startswith("*NODE"):
-                    mode = "node"
-                elif up.startswith("*ELEMENT") and ("CPS6" in up or "STRI65" in up or "S6" in up):
-                    mode = "elem"
-                else:
-                    mode = None
-                continue
-            parts = [p for p in line.split(",") if p.strip()]
-            if mode == "node":
-                nodes[int(parts[0])] = (float(parts[1]), float(parts[2]))
-            elif mode == "elem":
-                elems.append([int(p) for p in parts[1:7]])
-    used = sorted({n for e in elems for n in e})
-    return {n: nodes[n] for n in used}, elems
+    return read_inp_mesh(path, ("CPS6", "STRI65", "S6"), 2, 6)
 
 
 def seg_distance(seg, p):
