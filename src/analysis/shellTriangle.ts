@@ -147,6 +147,30 @@ const S = {
   gradY: new Float64Array(3),
 };
 
+/**
+ * S.b (3×9) = the strain rows at the point whose shape-function gradients are in S.dx, S.dy:
+ * ε_x = Σ dx·u, ε_y = Σ dy·v, γ_xy = Σ dy·u + dx·v, with u of node n and DOF k at u[uAt + 9n + k]
+ * and v at v[vAt + 9n + k] (the bending curvatures and the membrane strains have this one form).
+ */
+function strainRowsInto(u: Float64Array, uAt: number, v: Float64Array, vAt: number): void {
+  const { b, dx, dy } = S;
+  for (let k = 0; k < 9; k++) {
+    let b0 = 0;
+    let b1 = 0;
+    let b2 = 0;
+    for (let n = 0; n < 6; n++) {
+      const un = u[uAt + n * 9 + k];
+      const vn = v[vAt + n * 9 + k];
+      b0 += dx[n] * un;
+      b1 += dy[n] * vn;
+      b2 += dy[n] * un + dx[n] * vn;
+    }
+    b[k] = b0;
+    b[9 + k] = b1;
+    b[18 + k] = b2;
+  }
+}
+
 /** k (9×9) += w·Bᵀ·C·B for the 3×9 matrix in S.b. */
 function addBtCBFast(k: Float64Array, c: PlaneStiffness, w: number): void {
   const { b, cb } = S;
@@ -193,7 +217,7 @@ export function shellBlocksInto(x: Tri, y: Tri, a: PlaneStiffness, d: PlaneStiff
   const a2 = twiceArea(x, y);
   const area = a2 / 2;
   if (!(area > 0)) throw new RangeError(`degenerate or clockwise triangle (area ${area} mm²)`);
-  const { gradX, gradY, b } = S;
+  const { gradX, gradY } = S;
   gradX[0] = (y[1] - y[2]) / a2;
   gradX[1] = (y[2] - y[0]) / a2;
   gradX[2] = (y[0] - y[1]) / a2;
@@ -208,22 +232,7 @@ export function shellBlocksInto(x: Tri, y: Tri, a: PlaneStiffness, d: PlaneStiff
     for (let p = 0; p < 3; p++) {
       const L = MIDSIDE_POINTS[p];
       gradientsAt(L[0], L[1], L[2]);
-      const { dx, dy } = S;
-      for (let k = 0; k < 9; k++) {
-        let b0 = 0;
-        let b1 = 0;
-        let b2 = 0;
-        for (let n = 0; n < 6; n++) {
-          const ux = rbx[n * 9 + k];
-          const uy = rby[n * 9 + k];
-          b0 += dx[n] * ux;
-          b1 += dy[n] * uy;
-          b2 += dy[n] * ux + dx[n] * uy;
-        }
-        b[k] = b0;
-        b[9 + k] = b1;
-        b[18 + k] = b2;
-      }
+      strainRowsInto(rbx, 0, rby, 0);
       addBtCBFast(bend, d, w3);
     }
     if (shear > 0) {
@@ -264,22 +273,7 @@ export function shellBlocksInto(x: Tri, y: Tri, a: PlaneStiffness, d: PlaneStiff
     for (let p = 0; p < 3; p++) {
       const L = MIDSIDE_POINTS[p];
       gradientsAt(L[0], L[1], L[2]);
-      const { dx, dy } = S;
-      for (let dd = 0; dd < 9; dd++) {
-        let b0 = 0;
-        let b1 = 0;
-        let b2 = 0;
-        for (let n = 0; n < 6; n++) {
-          const u = t[n * 9 + dd];
-          const v = t[(6 + n) * 9 + dd];
-          b0 += dx[n] * u;
-          b1 += dy[n] * v;
-          b2 += dy[n] * u + dx[n] * v;
-        }
-        b[dd] = b0;
-        b[9 + dd] = b1;
-        b[18 + dd] = b2;
-      }
+      strainRowsInto(t, 0, t, 54);
       addBtCBFast(mem, a, w3);
     }
     gradientsAt(1 / 3, 1 / 3, 1 / 3);
@@ -339,15 +333,9 @@ function invert3(m: Float64Array): Float64Array {
 
 /**
  * The 12×9 map from Allman DOFs [u, v, rz] × 3 to the six-node triangle's [u0..u5, v0..v5]:
- * u_m = (u_i + u_j)/2 + (y_j − y_i)(rz_j − rz_i)/8, v_m = (v_i + v_j)/2 + (x_i − x_j)(rz_j − rz_i)/8.
+ * u_m = (u_i + u_j)/2 + (y_j − y_i)(rz_j − rz_i)/8, v_m = (v_i + v_j)/2 + (x_i − x_j)(rz_j − rz_i)/8,
+ * written into t (12×9, overwritten).
  */
-function allmanMap(x: Tri, y: Tri): Float64Array {
-  const t = new Float64Array(12 * 9);
-  allmanMapInto(x, y, t);
-  return t;
-}
-
-/** `allmanMap` into t (12×9, overwritten). */
 function allmanMapInto(x: Tri, y: Tri, t: Float64Array): void {
   t.fill(0);
   for (let i = 0; i < 3; i++) {
