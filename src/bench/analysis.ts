@@ -72,22 +72,16 @@ const tesselAssembly = buildAssembly(tessel.design, tessel);
 let frameDxfDir = '';
 
 export const figures: BenchFigure[] = [
-  againstCalculix({
-    figure: 'modes: Tessel 5 bottom plate free–free, first 10 modes',
-    order: 40,
-    ours: () => firstHz(partModes(bottom, { modes: 10 })),
-    peer: () => calculixRun('plate_modes.py', plateInput(bottom, 6)),
-    accuracy: PLATE_ACCURACY,
-    reps: 5,
-  }),
-  againstCalculix({
-    figure: 'modes: Tessel 5 arm free–free, first 10 modes',
-    order: 41,
-    ours: () => firstHz(partModes(arm, { modes: 10 })),
-    peer: () => calculixRun('plate_modes.py', plateInput(arm, 6)),
-    accuracy: PLATE_ACCURACY,
-    reps: 5,
-  }),
+  ...([['bottom plate', bottom], ['arm', arm]] as const).map(([name, part], i) =>
+    againstCalculix({
+      figure: `modes: Tessel 5 ${name} free–free, first 10 modes`,
+      order: 40 + i,
+      ours: () => firstHz(partModes(part, { modes: 10 })),
+      peer: () => calculixRun('plate_modes.py', plateInput(part, 6)),
+      accuracy: PLATE_ACCURACY,
+      reps: 5,
+    }),
+  ),
   againstCalculix({
     figure: 'modes: Tessel 5 assembled frame, first 8 modes',
     order: 42,

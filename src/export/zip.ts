@@ -49,33 +49,30 @@ export function zipStore(entries: readonly ZipEntry[]): Uint8Array {
     const name = enc.encode(e.name);
     const data = typeof e.data === 'string' ? enc.encode(e.data) : e.data;
     const crc = crc32(data);
+    // The local header and the central directory entry share one run of fields (APPNOTE 4.3.7 and
+    // 4.3.12: version needed … file name length), at offset 4 and 6.
+    const shared = (v: DataView, at: number): void => {
+      v.setUint16(at, VERSION, true);
+      v.setUint16(at + 2, UTF8_NAMES, true);
+      v.setUint16(at + 4, 0, true); // stored
+      v.setUint16(at + 6, DOS_TIME, true);
+      v.setUint16(at + 8, DOS_DATE, true);
+      v.setUint32(at + 10, crc, true);
+      v.setUint32(at + 14, data.length, true);
+      v.setUint32(at + 18, data.length, true);
+      v.setUint16(at + 22, name.length, true);
+    };
     const local = new Uint8Array(30 + name.length);
     const lv = new DataView(local.buffer);
     lv.setUint32(0, 0x04034b50, true);
-    lv.setUint16(4, VERSION, true);
-    lv.setUint16(6, UTF8_NAMES, true);
-    lv.setUint16(8, 0, true); // stored
-    lv.setUint16(10, DOS_TIME, true);
-    lv.setUint16(12, DOS_DATE, true);
-    lv.setUint32(14, crc, true);
-    lv.setUint32(18, data.length, true);
-    lv.setUint32(22, data.length, true);
-    lv.setUint16(26, name.length, true);
+    shared(lv, 4);
     lv.setUint16(28, 0, true);
     local.set(name, 30);
     const central = new Uint8Array(46 + name.length);
     const cv = new DataView(central.buffer);
     cv.setUint32(0, 0x02014b50, true);
     cv.setUint16(4, VERSION, true);
-    cv.setUint16(6, VERSION, true);
-    cv.setUint16(8, UTF8_NAMES, true);
-    cv.setUint16(10, 0, true);
-    cv.setUint16(12, DOS_TIME, true);
-    cv.setUint16(14, DOS_DATE, true);
-    cv.setUint32(16, crc, true);
-    cv.setUint32(20, data.length, true);
-    cv.setUint32(24, data.length, true);
-    cv.setUint16(28, name.length, true);
+    shared(cv, 6);
     // extra length, comment length, disk number, internal attributes: 0
     cv.setUint32(38, 0, true); // external attributes
     cv.setUint32(42, offset, true);
