@@ -1,6 +1,7 @@
 import { FillRule, areaD, differenceD, intersectD, rectClip, type PathD, type PathsD } from 'clipper2-ts';
 import type { Assembly, Component, Prop } from '../assembly/types.js';
 import { distanceToLoop, windingNumber } from '../geometry/inside.js';
+import { convexHull } from '../geometry/primitives.js';
 import type { Loop, Vec2 } from '../geometry/types.js';
 import { fitFinding, mm } from './finding.js';
 import type { CheckOptions } from './options.js';
@@ -49,22 +50,6 @@ export function interferenceRule(a: Assembly, o: CheckOptions, prisms: readonly 
 
 /** Least overhang area that is reported: ten times what flattening arcs at FIT_CHORD_MM can leave. mm². */
 const ROOT_OVERHANG_MM2 = 1;
-
-/** Convex hull (counter-clockwise) of plan points, by the monotone chain. */
-function convexHull(points: readonly Vec2[]): Vec2[] {
-  const ps = [...points].sort((a, b) => a[0] - b[0] || a[1] - b[1]);
-  const cross = (o: Vec2, a: Vec2, b: Vec2) => (a[0] - o[0]) * (b[1] - o[1]) - (a[1] - o[1]) * (b[0] - o[0]);
-  const half = (list: Vec2[]) => {
-    const h: Vec2[] = [];
-    for (const p of list) {
-      while (h.length >= 2 && cross(h[h.length - 2], h[h.length - 1], p) <= 0) h.pop();
-      h.push(p);
-    }
-    h.pop();
-    return h;
-  };
-  return [...half(ps), ...half([...ps].reverse())];
-}
 
 /**
  * Separate arms: the clamped root (the arm's material under the heads of its root screws and

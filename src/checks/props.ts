@@ -123,7 +123,7 @@ export function cameraFixes(frame: Frame, o: CheckOptions, discs: readonly PropD
   const c = frame.design.camera;
   if (!c) return [];
   // The searches only ask "all hidden?" (the sign), so a pose stops at the first disc in view.
-  const worst = (ch: CameraChange): number => {
+  const hiddenMargin = (ch: CameraChange): number => {
     const pose = cameraPose(frame, o, ch)!;
     let least = Infinity;
     for (const d of discs) {
@@ -134,17 +134,17 @@ export function cameraFixes(frame: Frame, o: CheckOptions, discs: readonly PropD
     return least;
   };
   const out: CameraFix[] = [];
-  const tilt = nearestClearing((v) => worst({ uptiltDeg: v }), c.uptiltDeg, c.uptiltMinDeg, c.uptiltMaxDeg, 0.25);
+  const tilt = nearestClearing((v) => hiddenMargin({ uptiltDeg: v }), c.uptiltDeg, c.uptiltMinDeg, c.uptiltMaxDeg, 0.25);
   if (tilt !== null) {
     const d = tilt - c.uptiltDeg;
     out.push({ change: { uptiltDeg: tilt }, fraction: Math.abs(d) / 100, text: `camera.uptiltDeg ${r2(tilt)}° (now ${c.uptiltDeg}°, ${r2(Math.abs(d))}° ${d < 0 ? 'less' : 'more'} uptilt)` });
   }
-  const off = nearestClearing((v) => worst({ forwardOffsetMm: v }), c.forwardOffsetMm, FORWARD_OFFSET_RANGE_MM[0], FORWARD_OFFSET_RANGE_MM[1], 0.5);
+  const off = nearestClearing((v) => hiddenMargin({ forwardOffsetMm: v }), c.forwardOffsetMm, FORWARD_OFFSET_RANGE_MM[0], FORWARD_OFFSET_RANGE_MM[1], 0.5);
   if (off !== null) {
     const d = off - c.forwardOffsetMm;
     out.push({ change: { forwardOffsetMm: off }, fraction: Math.abs(d) / (FORWARD_OFFSET_RANGE_MM[1] - FORWARD_OFFSET_RANGE_MM[0]), text: `camera.forwardOffsetMm ${r2(off)} mm (now ${c.forwardOffsetMm} mm, ${r2(Math.abs(d))} mm ${d > 0 ? 'forward' : 'back'})` });
   }
-  const h = nearestClearing((v) => worst({ pivotHeightMm: v }), c.pivotHeightMm, PIVOT_HEIGHT_RANGE_MM[0], PIVOT_HEIGHT_RANGE_MM[1], 0.5);
+  const h = nearestClearing((v) => hiddenMargin({ pivotHeightMm: v }), c.pivotHeightMm, PIVOT_HEIGHT_RANGE_MM[0], PIVOT_HEIGHT_RANGE_MM[1], 0.5);
   if (h !== null) {
     const d = h - c.pivotHeightMm;
     out.push({ change: { pivotHeightMm: h }, fraction: Math.abs(d) / (PIVOT_HEIGHT_RANGE_MM[1] - PIVOT_HEIGHT_RANGE_MM[0]), text: `camera.pivotHeightMm ${r2(h)} mm (now ${c.pivotHeightMm} mm, mounted ${r2(Math.abs(d))} mm ${d > 0 ? 'higher' : 'lower'})` });
@@ -160,7 +160,7 @@ export function cameraFixes(frame: Frame, o: CheckOptions, discs: readonly PropD
   if (kMin < 1) {
     // Search the narrowed horizontal field; the vertical one follows it through k.
     const hMin = Math.ceil(((2 * Math.atan(kMin * Math.tan(degToRad(hNow) / 2)) * 180) / Math.PI) * 100) / 100;
-    const fov = nearestClearing((deg) => worst(lens(Math.tan(degToRad(deg) / 2) / Math.tan(degToRad(hNow) / 2))), hNow, hMin, hNow, 0.5);
+    const fov = nearestClearing((deg) => hiddenMargin(lens(Math.tan(degToRad(deg) / 2) / Math.tan(degToRad(hNow) / 2))), hNow, hMin, hNow, 0.5);
     if (fov !== null && fov < hNow) {
       const k = Math.tan(degToRad(fov) / 2) / Math.tan(degToRad(hNow) / 2);
       const vFov = Math.max(MIN_VFOV_DEG, Math.floor(lens(k).verticalFovDeg! * 100) / 100);
