@@ -1,8 +1,10 @@
 #!/usr/bin/python3
 """Independent CalculiX reference for the assembled frame's modes, written from the cut files and the
 design file alone (nothing from framewright's source): the plate DXFs that `framewright build` writes
-(read with ezdxf), where it placed the components (its assembly.json: masses, boxes, mount points), the design YAML (read with PyYAML, the schema's defaults applied here), meshed with
-gmsh (second-order triangles), solved by ccx with S6 shells.
+(read with ezdxf), what its assembly.json says things weigh and where (components: masses, boxes,
+mount points; each joint's screw, nut and washer; each spacer), the design YAML (read with PyYAML,
+the schema's defaults applied here), meshed with gmsh (second-order triangles), solved by ccx with S6
+shells.
 
 The idealisation is the one framewright states (README, "Stiffness and resonance"):
   - plates are shells at their mid-planes; stacking from the bottom up: braces, arms, bottom plate
@@ -199,8 +201,8 @@ def main():
         part = dxf("camera-side")
         plates.append(Placed("camera-side left", part, tc, mat_of("camera"), weave_of("camera"), None, vertical=True, y_mid=w / 2 + tc / 2))
         plates.append(Placed("camera-side right", part, tc, mat_of("camera"), weave_of("camera"), None, vertical=True, y_mid=-w / 2 - tc / 2))
-    # Components (stack, boards, battery, camera) as placed by `framewright build` (assembly.json: mass,
-    # boxes, what carries them and where); how they are tied is decided here.
+    # Components (stack, boards, battery, camera), fasteners and spacers as `framewright build` placed and
+    # weighed them (assembly.json); how they are tied is decided here.
     if any("softMountNPerMm" in c for c in d.get("components") or []):
         raise SystemExit("reference models hard-mounted components only")
     with open(os.path.join(spec["dxfDir"], "assembly.json")) as f:
