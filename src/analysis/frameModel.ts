@@ -1,4 +1,4 @@
-import { componentMassBody, inertiaAboutCentre, type Assembly, type BoltedJoint, type Component, type PlacedPlate, type Standoff, type Vec3 } from '../assembly/index.js';
+import { centreOfMass, componentMassBody, inertiaAboutCentre, type Assembly, type BoltedJoint, type Component, type PlacedPlate, type Standoff, type Vec3 } from '../assembly/index.js';
 import type { Vec2 } from '../geometry/index.js';
 import { roundBar, type BeamSection } from './beamElement.js';
 import type { Laminate } from './laminate.js';
@@ -12,9 +12,11 @@ import { defaultMeshSizeMm, G_TO_T, partLaminate } from './plateModel.js';
  * and resonance"):
  *  - every plate copy a shell at its own mid-plane, woven laminate from its material;
  *  - a bolted joint makes all plate material within the screw head's radius (the joint's
- *    `headRadiusMm`) move as one rigid body through the whole stack, all six DOFs;
+ *    `headRadiusMm`) move as one rigid body through the whole stack, all six DOFs; that body carries
+ *    its screw, nut and washer (`hardwareMass`) as a rigid mass: their mass and rotary inertia at
+ *    their centre of mass;
  *  - standoffs and camera spacers are Timoshenko beams from plate mid-plane to plate mid-plane, solid
- *    round of their outside size, ends clamped into their joints;
+ *    round of their outside size, ends clamped into their joints, with the spacer's own mass;
  *  - each motor a rigid body with its mass and rotary inertia at its centre of mass, tied to the arm
  *    over its motor screws' head footprints;
  *  - components rigid masses at their centres of mass, tied to what they are screwed or strapped to;
@@ -222,7 +224,9 @@ export function buildFrameModel(asm: Assembly, options: FrameModelOptions = {}):
       const a = endOn('bottom', start);
       const z = endOn('top', end);
       const alloy = ALLOY[so.material] ?? ALLOY['aluminium-6061'];
-      const section: BeamSection = roundBar(so.acrossFlatsMm, alloy.youngGpa, alloy.poisson, so.densityGPerCm3);
+      // Stiff as a solid round bar of the outside size; as heavy as the spacer (hex, threaded bore), its mass spread over the beam.
+      const solid: BeamSection = roundBar(so.acrossFlatsMm, alloy.youngGpa, alloy.poisson, so.densityGPerCm3);
+      const section: BeamSection = { ...solid, densityTPerMm3: (so.massG * G_TO_T) / (solid.areaMm2 * Math.hypot(...sub(z, a))) };
       const nodes: number[] = [];
       for (let k = 0; k <= BEAM_ELEMENTS; k++) nodes.push(b.node([0, 1, 2].map((i) => a[i] + ((z[i] - a[i]) * k) / BEAM_ELEMENTS)));
       const firstBeam = b.beams.length;
@@ -247,6 +251,11 @@ export function buildFrameModel(asm: Assembly, options: FrameModelOptions = {}):
     }
     b.rigid.push({ master, slaves: [...ends.slice(1), ...slaves] });
     joints.set(j.id, master);
+    if (j.hardwareMass.massG > 0) {
+      const at = b.node(centreOfMass(j.hardwareMass));
+      b.rigid.push({ master, slaves: [at] });
+      b.masses.push({ node: at, massT: j.hardwareMass.massG * G_TO_T, inertiaTMm2: inertia(inertiaAboutCentre(j.hardwareMass)) });
+    }
   }
   // Motors: rigid bodies at their centres of mass, tied to their screws' joints.
   const motors = asm.motors.map((m) => {
@@ -326,7 +335,12 @@ export function buildFrameModel(asm: Assembly, options: FrameModelOptions = {}):
     motors,
     components,
     joints,
-    massG: asm.plates.reduce((s, p) => s + p.massG, 0) + [...asm.standoffs, ...asm.cameraSpacers].reduce((s, so) => s + so.massG, 0) + asm.motors.reduce((s, m) => s + m.massG, 0) + asm.components.reduce((s, c) => s + c.massG, 0),
+    massG:
+      asm.plates.reduce((s, p) => s + p.massG, 0) +
+      [...asm.standoffs, ...asm.cameraSpacers].reduce((s, so) => s + so.massG, 0) +
+      asm.joints.reduce((s, j) => s + j.hardwareMass.massG, 0) +
+      asm.motors.reduce((s, m) => s + m.massG, 0) +
+      asm.components.reduce((s, c) => s + c.massG, 0),
   };
   checkConnected(fm);
   return fm;

@@ -1,17 +1,14 @@
-import type { Design } from '../params/design.js';
 import { componentMassBody } from './components.js';
-import { nutBody, screwBody, washerBody } from './hardwareMass.js';
 import { addBodies, centreOfMass, inertiaAboutCentre, type MassBody } from './massProps.js';
 import { motorMassBody, standoffMassBody } from './parts.js';
 import { plateMassBody } from './plates.js';
 import type { Assembly, MassBalance } from './types.js';
 
 /** Mass bodies of the assembly by group (g, mm): plates, hardware, motors, components, battery. */
-export function massGroups(a: Assembly, d: Design): Readonly<Record<'frame' | 'hardware' | 'motors' | 'components' | 'battery', MassBody>> {
-  const rho = d.assembly.screwDensityGPerCm3;
+export function massGroups(a: Assembly): Readonly<Record<'frame' | 'hardware' | 'motors' | 'components' | 'battery', MassBody>> {
   return {
     frame: addBodies(a.plates.map((p) => plateMassBody(p.part, p.pose))),
-    hardware: addBodies([...a.standoffs, ...a.cameraSpacers].map(standoffMassBody).concat(a.joints.flatMap((j) => [screwBody(j, rho), nutBody(j, rho), washerBody(j, rho)]))),
+    hardware: addBodies([...a.standoffs, ...a.cameraSpacers].map(standoffMassBody).concat(a.joints.map((j) => j.hardwareMass))),
     motors: addBodies(a.motors.map(motorMassBody)),
     components: addBodies(a.components.filter((c) => c.kind !== 'battery').map(componentMassBody)),
     battery: addBodies(a.components.filter((c) => c.kind === 'battery').map(componentMassBody)),
@@ -24,10 +21,10 @@ export function massGroups(a: Assembly, d: Design): Readonly<Record<'frame' | 'h
  * of gravity (with and without the battery), thrust centre (the motors' centroid in plan), the
  * plan offset between them (also as a share of the mean motor distance) and the inertia tensor
  * about the centre of gravity.
- * @example massBalance(assembly, design).massG.allUp
+ * @example massBalance(assembly).massG.allUp
  */
-export function massBalance(a: Assembly, d: Design): MassBalance {
-  const g = massGroups(a, d);
+export function massBalance(a: Assembly): MassBalance {
+  const g = massGroups(a);
   const dry = addBodies([g.frame, g.hardware, g.motors, g.components]);
   const all = addBodies([dry, g.battery]);
   const cg = centreOfMass(all);

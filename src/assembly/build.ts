@@ -1,11 +1,12 @@
 import type { Frame } from '../geometry/frame.js';
 import type { Design } from '../params/design.js';
 import { cameraPivotMm, placeComponents } from './components.js';
+import { weighJoint } from './hardwareMass.js';
 import { COAXIAL_MM, beyondNutMm, engagementMm, makeJoint, placedHoles, plateJoints, washerFor } from './joints.js';
 import { placeCameraSpacers, placeMotors, placeProps, placeStandoffs, stackCorners, stackScrew, stackUpOf } from './parts.js';
 import { placePlates } from './plates.js';
 import { nut as nutOf, screwHead, shortestPreferredLength } from './standards.js';
-import type { Assembly, BoltedJoint, Component, Motor, PlacedPlate, Standoff, Vec3 } from './types.js';
+import type { Assembly, BoltedJoint, Component, JointLayout, Motor, PlacedPlate, Standoff, Vec3 } from './types.js';
 
 /**
  * The frame in three dimensions: every plate copy, standoff, screw, motor, prop and component,
@@ -21,7 +22,8 @@ export function buildAssembly(design: Design, frame: Frame): Assembly {
   const motors = placeMotors(design, frame, plates);
   const props = placeProps(design, motors);
   const components = placeComponents(design, plates, stackUp);
-  const joints = [...plateJoints(design, plates, standoffs), ...motorJoints(design, plates, motors), ...stackJoints(design, plates, components), ...cameraJoints(design, plates, cameraSpacers)];
+  const laidOut = [...plateJoints(design, plates, standoffs), ...motorJoints(design, plates, motors), ...stackJoints(design, plates, components), ...cameraJoints(design, plates, cameraSpacers)];
+  const joints = laidOut.map((j) => weighJoint(j, design.assembly.screwDensityGPerCm3));
   return {
     plates,
     standoffs,
@@ -37,7 +39,7 @@ export function buildAssembly(design: Design, frame: Frame): Assembly {
 }
 
 /** Motor screws: from under the plate the motor sits on, up into the motor's threaded base. */
-function motorJoints(d: Design, plates: readonly PlacedPlate[], motors: readonly Motor[]): BoltedJoint[] {
+function motorJoints(d: Design, plates: readonly PlacedPlate[], motors: readonly Motor[]): JointLayout[] {
   return motors.flatMap((m) => {
     const plate = plates.find((p) => p.id === m.onPlate)!;
     return m.boltsMm.map((b, k) =>
@@ -51,8 +53,8 @@ function motorJoints(d: Design, plates: readonly PlacedPlate[], motors: readonly
  * with a hole there (countersunk where the hole is), up through the boards piled on that mount and
  * into a nut on top.
  */
-function stackJoints(d: Design, plates: readonly PlacedPlate[], components: readonly Component[]): BoltedJoint[] {
-  const out: BoltedJoint[] = [];
+function stackJoints(d: Design, plates: readonly PlacedPlate[], components: readonly Component[]): JointLayout[] {
+  const out: JointLayout[] = [];
   const holes = placedHoles(plates).filter((h) => h.purpose === 'stack-bolt');
   const used = new Map<string, { mount: number; pattern: number; top: number }>();
   for (const c of components) {
@@ -82,10 +84,10 @@ function stackJoints(d: Design, plates: readonly PlacedPlate[], components: read
  * Camera screws, along ±y from outside each side plate: the pivot screw into the camera body's
  * thread, and one screw into each end of every camera spacer.
  */
-function cameraJoints(d: Design, plates: readonly PlacedPlate[], spacers: readonly Standoff[]): BoltedJoint[] {
+function cameraJoints(d: Design, plates: readonly PlacedPlate[], spacers: readonly Standoff[]): JointLayout[] {
   const c = d.camera;
   if (!c) return [];
-  const out: BoltedJoint[] = [];
+  const out: JointLayout[] = [];
   for (const side of plates.filter((p) => p.part.role === 'camera-side')) {
     const left = side.placement.translateMm[1] > 0;
     const outerY = left ? side.bounds.maxMm[1] : side.bounds.minMm[1];
@@ -100,7 +102,7 @@ function cameraJoints(d: Design, plates: readonly PlacedPlate[], spacers: readon
   return out;
 }
 
-function sideScrew(d: Design, id: string, kind: BoltedJoint['kind'], screw: BoltedJoint['screw'], headAt: Vec3, axis: Vec3, side: PlacedPlate, endsIn: BoltedJoint['endsIn'], ends: BoltedJoint['standoffEnds']): BoltedJoint {
+function sideScrew(d: Design, id: string, kind: BoltedJoint['kind'], screw: BoltedJoint['screw'], headAt: Vec3, axis: Vec3, side: PlacedPlate, endsIn: BoltedJoint['endsIn'], ends: BoltedJoint['standoffEnds']): JointLayout {
   const head = screwHead(screw, 'button');
   const need = side.thicknessMm + engagementMm(d, screw);
   return {

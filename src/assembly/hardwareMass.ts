@@ -1,7 +1,7 @@
 import type { ScrewSize } from '../params/types.js';
 import { addBodies, cylinderBody, hexPrismBody, placeBody, scaleBody, type MassBody } from './massProps.js';
 import { pitchDiameterMm, socketSizeMm } from './standards.js';
-import type { BoltedJoint, Vec3 } from './types.js';
+import type { BoltedJoint, JointLayout, Vec3 } from './types.js';
 
 /**
  * Mass bodies of screws and nuts from their dimensions and density. A screw is its head (a cylinder
@@ -20,7 +20,7 @@ function axesAlong(w: Vec3): [Vec3, Vec3, Vec3] {
 const d = (s: ScrewSize): number => Number(s.slice(1));
 
 /** A screw of a joint placed in the frame. g, mm. */
-export function screwBody(j: BoltedJoint, densityGPerCm3: number): MassBody {
+export function screwBody(j: JointLayout, densityGPerCm3: number): MassBody {
   if (j.stud || j.screwLengthMm <= 0) return { massG: 0, firstGMm: [0, 0, 0], secondGMm2: [0, 0, 0, 0, 0, 0, 0, 0, 0] };
   const rho = densityGPerCm3 / 1000;
   const countersunk = j.headStandard === 'ISO 10642' || j.headStandard === 'ISO 14581';
@@ -46,7 +46,7 @@ export function screwBody(j: BoltedJoint, densityGPerCm3: number): MassBody {
 }
 
 /** The washer under a joint's nut (zero when there is none): an annulus d1–d2 of thickness h. g, mm. */
-export function washerBody(j: BoltedJoint, densityGPerCm3: number): MassBody {
+export function washerBody(j: JointLayout, densityGPerCm3: number): MassBody {
   if (!j.washer || !j.nutAtMm) return { massG: 0, firstGMm: [0, 0, 0], secondGMm2: [0, 0, 0, 0, 0, 0, 0, 0, 0] };
   const h = j.washer.thicknessMm;
   const at: Vec3 = [j.nutAtMm[0] - j.axis[0] * h, j.nutAtMm[1] - j.axis[1] * h, j.nutAtMm[2] - j.axis[2] * h];
@@ -54,7 +54,17 @@ export function washerBody(j: BoltedJoint, densityGPerCm3: number): MassBody {
 }
 
 /** The nut of a joint placed in the frame (zero when the joint has none). g, mm. */
-export function nutBody(j: BoltedJoint, densityGPerCm3: number): MassBody {
+export function nutBody(j: JointLayout, densityGPerCm3: number): MassBody {
   if (!j.nut || !j.nutAtMm) return { massG: 0, firstGMm: [0, 0, 0], secondGMm2: [0, 0, 0, 0, 0, 0, 0, 0, 0] };
   return placeBody(hexPrismBody(j.nut.acrossFlatsMm, j.nut.heightMm, densityGPerCm3 / 1000, pitchDiameterMm(j.screw)), j.nutAtMm, axesAlong(j.axis));
+}
+
+/** Screw, nut and washer of a joint as one body. g, mm. */
+export function jointHardwareBody(j: JointLayout, densityGPerCm3: number): MassBody {
+  return addBodies([screwBody(j, densityGPerCm3), nutBody(j, densityGPerCm3), washerBody(j, densityGPerCm3)]);
+}
+
+/** The joint with its fastener weighed (`BoltedJoint.hardwareMass`). */
+export function weighJoint(j: JointLayout, densityGPerCm3: number): BoltedJoint {
+  return { ...j, hardwareMass: jointHardwareBody(j, densityGPerCm3) };
 }

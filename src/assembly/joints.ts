@@ -4,7 +4,7 @@ import type { Vec2 } from '../geometry/types.js';
 import type { Design } from '../params/design.js';
 import type { ScrewSize } from '../params/types.js';
 import { nut as nutOf, pitchMm, screwHead, shortestPreferredLength, washer as washerOf, type HeadStyle, type Washer } from './standards.js';
-import type { BoltedJoint, JointKind, PlacedPlate, Standoff, Vec3 } from './types.js';
+import type { BoltedJoint, JointKind, JointLayout, PlacedPlate, Standoff, Vec3 } from './types.js';
 
 /** Holes of different plates whose centres are this close in plan take one screw. mm. */
 export const COAXIAL_MM = 0.05;
@@ -63,7 +63,7 @@ type JointInput = Readonly<{
 }>;
 
 /** A joint record from its plates and what the screw ends in. Screw length: shortest preferred length covering grip + what lies beyond. */
-export function makeJoint(j: JointInput): BoltedJoint {
+export function makeJoint(j: JointInput): JointLayout {
   const head = screwHead(j.screw, j.style);
   const grip = j.clamps.reduce((a, p) => a + p.thicknessMm, 0);
   const washerMm = j.nut && j.washer ? j.washer.thicknessMm : 0;
@@ -107,8 +107,8 @@ export const beyondNutMm = (screw: ScrewSize, nutHeightMm: number): number => nu
  * the standoff's own stud and a nut). Motor, stack and camera screws are in `build.ts`. Heads go where nothing is stacked on them: under the sandwich for
  * arm roots and standoff bottoms, on top for standoff tops.
  */
-export function plateJoints(d: Design, plates: readonly PlacedPlate[], standoffs: readonly Standoff[]): BoltedJoint[] {
-  const out: BoltedJoint[] = [];
+export function plateJoints(d: Design, plates: readonly PlacedPlate[], standoffs: readonly Standoff[]): JointLayout[] {
+  const out: JointLayout[] = [];
   const groups = coaxialGroups(placedHoles(plates));
   const nutChoice = d.assembly.nut;
   let rootN = 0;
@@ -134,7 +134,7 @@ export function plateJoints(d: Design, plates: readonly PlacedPlate[], standoffs
   return out;
 }
 
-function standoffBottom(d: Design, so: Standoff, platesUp: readonly PlacedPlate[]): BoltedJoint {
+function standoffBottom(d: Design, so: Standoff, platesUp: readonly PlacedPlate[]): JointLayout {
   const screw = so.screw;
   if (so.ends === 'male-female') {
     // The standoff's own stud passes down through the plates into a nut underneath.

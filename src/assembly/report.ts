@@ -1,12 +1,17 @@
-import type { Assembly, HardwareList, MassBalance, Vec3 } from './types.js';
+import { centreOfMass, inertiaAboutCentre } from './massProps.js';
+import type { Assembly, HardwareList, Mat3, MassBalance, Vec3 } from './types.js';
 
 /** Round to 4 decimals (and no −0) so files are byte-stable. */
 const r = (x: number): number => Math.round(x * 1e4) / 1e4 + 0;
 const v = (p: readonly number[]): number[] => p.map(r);
+/** A row-major 3×3 matrix as three rounded rows. */
+const rows = (m: Mat3): number[][] => [v(m.slice(0, 3)), v(m.slice(3, 6)), v(m.slice(6, 9))];
 
 /**
  * The `assembly.json` object: mass and balance first (`massG`, `cgMm`, `thrustCentreMm`, …), the
- * stack-up heights, then every placed item with its pose or position. Numbers rounded to 4 decimals.
+ * stack-up heights, then every placed item with its pose or position (joints with what their screw,
+ * nut and washer weigh and where that mass sits: `hardwareMassG`, `hardwareCgMm`, `hardwareInertiaGMm2` about that centre; null when nothing).
+ * Numbers rounded to 4 decimals.
  */
 export function assemblyReport(a: Assembly, mb: MassBalance) {
   const m = mb.massG;
@@ -19,7 +24,7 @@ export function assemblyReport(a: Assembly, mb: MassBalance) {
     thrustCentreMm: v(mb.thrustCentreMm),
     cgOffsetMm: r(mb.cgOffsetMm),
     cgOffsetShareOfArm: r(mb.cgOffsetShare),
-    inertiaGMm2: [v(I.slice(0, 3)), v(I.slice(3, 6)), v(I.slice(6, 9))],
+    inertiaGMm2: rows(I),
     armStacking: a.armStacking,
     stackUpMm: Object.fromEntries(Object.entries(a.stackUp).map(([k, x]) => [k, r(x)])),
     plates: a.plates.map((p) => ({
@@ -58,6 +63,9 @@ export function assemblyReport(a: Assembly, mb: MassBalance) {
       gripMm: r(j.gripMm),
       nut: j.nut ? j.nut.standard : null,
       endsIn: j.endsIn,
+      hardwareMassG: r(j.hardwareMass.massG),
+      hardwareCgMm: j.hardwareMass.massG > 0 ? v(centreOfMass(j.hardwareMass)) : null,
+      hardwareInertiaGMm2: j.hardwareMass.massG > 0 ? rows(inertiaAboutCentre(j.hardwareMass)) : null,
     })),
     motors: a.motors.map((mo) => ({ site: mo.site, onPlate: mo.onPlate, baseCentreMm: v(mo.baseCentreMm), bellDiameterMm: r(mo.bellDiameterMm), heightMm: r(mo.heightMm), massG: r(mo.massG), threadDepthMm: r(mo.threadDepthMm) })),
     props: a.props.map((p) => ({ site: p.site, centreMm: v(p.centreMm), diameterMm: r(p.diameterMm), bandMm: r(p.bandMm), spin: p.spin })),

@@ -11,6 +11,7 @@ import type { MotorSite, SiteId } from '../geometry/layout.js';
 import type { Part, Placement } from '../geometry/part.js';
 import type { Loop, Vec2 } from '../geometry/types.js';
 import type { ScrewSize } from '../params/types.js';
+import type { MassBody } from './massProps.js';
 
 export type Vec3 = readonly [number, number, number];
 
@@ -147,7 +148,16 @@ export type BoltedJoint = Readonly<{
   endsIn: 'nut' | 'standoff' | 'motor-thread' | 'press-nut' | 'camera-thread';
   /** Set when the "screw" is a male–female standoff's own stud (no screw to buy; screwLengthMm 0). */
   stud?: SolidId;
+  /**
+   * What the joint's fastener weighs: screw (none for a stud), nut and washer from their dimensions
+   * and `assembly.screwDensityGPerCm3` (`jointHardwareBody`), as moments about the frame origin.
+   * Mass and balance sum it; the modes model hangs it on the joint.
+   */
+  hardwareMass: MassBody;
 }>;
+
+/** A joint as laid out, before its fastener is weighed (`weighJoint`). */
+export type JointLayout = Omit<BoltedJoint, 'hardwareMass'>;
 
 /** A motor on its arm. Cylinder of the bell diameter from the arm's top face. */
 export type Motor = Readonly<{

@@ -150,7 +150,7 @@ function figures(frame: Frame, a: Assembly): Figures {
   const discs = propDiscs(frame);
   // Adjacent pairs: as many of the smallest gaps as there are props (the ring round the frame).
   const gaps = tipGaps(discs).slice(0, discs.length);
-  const mb = massBalance(a, frame.design);
+  const mb = massBalance(a);
   const m = mb.massG;
   return {
     plateMassG: round(m.frame),

@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { buildAssembly, motorHeightMm } from '../../src/assembly/index.js';
-import { assembledFrameModes, FloatingPartError, partModes, rotationBandFromTipSpeed, rotationBandOf } from '../../src/analysis/index.js';
+import { buildAssembly, massBalance, motorHeightMm } from '../../src/assembly/index.js';
+import { assemble, assembledFrameModes, buildFrameModel, FloatingPartError, partModes, rotationBandFromTipSpeed, rotationBandOf } from '../../src/analysis/index.js';
 import { runCli } from '../helpers/cli.js';
 import { commandAvailable, pythonModuleAvailable, requireTool, runPythonJson } from '../helpers/reference.js';
 import { demoFrame, REPO } from './helpers.js';
@@ -73,6 +73,38 @@ describe('the assembled frame', () => {
     // The assembly's motors (fit checks, mass and balance) and the frame model's carry that height: centre of mass half of it above the arm top.
     for (const m of tesselAssembly.motors) expect(m.cgMm[2] - m.baseCentreMm[2]).toBeCloseTo(19 / 2, 9);
   });
+
+  for (const file of ['tessel-5.yaml', 'mote-3.yaml', 'farline-7.yaml']) {
+    it(`${file}: the model weighs what mass and balance says, all up (plates, screws, nuts, washers, spacers, motors, components): within 0.1 g, centre of gravity within 0.1 mm`, () => {
+      const frame = demoFrame(file);
+      const asm = buildAssembly(frame.design, frame);
+      const mb = massBalance(asm);
+      const fm = buildFrameModel(asm);
+      expect(fm.massG).toBeCloseTo(mb.massG.allUp, 9);
+      // From the assembled mass matrix (lumped shells, consistent beams, rigid masses carried onto
+      // their masters): M applied to rigid translations and rotations about the origin gives the
+      // mass and its first moments (xᵀ M x = m for a unit translation; a unit rotation about z moves
+      // a point (x, y) by (−y, x), so t_xᵀ M r_z = −∫y dm), a route independent of the mass bodies.
+      const a = assemble(fm.model);
+      const rigid = (f: (p: ArrayLike<number>) => readonly number[]) => {
+        const v = new Float64Array(a.k.n);
+        for (let i = 0; i < fm.model.xyz.length / 3; i++) {
+          const u = f(fm.model.xyz.subarray(3 * i, 3 * i + 3));
+          for (let d = 0; d < 6; d++) if (a.eq[6 * i + d] >= 0) v[a.eq[6 * i + d]] = u[d];
+        }
+        return v;
+      };
+      const dotp = (x: Float64Array, y: Float64Array) => x.reduce((s, xi, i) => s + xi * y[i], 0);
+      const mx = a.m.multiply(rigid(() => [1, 0, 0, 0, 0, 0]));
+      const my = a.m.multiply(rigid(() => [0, 1, 0, 0, 0, 0]));
+      const rz = rigid((p) => [-p[1], p[0], 0, 0, 0, 1]);
+      const ry = rigid((p) => [p[2], 0, -p[0], 0, 1, 0]);
+      const massG = dotp(mx, rigid(() => [1, 0, 0, 0, 0, 0])) / 1e-6;
+      const cg = [dotp(my, rz) / 1e-6 / massG, -dotp(mx, rz) / 1e-6 / massG, dotp(mx, ry) / 1e-6 / massG];
+      expect(Math.abs(massG - mb.massG.allUp)).toBeLessThan(0.1);
+      for (let k = 0; k < 3; k++) expect(Math.abs(cg[k] - mb.cgMm[k])).toBeLessThan(0.1);
+    });
+  }
 
   it('a zero-thickness part is refused with its name (no stiffness to solve for)', () => {
     const arm = tessel.parts.find((p) => p.role === 'arm')!;

@@ -40,6 +40,18 @@ describe('build writes the assembly (the built CLI)', () => {
     expect(asm.cgMm).toHaveLength(3);
     expect(asm.thrustCentreMm).toEqual([0, 0]);
     expect(asm.inertiaGMm2).toHaveLength(3);
+    // Each joint says what its screw, nut and washer weigh and where (for tools that model the frame
+    // themselves, such as the CalculiX reference); with the spacers they make up the hardware mass.
+    type J = { hardwareMassG: number; hardwareCgMm: number[]; hardwareInertiaGMm2: number[][]; headAtMm: number[] };
+    const joints: J[] = asm.joints;
+    const spacers = asm.standoffs.reduce((s: number, so: { massG: number }) => s + so.massG, 0);
+    expect(joints.reduce((s, j) => s + j.hardwareMassG, 0) + spacers).toBeCloseTo(asm.massG.hardware, 2);
+    for (const j of joints) {
+      expect(j.hardwareCgMm).toHaveLength(3);
+      expect(j.hardwareInertiaGMm2.flat()).toHaveLength(9);
+      // Along the screw's axis (Tessel 5's screws run along z or y).
+      expect(Math.min(Math.hypot(j.hardwareCgMm[0] - j.headAtMm[0], j.hardwareCgMm[1] - j.headAtMm[1]), Math.hypot(j.hardwareCgMm[0] - j.headAtMm[0], j.hardwareCgMm[2] - j.headAtMm[2]))).toBeLessThan(1e-3);
+    }
     const hw = JSON.parse(readFileSync(join(a, 'hardware.json'), 'utf8'));
     for (const item of hw.items) expect(Object.keys(item)).toEqual(['item', 'standard', 'size', 'lengthMm', 'count', 'countPerBatch', 'use']);
     // Motor screws: 5 mm arm + 1 × d (3 mm) of thread = 8 mm, an ISO 4762 preferred length, 4 per motor.

@@ -2,12 +2,14 @@ import { describe, expect, it } from 'vitest';
 import {
   addBodies,
   centreOfMass,
+  cylinderBody,
   cylinderOfMass,
   hardwareList,
   hexPrismBody,
   inertiaAboutCentre,
   loopMoments,
   massBalance,
+  pitchDiameterMm,
   placeBody,
   plateMassBody,
   poseOf,
@@ -117,7 +119,7 @@ describe('mass and balance of the demo designs', () => {
       const d = demoDesign(file);
       const frame = buildFrame(d);
       const a = buildAssembly(d, frame);
-      const mb = massBalance(a, d);
+      const mb = massBalance(a);
       // partMassG integrates the area by the exact closed form (Green's theorem terms), our
       // moments by quadrature: two routes to the same area.
       expect(mb.massG.frame).toBeCloseTo(frame.parts.reduce((s, p) => s + partMassG(p) * p.quantity, 0), 6);
@@ -139,6 +141,53 @@ describe('mass and balance of the demo designs', () => {
   }
 });
 
+describe('fastener mass per joint (BoltedJoint.hardwareMass)', () => {
+  it('a Tessel 5 motor screw, ISO 4762 M3 × 8 of 7.9 g/cm³, by hand: 0.8542 g with its centre 0.8437 mm above the head', () => {
+    const d = demoDesign('tessel-5.yaml');
+    const a = buildAssembly(d, buildFrame(d));
+    const j = a.joints.find((x) => x.id === 'motor front-right 1')!;
+    expect([j.headStandard, j.screw, j.screwLengthMm, j.nut]).toEqual(['ISO 4762', 'M3', 8, null]);
+    // Head dk 5.5 × k 3 (ISO 4762) less a 2.5 mm hex socket half as deep; shank of the pitch
+    // diameter d2 = d − 0.649519 P (ISO 724), P 0.5.
+    const head = (Math.PI / 4) * 5.5 ** 2 * 3;
+    const socket = (Math.sqrt(3) / 2) * 2.5 ** 2 * 1.5;
+    const d2 = 3 - 0.649519 * 0.5;
+    const shank = (Math.PI / 4) * d2 ** 2 * 8;
+    const rho = 7.9e-3;
+    expect(j.hardwareMass.massG).toBeCloseTo((head - socket + shank) * rho, 3);
+    expect((head - socket + shank) * rho).toBeCloseTo(0.8542, 4);
+    // Centre along the axis from the head's bearing face: head at −1.5, socket at −2.25, shank at +4.
+    const along = (head * -1.5 - socket * -2.25 + shank * 4) / (head - socket + shank);
+    const c = centreOfMass(j.hardwareMass);
+    expect(c[0]).toBeCloseTo(j.headAtMm[0], 9);
+    expect(c[1]).toBeCloseTo(j.headAtMm[1], 9);
+    expect(c[2] - j.headAtMm[2]).toBeCloseTo(along, 3);
+  });
+
+  for (const file of DEMO_FILES) {
+    it(`${file}: the joints' fasteners and the standoffs and spacers make up the hardware mass`, () => {
+      const d = demoDesign(file);
+      const a = buildAssembly(d, buildFrame(d));
+      const spacers = [...a.standoffs, ...a.cameraSpacers].reduce((s, so) => s + so.massG, 0);
+      expect(a.joints.reduce((s, j) => s + j.hardwareMass.massG, 0) + spacers).toBeCloseTo(massBalance(a).massG.hardware, 9);
+      for (const j of a.joints) expect(j.hardwareMass.massG, j.id).toBeGreaterThan(0);
+    });
+  }
+
+  it('a male–female standoff has no screw to weigh: its joint weighs its nut and washer (hex prism less the pitch-diameter bore, ISO 7089 annulus)', () => {
+    const d = validateDesign(designWith('tessel-5.yaml', { body: { standoffs: { ends: 'male-female' } }, assembly: { washers: true } }));
+    const a = buildAssembly(d, buildFrame(d));
+    const studs = a.joints.filter((j) => j.stud);
+    expect(studs).toHaveLength(4);
+    const rho = d.assembly.screwDensityGPerCm3 / 1000;
+    for (const j of studs) {
+      const nut = hexPrismBody(j.nut!.acrossFlatsMm, j.nut!.heightMm, rho, pitchDiameterMm(j.screw)).massG;
+      const washer = cylinderBody(j.washer!.outerMm, j.washer!.thicknessMm, rho, j.washer!.innerMm).massG;
+      expect(j.hardwareMass.massG).toBeCloseTo(nut + washer, 9);
+    }
+  });
+});
+
 describe('washers (assembly.washers)', () => {
   it('an ISO 7089 M3 washer under every nut: 12 on Tessel 5, each π/4 (7² − 3.2²) × 0.5 mm × 7.9 g/cm³ = 0.120246 g', () => {
     const plain = demoDesign('tessel-5.yaml');
@@ -150,7 +199,7 @@ describe('washers (assembly.washers)', () => {
     // Screw lengths do not change here (14.5 → 16 and 19.5 → 20 mm), so the hardware differs by the washers alone.
     const one = (Math.PI / 4) * (7 ** 2 - 3.2 ** 2) * 0.5 * 7.9e-3;
     expect(one).toBeCloseTo(0.120246, 6);
-    expect(massBalance(a1, withWashers).massG.hardware - massBalance(a0, plain).massG.hardware).toBeCloseTo(12 * one, 9);
+    expect(massBalance(a1).massG.hardware - massBalance(a0).massG.hardware).toBeCloseTo(12 * one, 9);
     // The nut sits on the washer: 0.5 mm further from the plates.
     const j0 = a0.joints.find((j) => j.id === 'arm-root 1')!;
     const j1 = a1.joints.find((j) => j.id === 'arm-root 1')!;

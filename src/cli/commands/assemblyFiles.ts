@@ -11,7 +11,7 @@ import type { OutputFile } from '../io.js';
  */
 export function assemblyOutputs(frame: Frame, a: Assembly, report: CheckReport, outDir: string): { files: OutputFile[]; balance: MassBalance; massBalance: unknown } {
   const d = frame.design;
-  const balance = massBalance(a, d);
+  const balance = massBalance(a);
   const list = hardwareList(a, d);
   const full = assemblyReport(a, balance);
   const files: OutputFile[] = [

@@ -91,7 +91,7 @@ async function runDesignCheck(path: string, opts: CheckCliOptions): Promise<Chec
   }
   const assembly = buildAssembly(frame.design, frame);
   const report = checkFrame(frame, o, assembly);
-  const balance = massBalance(assembly, frame.design);
+  const balance = massBalance(assembly);
   if (opts.annotate) {
     const files = await annotatedFiles(frame, report, opts.annotate, o);
     writeAllAtomically(files, opts.annotate);

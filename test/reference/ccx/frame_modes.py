@@ -1,8 +1,10 @@
 #!/usr/bin/python3
 """Independent CalculiX reference for the assembled frame's modes, written from the cut files and the
 design file alone (nothing from framewright's source): the plate DXFs that `framewright build` writes
-(read with ezdxf), where it placed the components (its assembly.json: masses, boxes, mount points), the design YAML (read with PyYAML, the schema's defaults applied here), meshed with
-gmsh (second-order triangles), solved by ccx with S6 shells.
+(read with ezdxf), what its assembly.json says things weigh and where (components: masses, boxes,
+mount points; each joint's screw, nut and washer; each spacer), the design YAML (read with PyYAML,
+the schema's defaults applied here), meshed with gmsh (second-order triangles), solved by ccx with S6
+shells.
 
 The idealisation is the one framewright states (README, "Stiffness and resonance"):
   - plates are shells at their mid-planes; stacking from the bottom up: braces, arms, bottom plate
@@ -15,6 +17,7 @@ The idealisation is the one framewright states (README, "Stiffness and resonance
   - standoffs and camera spacers: solid round rods of their outside size (ten-node tetrahedra; CalculiX's
     beams are expanded to solids whose end rotations a rigid body does not hold), mid-plane to
     mid-plane, end faces in the screws' rigid bodies; aluminium 6061 E 68.9 GPa, 7075 71.7 GPa, nu 0.33 (ASM handbook);
+    as heavy as the spacer (assembly.json: its massG; a hex with a threaded bore weighs less than the solid rod);
   - each motor a solid cylinder (bell diameter, height from the design, else 0.6 x the bell diameter
     but not into the prop band) on
     the arm's top face, rigid with its screws' head footprints (a slotted hole: the slot end nearer
@@ -23,7 +26,10 @@ The idealisation is the one framewright states (README, "Stiffness and resonance
     rigid motion satisfies exactly; see rest_on);
   - components (assembly.json: mass, boxes, what carries them, mount points) are rigid masses, with the
     box inertia, tied to the screws at their mount points (head footprints), or to the stack's screws
-    when they sit on a stack, or else to the plate under their footprint (a strapped battery).
+    when they sit on a stack, or else to the plate under their footprint (a strapped battery);
+  - each joint's screw, nut and washer (assembly.json: hardwareMassG, hardwareCgMm, hardwareInertiaGMm2)
+    a rigid mass at its centre of mass, in the rigid body of that screw's head footprint (for a motor
+    screw, the motor's body).
 
 stdin: JSON {"design": path, "dxfDir": dir (what `framewright build` wrote), "sizeMm": element size, "modes": count}
 stdout: JSON {"frequenciesHz": [...] (elastic modes above 1 Hz), "nodes": n}
@@ -47,7 +53,7 @@ SERIES = {"fine": 0, "medium": 1, "coarse": 2}
 # Head diameters dk: ISO 4762 socket, ISO 7380-1 button (M2, M2.5: no button head, socket used).
 SOCKET_DK = {"M2": 3.8, "M2.5": 4.5, "M3": 5.5, "M4": 7.0, "M5": 8.5}
 BUTTON_DK = {"M2": 3.8, "M2.5": 4.5, "M3": 5.7, "M4": 7.6, "M5": 9.5}
-ALLOYS = {"aluminium-6061": (68900.0, 2.70), "aluminium-7075": (71700.0, 2.81)}
+YOUNG = {"aluminium-6061": 68900.0, "aluminium-7075": 71700.0}  # MPa
 CAMERA_WIDTH = {"nano": 14, "micro": 19, "mini": 21.5}
 COAXIAL = 0.05
 
@@ -195,14 +201,13 @@ def main():
         part = dxf("camera-side")
         plates.append(Placed("camera-side left", part, tc, mat_of("camera"), weave_of("camera"), None, vertical=True, y_mid=w / 2 + tc / 2))
         plates.append(Placed("camera-side right", part, tc, mat_of("camera"), weave_of("camera"), None, vertical=True, y_mid=-w / 2 - tc / 2))
-    # Components (stack, boards, battery, camera) as placed by `framewright build` (assembly.json: mass,
-    # boxes, what carries them and where); how they are tied is decided here.
-    components = []
+    # Components (stack, boards, battery, camera), fasteners and spacers as `framewright build` placed and
+    # weighed them (assembly.json); how they are tied is decided here.
     if any("softMountNPerMm" in c for c in d.get("components") or []):
         raise SystemExit("reference models hard-mounted components only")
-    if d.get("components"):
-        with open(os.path.join(spec["dxfDir"], "assembly.json")) as f:
-            components = json.load(f)["components"]
+    with open(os.path.join(spec["dxfDir"], "assembly.json")) as f:
+        placed = json.load(f)
+    components = placed["components"]
 
     standoff_xy = [tuple(p) for p in so["positionsMm"]]
 
@@ -255,14 +260,14 @@ def main():
 
     horizontal = [k for k, pl in enumerate(plates) if not pl.vertical]
     # Standoffs: rods between the bottom and top plate mid-planes, ends rigid with their screws' footprints.
-    young, rho = ALLOYS[so.get("material", "aluminium-7075")]
+    young = YOUNG[so.get("material", "aluminium-7075")]
     radius = so.get("acrossFlatsMm", 5) / 2
     screw = so.get("boltSize", "M3")
     work = tempfile.mkdtemp(prefix="fw-rods-")
     rod_size = min(size, radius * 0.8)
     for x, y in standoff_xy:
         zb, zt = tb / 2, tb + gap + tt / 2
-        low, high = deck.rod(work, (x, y, zb), (x, y, zt), radius, young, 0.33, rho * 1e-9, rod_size)
+        low, high = deck.rod(work, (x, y, zb), (x, y, zt), radius, young, 0.33, spacer_density(placed, (x, y, None), zt - zb, radius), rod_size)
         for end, z_face, dk in ((low, tb, SOCKET_DK[screw]), (high, tb + gap, BUTTON_DK[screw])):
             tied = []
             for k in horizontal:
@@ -326,7 +331,8 @@ def main():
                     deck.rigid(footprint(k, x, z, dk / 2), (x, plates[k].y_mid, z))
             else:
                 # A spacer across the camera between the two plates' mount holes.
-                ends = deck.rod(work, (x, plates[right].y_mid, z), (x, plates[left].y_mid, z), radius, young, 0.33, rho * 1e-9, rod_size)
+                span = plates[left].y_mid - plates[right].y_mid
+                ends = deck.rod(work, (x, plates[right].y_mid, z), (x, plates[left].y_mid, z), radius, young, 0.33, spacer_density(placed, (x, None, z), span, radius), rod_size)
                 for k, end in zip((right, left), ends):
                     deck.rigid(footprint(k, x, z, dk / 2) + end, (x, plates[k].y_mid, z))
         # Side plate edges resting on the bottom and top plates follow the plate under them.
@@ -372,6 +378,18 @@ def main():
             tied = [min((n for k in ids for n in nodes_of[k]), key=lambda n: math.dist(deck_xyz(deck, n), p))]
         mass_t = c["massG"] * 1e-6
         deck.rigid_mass_tensor(tied, mass_t, c["cgMm"], boxes_inertia(c["boxes"], mass_t, c["cgMm"]))
+    # Fasteners: a rigid mass in the body of the head footprint on the first plate the screw passes.
+    for j in placed["joints"]:
+        if j["hardwareMassG"] <= 0:
+            continue
+        k = by_name[j["clamps"][0]]
+        reach = max(SOCKET_DK[j["screw"]], BUTTON_DK[j["screw"]]) / 2 + 1e-6
+        near = [(axis_distance(j, deck_xyz(deck, n)), n) for n in nodes_of[k] if n in rigid_nodes]
+        dist, n = min(near, default=(math.inf, None))
+        if dist > reach:
+            raise SystemExit(f"joint {j['id']}: no head footprint on {j['clamps'][0]}")
+        mass_t = j["hardwareMassG"] * 1e-6
+        deck.rigid_mass_tensor([n], mass_t, j["hardwareCgMm"], [[x * 1e-6 for x in row] for row in j["hardwareInertiaGMm2"]])
     for elems, mat, t, a1, a2 in pending_shells:
         deck.shells_with_patches(elems, mat, t, a1, a2, rigid_nodes)
     with tempfile.TemporaryDirectory(prefix="fw-ccx-frame-") as tmp:
@@ -408,6 +426,24 @@ def rest_on(deck, n, elems):
             3: [(m, 3, lam[k]) for k, m in enumerate(corners)]}
     for dof, terms in rows.items():
         deck.equation([(n, dof, 1.0)] + [(m, d, -c) for m, d, c in terms if abs(c) > 1e-12])
+
+
+def spacer_density(placed, at, length, radius):
+    """Density (t/mm^3) that gives a solid rod of this length and radius the mass of the spacer that
+    assembly.json places at `at` (x, y, None for an upright standoff; x, None, z for a camera spacer)."""
+    for s in placed["standoffs"]:
+        p = s["startMm"]
+        if all(c is None or abs(p[i] - c) < COAXIAL for i, c in enumerate(at)) and abs(s["axis"][2 if at[2] is None else 1]) > 0.5:
+            return s["massG"] * 1e-6 / (math.pi * radius * radius * length)
+    raise SystemExit(f"no spacer in assembly.json at {at}")
+
+
+def axis_distance(joint, p):
+    """Distance from point p to a joint's screw axis (through headAtMm along axis)."""
+    h, a = joint["headAtMm"], joint["axis"]
+    r = [p[i] - h[i] for i in range(3)]
+    along = sum(r[i] * a[i] for i in range(3))
+    return math.hypot(*(r[i] - along * a[i] for i in range(3)))
 
 
 def in_box_plan(box, p):
