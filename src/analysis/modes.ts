@@ -1,4 +1,5 @@
 import { buildAssembly } from '../assembly/build.js';
+import type { Assembly } from '../assembly/types.js';
 import { motorHeightMm } from '../assembly/parts.js';
 import { assembledFrameModes, type FrameModalResult } from './frameModes.js';
 import { rotationBandOf } from './rotation.js';
@@ -17,6 +18,11 @@ export type ModeOptions = Readonly<{
   meshSizeMm?: number;
   /** Mass of one motor, g, spread over its bolt-hole edges. Default: estimated from the bell diameter in frameModes, 0 otherwise. */
   motorMassG?: number;
+  /**
+   * Screws, nuts and washers that hold one motor, g: carried with the motor (its rigid body, at its
+   * centre of mass). frameModes takes them from the assembly's motor joints. Default 0.
+   */
+  motorScrewsG?: number;
   /** Flight-controller stack, g, spread over the stack bolt holes (bottom plate with motors). Default 0. */
   stackMassG?: number;
   /** Battery, g, spread over the standoff holes (it rides on the top plate). Default 0. */
@@ -114,8 +120,12 @@ function armSetup(pm0: PlateModel, part: Part, options: ModeOptions) {
   };
   const clamped = roots.flatMap(footprint);
   const tipNodes = motors.flatMap(footprint);
-  const motorG = options.motorMassG ?? 0;
-  const masses: AddedMass[] = motorG > 0 ? [{ what: 'motor', massG: motorG, nodes: tipNodes }] : [];
+  const screwsG = options.motorScrewsG ?? 0;
+  const motorG = (options.motorMassG ?? 0) + screwsG;
+  const masses: AddedMass[] = [
+    ...((options.motorMassG ?? 0) > 0 ? [{ what: 'motor', massG: options.motorMassG!, nodes: tipNodes }] : []),
+    ...(screwsG > 0 ? [{ what: 'motor screws', massG: screwsG, nodes: tipNodes }] : []),
+  ];
   let pm = withFixed(pm0, clamped, [0, 1, 2, 3, 4, 5]);
   if (motorG > 0) {
     const c = centre(motors);
@@ -148,7 +158,7 @@ export function bodyModes(part: Part, sites: Frame['sites'], options: ModeOption
 function bodySetup(pm0: PlateModel, sites: Frame['sites'], options: ModeOptions) {
   const motors = motorsOnPlate(pm0, sites);
   const masses: AddedMass[] = [];
-  const mm = options.motorMassG ?? 0;
+  const mm = (options.motorMassG ?? 0) + (options.motorScrewsG ?? 0);
   if (mm > 0) for (const m of motors) masses.push({ what: `motor ${m.id}`, massG: mm, nodes: m.nodes });
   const stackNodes = featureNodes(pm0, 'stack-bolt').flatMap((f) => f.nodes);
   const standoffs = featureNodes(pm0, 'standoff');
@@ -224,6 +234,17 @@ export type FrameModes = Readonly<{
 }>;
 
 /**
+ * Screws, nuts and washers of one motor on the copies of a part, g: the assembly's motor joints through
+ * those copies, over the motors they hold. 0 when the part carries no motor.
+ */
+function motorScrewsG(asm: Assembly, partName: string): number {
+  const copies = new Set(asm.plates.filter((pl) => pl.part.name === partName).map((pl) => pl.id));
+  const motors = asm.motors.filter((m) => copies.has(m.onPlate)).length;
+  const grams = asm.joints.filter((j) => j.kind === 'motor' && j.clamps.some((id) => copies.has(id))).reduce((sum, j) => sum + j.hardwareMass.massG, 0);
+  return motors ? grams / motors : 0;
+}
+
+/**
  * Everything the `modes` command reports for a frame: free–free modes of every part, arms clamped
  * at their root bolts with their motors, and for a unibody frame the bottom plate carrying its
  * motors, with arm-tip deflection and body twist under motor thrust.
@@ -233,15 +254,16 @@ export function frameModes(frame: Frame, options: ModeOptions = {}): FrameModes 
   const thrustN = options.thrustN ?? DEFAULT_THRUST_N;
   const motor = options.motor ?? { bellDiameterMm: frame.design.motor.bellDiameterMm, heightMm: motorHeightMm(frame.design) };
   const opts = { ...options, motorMassG, thrustN, motor };
+  const asm = buildAssembly(frame.design, frame);
   const parts = frame.parts.map((p) => partModes(p, opts));
   const arms = frame.parts
     .filter((p) => p.role === 'arm')
-    .map((p) => ({ modal: armModes(p, opts), statics: armTipDeflection(p, thrustN, opts.meshSizeMm) }));
+    .map((p) => ({ modal: armModes(p, { ...opts, motorScrewsG: options.motorScrewsG ?? motorScrewsG(asm, p.name) }), statics: armTipDeflection(p, thrustN, opts.meshSizeMm) }));
   let body: BodyResult | null = null;
   const bottom = frame.parts.find((p) => p.role === 'bottom');
   if (bottom && frame.design.arms.construction === 'unibody') {
     body = {
-      modal: bodyModes(bottom, frame.sites, opts),
+      modal: bodyModes(bottom, frame.sites, { ...opts, motorScrewsG: options.motorScrewsG ?? motorScrewsG(asm, bottom.name) }),
       twist: bodyTwist(bottom, frame.sites, thrustN, opts.meshSizeMm),
       tipDeflections: unibodyTipDeflections(bottom, frame.sites, thrustN, opts.meshSizeMm),
     };
@@ -250,6 +272,6 @@ export function frameModes(frame: Frame, options: ModeOptions = {}): FrameModes 
   const assembled =
     options.assembled === false
       ? null
-      : assembledFrameModes(buildAssembly(frame.design, frame), { modes: options.assembledModes ?? options.modes ?? 8, rotationBand: rotationBandOf(frame.design, frame.propDiameterMm) });
+      : assembledFrameModes(asm, { modes: options.assembledModes ?? options.modes ?? 8, rotationBand: rotationBandOf(frame.design, frame.propDiameterMm) });
   return { frame: frame.name, motorMassG, thrustN, parts, arms, body, rootTwist, assembled };
 }
