@@ -15,9 +15,18 @@ export const loopLength = (loop: Loop): number => loop.reduce((acc, s) => acc + 
 
 /** Exact bounding box of the loop, arc extremes included (mm). */
 export function loopBBox(loop: Loop): BBox {
-  let b: [number, number, number, number] = [Infinity, Infinity, -Infinity, -Infinity];
-  for (const s of loop) b = unionBBox(b, segmentBBox(s)) as [number, number, number, number];
-  return b;
+  let x0 = Infinity;
+  let y0 = Infinity;
+  let x1 = -Infinity;
+  let y1 = -Infinity;
+  for (const s of loop) {
+    const b = segmentBBox(s);
+    x0 = Math.min(x0, b[0]);
+    y0 = Math.min(y0, b[1]);
+    x1 = Math.max(x1, b[2]);
+    y1 = Math.max(y1, b[3]);
+  }
+  return [x0, y0, x1, y1];
 }
 
 /** Smallest box holding both boxes. */
