@@ -120,12 +120,13 @@ function armSetup(pm0: PlateModel, part: Part, options: ModeOptions) {
   };
   const clamped = roots.flatMap(footprint);
   const tipNodes = motors.flatMap(footprint);
-  const screwsG = options.motorScrewsG ?? 0;
-  const motorG = (options.motorMassG ?? 0) + screwsG;
-  const masses: AddedMass[] = [
-    ...((options.motorMassG ?? 0) > 0 ? [{ what: 'motor', massG: options.motorMassG!, nodes: tipNodes }] : []),
-    ...(screwsG > 0 ? [{ what: 'motor screws', massG: screwsG, nodes: tipNodes }] : []),
+  const parts = [
+    { what: 'motor', massG: options.motorMassG ?? 0 },
+    { what: 'motor screws', massG: options.motorScrewsG ?? 0 },
   ];
+  const masses: AddedMass[] = parts.filter((m) => m.massG > 0).map((m) => ({ ...m, nodes: tipNodes }));
+  // The screws ride in the motor's rigid body: one mass of both.
+  const motorG = parts[0].massG + parts[1].massG;
   let pm = withFixed(pm0, clamped, [0, 1, 2, 3, 4, 5]);
   if (motorG > 0) {
     const c = centre(motors);
