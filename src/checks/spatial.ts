@@ -33,11 +33,17 @@ const CELLS_PER_ITEM = 4;
  * Cell size from the data: twice the median item size, but never below the mean spacing of the items
  * (the side of the square each item would have if they were spread evenly over their extent). Points
  * (zero-size boxes, e.g. hole centres) thus get about one item per cell instead of a degenerate cell
- * that makes every query walk the whole grid. mm.
+ * that makes every query walk the whole grid. An item's size is the geometric mean of its box's sides:
+ * long thin items (a strut's centreline, a straight edge) then share cells with few others, where
+ * their length would make one cell of the whole part and every query a scan of every item. mm.
  */
 export function gridCellMm(boxes: readonly BBox[]): number {
   if (boxes.length === 0) return 1;
-  const sizes = boxes.map((b) => Math.max(b[2] - b[0], b[3] - b[1])).sort((a, b) => a - b);
+  const sizes = new Float64Array(boxes.length);
+  boxes.forEach((b, i) => {
+    sizes[i] = Math.sqrt((b[2] - b[0]) * (b[3] - b[1]));
+  });
+  sizes.sort();
   const [x0, y0, x1, y1] = extent(boxes);
   // A line of items (zero width or height) spreads along its length only.
   const w = x1 - x0;

@@ -68,4 +68,20 @@ describe('box grid', () => {
       expect(queryBoxGrid(g, q, pad).sort((a, b) => a - b)).toEqual(brute);
     }
   });
+
+  it('keeps long thin items (member centrelines) in cells of their own neighbourhood', () => {
+    // 200 horizontal centrelines 10 mm apart across a 2,000 mm plate, as the bench's drilled plate has:
+    // sized by their length, one cell held them all and every query met all 200.
+    const lines: BBox[] = Array.from({ length: 200 }, (_, j) => [0, 10 * j, 2000, 10 * j]);
+    const g = buildBoxGrid(lines);
+    expect(g.cellMm).toBeLessThan(200);
+    let met = 0;
+    for (let j = 0; j < 200; j += 7) {
+      const q: BBox = [1000, 10 * j + 5, 1000, 10 * j + 5];
+      const got = queryBoxGrid(g, q, 8).sort((a, b) => a - b);
+      expect(got).toEqual([j, j + 1].filter((k) => k < 200)); // the two lines within 8 mm of a point 5 mm off a line
+      met += got.length;
+    }
+    expect(met).toBeLessThan(60);
+  });
 });
