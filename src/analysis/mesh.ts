@@ -44,7 +44,8 @@ const RING_CLEARANCE = 0.35;
  * triangles outside the material dropped, then a few guarded Laplacian smoothing passes.
  * Deterministic: the same part and options give the same mesh.
  * @param sizeMm target element edge length, mm (> 0)
- * @throws RangeError when sizeMm is not positive or the mesh would exceed 200 000 nodes
+ * @throws RangeError when sizeMm is not positive, the mesh would exceed 200 000 nodes, or the
+ *   triangulation cannot be made to follow the boundary
  */
 export function meshPart(part: Pick<Part, 'outline' | 'features'>, sizeMm: number, options: Readonly<{ rings?: readonly RingRequest[] }> = {}): PlateMesh {
   if (!(sizeMm > 0)) throw new RangeError(`mesh size must be positive (got ${sizeMm} mm)`);
@@ -94,17 +95,27 @@ export function meshPart(part: Pick<Part, 'outline' | 'features'>, sizeMm: numbe
       pts.push(p);
     }
   }
-  const xy = new Float64Array(pts.length * 2);
-  pts.forEach((p, i) => {
-    xy[2 * i] = p[0];
-    xy[2 * i + 1] = p[1];
+  const nodes = pts.length;
+  const all = [...pts, ...frame(minX, minY, maxX, maxY, sizeMm)];
+  const xyAll = new Float64Array(all.length * 2);
+  all.forEach((p, i) => {
+    xyAll[2 * i] = p[0];
+    xyAll[2 * i + 1] = p[1];
   });
-  const del = new Delaunator(xy);
-  new Constrainautor(del, edges);
+  const del = new Delaunator(xyAll);
+  try {
+    new Constrainautor(del, edges);
+  } catch (e) {
+    // The constraining step's own floating-point tests can still fail on boundaries that nearly
+    // touch or run nearly collinear: a clear refusal, which a slightly different size usually avoids.
+    throw new RangeError(`the mesh at ${sizeMm} mm could not follow the part's edges (${(e as Error).message}); edges that nearly touch or nearly line up cause this: try a slightly different mesh size (--mesh-size)`);
+  }
+  const xy = xyAll.slice(0, 2 * nodes);
   const t = del.triangles;
   const kept: number[] = [];
   for (let k = 0; k < t.length; k += 3) {
     const [a, b, c] = [t[k], t[k + 1], t[k + 2]];
+    if (a >= nodes || b >= nodes || c >= nodes) continue;
     // Collinear boundary points (a straight run, the convex hull) can form triangles of no area.
     const twice = area2(xy, a, b, c);
     if (Math.abs(twice) < 1e-9 * sizeMm * sizeMm) continue;
@@ -116,6 +127,23 @@ export function meshPart(part: Pick<Part, 'outline' | 'features'>, sizeMm: numbe
   const triangles = Uint32Array.from(kept);
   smooth(xy, triangles, interiorStart, 4);
   return { xy, triangles, loops, rings, sizeMm };
+}
+
+/**
+ * Points on a rectangle two element sizes outside the part's box, triangulated with the part and
+ * then dropped. They make the triangulation's hull this rectangle instead of the part's own
+ * boundary: a long straight edge on the hull is a run of nearly collinear points, whose slivers the
+ * constraining step could not flip (it failed on a 1 m drawn edge with "no further intersect").
+ */
+function frame(minX: number, minY: number, maxX: number, maxY: number, sizeMm: number): Vec2[] {
+  const m = 2 * sizeMm;
+  const [x0, y0, x1, y1] = [minX - m, minY - m, maxX + m, maxY + m];
+  const nx = Math.max(1, Math.ceil((x1 - x0) / (2 * sizeMm)));
+  const ny = Math.max(1, Math.ceil((y1 - y0) / (2 * sizeMm)));
+  const out: Vec2[] = [];
+  for (let i = 0; i < nx; i++) out.push([x0 + ((x1 - x0) * i) / nx, y0], [x1 - ((x1 - x0) * i) / nx, y1]);
+  for (let j = 0; j < ny; j++) out.push([x1, y0 + ((y1 - y0) * j) / ny], [x0, y1 - ((y1 - y0) * j) / ny]);
+  return out;
 }
 
 /** Points along a closed loop (closing point not repeated), spaced at most sizeMm apart. */

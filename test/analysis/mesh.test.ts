@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { meshPart, partModes } from '../../src/analysis/index.js';
-import { partArea } from '../../src/geometry/index.js';
+import { arc, line, partArea, type Part } from '../../src/geometry/index.js';
 import { DEMOS, demoFrame } from './helpers.js';
 
 /** Invariants of the mesher on every demo part: the exact geometry is the reference. */
@@ -34,6 +34,32 @@ describe.each(DEMOS)('mesh of %s', (file) => {
       for (const l of m.loops) expect(l.length).toBeGreaterThanOrEqual(3);
     });
   }
+});
+
+describe('a drawn part whose long edge lies on the hull', () => {
+  // From the DXF fuzz test (seed 23731): a 1 m circular segment with a small tab, its top a straight
+  // 1,028 mm edge sloping 2 mm. Its boundary nodes are nearly collinear; while they formed the
+  // triangulation's hull, constraining the edges failed ("no further intersect after non-convex")
+  // at these three sizes and modes exited with a stack trace.
+  const part: Part = {
+    name: 'long-edge', role: 'imported', quantity: 1, thicknessMm: 2, weaveRad: 0, features: [], members: [], placements: [], sourcePath: 'test',
+    material: { name: 'woven-cf', e1Gpa: 65, e2Gpa: 65, g12Gpa: 4, nu12: 0.07, densityGPerCm3: 1.57 },
+    outline: [line([20, -2], [30, -2]), arc([544, 514.0000000000001], 728.321357643726, -2.3542527450599016, Math.PI / 2), line([1060, 0], [32, 2]), line([32, 2], [20, 2]), line([20, 2], [20, -2])],
+  };
+  it.each([4, 3.996, 3.88])('meshes at %s mm: the material covered, every node used', (size) => {
+    const { xy, triangles } = meshPart(part, size);
+    let area = 0;
+    const used = new Uint8Array(xy.length / 2);
+    for (let t = 0; t < triangles.length; t += 3) {
+      const [a, b, c] = [triangles[t], triangles[t + 1], triangles[t + 2]];
+      [a, b, c].forEach((k) => (used[k] = 1));
+      const a2 = (xy[2 * b] - xy[2 * a]) * (xy[2 * c + 1] - xy[2 * a + 1]) - (xy[2 * c] - xy[2 * a]) * (xy[2 * b + 1] - xy[2 * a + 1]);
+      expect(a2).toBeGreaterThan(0);
+      area += a2 / 2;
+    }
+    expect(Math.abs(area / partArea(part) - 1)).toBeLessThan(0.01);
+    expect(used.every((u) => u === 1)).toBe(true);
+  });
 });
 
 describe('determinism and convergence', () => {

@@ -1,7 +1,12 @@
 import * as DxfParserModule from 'dxf-parser';
+import { parse as parseCsv } from 'csv-parse/sync';
 import YAML from 'yaml';
 import { describe, expect, it } from 'vitest';
+import { FloatingPartError, defaultMeshSizeMm, frameModes } from '../../src/analysis/index.js';
+import { refuseLargeMeshes } from '../../src/analysis/meshLimit.js';
+import { buildAssembly } from '../../src/assembly/index.js';
 import { checkFrame } from '../../src/checks/index.js';
+import { assemblyOutputs } from '../../src/cli/commands/assemblyFiles.js';
 import { buildOutputs } from '../../src/cli/commands/build.js';
 import { buildFrame } from '../../src/geometry/index.js';
 import { DesignError, parseDesignText } from '../../src/params/index.js';
@@ -67,12 +72,20 @@ function designText(d: Json, r: () => number): string {
   return text;
 }
 
-/** What build would write, as text, for a design text; or the DesignError that refuses it. */
-async function pipeline(text: string): Promise<{ files: Array<{ path: string; data: string }>; frameParts: number } | { refused: DesignError }> {
+/**
+ * What build would write, as text, for a design text (with --force, so a design with errors is
+ * written too); or the DesignError that refuses it. The same steps as `runBuild`: plates, the
+ * assembly, the checks on both, the cut files and the assembly files.
+ */
+async function pipeline(text: string): Promise<{ files: Array<{ path: string; data: string }>; frameParts: number; errors: number; warnings: number } | { refused: DesignError }> {
   try {
-    const frame = buildFrame(parseDesignText(text, 'fuzz.yaml'));
+    const design = parseDesignText(text, 'fuzz.yaml');
+    const frame = buildFrame(design);
+    const assembly = buildAssembly(design, frame);
+    const report = checkFrame(frame, {}, assembly);
     const { files } = await buildOutputs(frame, 'out', { r2000: text.length % 2 === 0 });
-    return { files: files.map((f) => ({ path: f.path, data: String(f.data) })), frameParts: frame.parts.length };
+    files.push(...assemblyOutputs(frame, assembly, report, 'out').files);
+    return { files: files.map((f) => ({ path: f.path, data: String(f.data) })), frameParts: frame.parts.length, ...report.summary };
   } catch (e) {
     if (e instanceof DesignError) return { refused: e };
     throw e;
@@ -81,12 +94,14 @@ async function pipeline(text: string): Promise<{ files: Array<{ path: string; da
 
 describe('fuzz: random designs give outputs or a clear DesignError, never a crash (FUZZ_CASES=n for more)', () => {
   const CASES = Number(process.env.FUZZ_CASES ?? 200);
+  // FUZZ_FROM=n starts a campaign at another seed (the suite always runs the same first cases).
+  const FIRST = Number(process.env.FUZZ_FROM ?? 1);
   const sources = DEMO_FILES.map((f) => YAML.parse(demoText(f)) as Json);
 
-  it(`${CASES} seeded designs: valid XML, DXF an independent reader takes, byte-identical reruns`, async () => {
+  it(`${CASES} seeded designs: valid XML, DXF an independent reader takes, JSON and CSV that parse, byte-identical reruns, modes of every twentieth frame`, async () => {
     const parser = new DxfParser();
-    const seen = { refused: 0, built: 0, checked: 0 };
-    for (let seed = 1; seed <= CASES; seed++) {
+    const seen = { refused: 0, built: 0, checked: 0, modes: 0, modesRefused: 0 };
+    for (let seed = FIRST; seed < FIRST + CASES; seed++) {
       const r = rng(seed * 7919);
       const text = designText(mutate(sources[seed % sources.length], r), r);
       const label = `seed ${seed}`;
@@ -105,14 +120,42 @@ describe('fuzz: random designs give outputs or a clear DesignError, never a cras
       seen.built++;
       for (const f of result.files) {
         if (f.path.endsWith('.svg')) expect(xmlProblem(f.data), `${label} ${f.path}`).toBeNull();
-        else expect(parser.parseSync(f.data)?.entities?.length, `${label} ${f.path}`).toBeGreaterThan(0);
+        else if (f.path.endsWith('.dxf')) expect(parser.parseSync(f.data)?.entities?.length, `${label} ${f.path}`).toBeGreaterThan(0);
+        else if (f.path.endsWith('.json')) expect(() => JSON.parse(f.data), `${label} ${f.path}`).not.toThrow();
+        else {
+          // csv-parse (strict: every row as many fields as the header) reads the hardware list.
+          const rows = parseCsv(f.data) as string[][];
+          expect(rows.length, `${label} ${f.path}`).toBeGreaterThan(1);
+          expect(rows[0], `${label} ${f.path}`).toEqual(['item', 'standard', 'size', 'lengthMm', 'count', 'countPerBatch', 'use']);
+        }
       }
-      // Every fifth built design: the whole pipeline again gives the same bytes, and the checks run.
+      // Every twentieth built design: what `modes` runs (mesh limits, each part, the arms, the assembled
+      // frame): finite, positive, ascending frequencies, or a refusal the command words in one line.
+      if (seen.built % 20 === 1) {
+        let all: number[][];
+        try {
+          const frame = buildFrame(parseDesignText(text, 'fuzz.yaml'));
+          refuseLargeMeshes(frame.parts, defaultMeshSizeMm, true);
+          const fm = frameModes(frame, { modes: 3, assembledModes: 4 });
+          all = [...fm.parts.map((r) => r.modes), ...fm.arms.map((a) => a.modal.modes), fm.assembled?.modes ?? []].map((ms) => ms.map((m) => m.frequencyHz));
+          seen.modes++;
+        } catch (e) {
+          if (!(e instanceof RangeError || e instanceof FloatingPartError)) throw new Error(`${label}: modes crashed: ${(e as Error).stack}\n--- design ---\n${text}`);
+          expect((e as Error).message, label).not.toMatch(/\n/);
+          seen.modesRefused++;
+          all = [];
+        }
+        for (const hz of all) {
+          hz.forEach((f, i) => {
+            expect(Number.isFinite(f) && f > 0, `${label}: ${f} Hz`).toBe(true);
+            if (i > 0) expect(f, `${label}: ascending`).toBeGreaterThanOrEqual(hz[i - 1]);
+          });
+        }
+      }
+      // Every fifth built design: the whole pipeline again gives the same bytes and the same counts.
       if (seen.built % 5 === 1) {
         const again = await pipeline(text);
         expect(again, label).toEqual(result);
-        const report = checkFrame(buildFrame(parseDesignText(text)));
-        expect(report.summary.errors + report.summary.warnings, label).toBe(report.findings.filter((f) => f.severity !== 'info').length);
         seen.checked++;
       }
     }
@@ -120,5 +163,6 @@ describe('fuzz: random designs give outputs or a clear DesignError, never a cras
     // The mutations reach both sides: some designs are refused, some are built and checked.
     expect(seen.refused, JSON.stringify(seen)).toBeGreaterThan(CASES / 10);
     expect(seen.built, JSON.stringify(seen)).toBeGreaterThan(CASES / 10);
-  }, 300_000);
+    expect(seen.modes, JSON.stringify(seen)).toBeGreaterThan(CASES / 200);
+  }, Math.max(300_000, CASES * 1000));
 });
