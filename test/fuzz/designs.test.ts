@@ -4,7 +4,11 @@ import YAML from 'yaml';
 import { describe, expect, it } from 'vitest';
 import { FloatingPartError, defaultMeshSizeMm, frameModes } from '../../src/analysis/index.js';
 import { refuseLargeMeshes } from '../../src/analysis/meshLimit.js';
-import { buildAssembly } from '../../src/assembly/index.js';
+import { buildAssembly, hardwareList } from '../../src/assembly/index.js';
+import { drawingFonts } from '../../src/cli/fonts.js';
+import { quotePackage } from '../../src/export/quotePackage.js';
+import { parseShopText } from '../../src/params/shop.js';
+import { quoteParts } from '../../src/quote/index.js';
 import { checkFrame } from '../../src/checks/index.js';
 import { assemblyOutputs } from '../../src/cli/commands/assemblyFiles.js';
 import { buildOutputs } from '../../src/cli/commands/build.js';
@@ -16,6 +20,9 @@ import { xmlProblem } from '../helpers/xml.js';
 
 // dxf-parser's default export under NodeNext (library-notes.md)
 const DxfParser = ((DxfParserModule as unknown as { default?: unknown }).default ?? DxfParserModule) as new () => { parseSync(s: string): { entities?: unknown[] } | null };
+
+const SHOP = parseShopText(demoText('hollin-row-shop.yaml'), 'hollin-row-shop.yaml');
+const FONTS = drawingFonts();
 
 type Json = null | boolean | number | string | Json[] | { [k: string]: Json };
 
@@ -98,9 +105,9 @@ describe('fuzz: random designs give outputs or a clear DesignError, never a cras
   const FIRST = Number(process.env.FUZZ_FROM ?? 1);
   const sources = DEMO_FILES.map((f) => YAML.parse(demoText(f)) as Json);
 
-  it(`${CASES} seeded designs: valid XML, DXF an independent reader takes, JSON and CSV that parse, byte-identical reruns, modes of every twentieth frame`, async () => {
+  it(`${CASES} seeded designs: valid XML, DXF an independent reader takes, JSON and CSV that parse, byte-identical reruns, modes and a quote of every twentieth frame`, async () => {
     const parser = new DxfParser();
-    const seen = { refused: 0, built: 0, checked: 0, modes: 0, modesRefused: 0 };
+    const seen = { refused: 0, built: 0, checked: 0, modes: 0, modesRefused: 0, quoted: 0, quoteRefused: 0 };
     for (let seed = FIRST; seed < FIRST + CASES; seed++) {
       const r = rng(seed * 7919);
       const text = designText(mutate(sources[seed % sources.length], r), r);
@@ -152,6 +159,34 @@ describe('fuzz: random designs give outputs or a clear DesignError, never a cras
           });
         }
       }
+      // Every twentieth built design (another tenth of them than modes): what `quote --qty 2` writes:
+      // quote.json, the drawing as SVG and PDF, each nested sheet as DXF and SVG; or a DesignError
+      // (a part larger than every sheet).
+      if (seen.built % 20 === 11) {
+        let pkg;
+        try {
+          const design = parseDesignText(text, 'fuzz.yaml');
+          const frame = buildFrame(design);
+          const quote = quoteParts(frame.parts, { quantity: 2, shop: SHOP, toolDiameterMm: SHOP.toolDiameterMm ?? design.cutting.toolDiameterMm });
+          const assembly = buildAssembly(design, frame);
+          const checks = checkFrame(frame, { toolDiameterMm: quote.toolDiameterMm }, assembly).summary;
+          pkg = await quotePackage(frame.parts, quote, { design: design.name, revision: design.revision, date: null, checks, hardware: hardwareList(assembly, design), fonts: FONTS });
+        } catch (e) {
+          if (!(e instanceof DesignError)) throw new Error(`${label}: quote crashed: ${(e as Error).stack}\n--- design ---\n${text}`);
+          seen.quoteRefused++;
+          pkg = null;
+        }
+        if (pkg) {
+          seen.quoted++;
+          for (const f of pkg.files) {
+            const data = f.data;
+            if (f.name.endsWith('.svg')) expect(xmlProblem(String(data)), `${label} ${f.name}`).toBeNull();
+            else if (f.name.endsWith('.dxf')) expect(parser.parseSync(String(data))?.entities?.length, `${label} ${f.name}`).toBeGreaterThan(0);
+            else if (f.name.endsWith('.json')) expect(() => JSON.parse(String(data)), `${label} ${f.name}`).not.toThrow();
+            else expect(Buffer.from(data as Uint8Array).subarray(0, 5).toString('latin1'), `${label} ${f.name}`).toBe('%PDF-');
+          }
+        }
+      }
       // Every fifth built design: the whole pipeline again gives the same bytes and the same counts.
       if (seen.built % 5 === 1) {
         const again = await pipeline(text);
@@ -164,5 +199,6 @@ describe('fuzz: random designs give outputs or a clear DesignError, never a cras
     expect(seen.refused, JSON.stringify(seen)).toBeGreaterThan(CASES / 10);
     expect(seen.built, JSON.stringify(seen)).toBeGreaterThan(CASES / 10);
     expect(seen.modes, JSON.stringify(seen)).toBeGreaterThan(CASES / 200);
+    expect(seen.quoted, JSON.stringify(seen)).toBeGreaterThan(CASES / 200);
   }, Math.max(300_000, CASES * 1000));
 });
