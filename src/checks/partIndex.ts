@@ -1,5 +1,4 @@
 import { windingNumber } from '../geometry/inside.js';
-import { loopBBox } from '../geometry/loop.js';
 import { featureLabel, type Feature, type Part } from '../geometry/part.js';
 import { closestPoint, segmentBBox } from '../geometry/segment.js';
 import type { BBox, Loop, Segment, Vec2 } from '../geometry/types.js';
@@ -27,13 +26,32 @@ export type PartIndex = Readonly<{
 export const contourLabel = (f: Feature | null): string => featureLabel(f);
 
 export function indexPart(part: Part): PartIndex {
-  const loops: Array<{ loop: Loop; feature: Feature | null }> = [{ loop: part.outline, feature: null }, ...part.features.map((f) => ({ loop: f.loop, feature: f }))];
-  const contours: Contour[] = loops.map((c, index) => ({ index, loop: c.loop, feature: c.feature, bbox: loopBBox(c.loop), label: contourLabel(c.feature) }));
+  const contours: Contour[] = [];
   const segs: SegRef[] = [];
   const firstSeg: number[] = [];
-  for (const c of contours) {
+  const segBoxes: BBox[] = [];
+  const contourBoxes: BBox[] = [];
+  for (let index = 0; index <= part.features.length; index++) {
+    const feature = index === 0 ? null : part.features[index - 1];
+    const loop = feature ? feature.loop : part.outline;
     firstSeg.push(segs.length);
-    c.loop.forEach((s, seg) => segs.push({ contour: c.index, seg, s, box: segmentBBox(s) }));
+    // Each segment's box once; the contour's box is their union (what loopBBox computes).
+    let x0 = Infinity;
+    let y0 = Infinity;
+    let x1 = -Infinity;
+    let y1 = -Infinity;
+    for (let seg = 0; seg < loop.length; seg++) {
+      const box = segmentBBox(loop[seg]);
+      segs.push({ contour: index, seg, s: loop[seg], box });
+      segBoxes.push(box);
+      x0 = Math.min(x0, box[0]);
+      y0 = Math.min(y0, box[1]);
+      x1 = Math.max(x1, box[2]);
+      y1 = Math.max(y1, box[3]);
+    }
+    const bbox: BBox = [x0, y0, x1, y1];
+    contours.push({ index, loop, feature, bbox, label: contourLabel(feature) });
+    contourBoxes.push(bbox);
   }
   const b = contours[0].bbox;
   return {
@@ -41,8 +59,8 @@ export function indexPart(part: Part): PartIndex {
     contours,
     segs,
     firstSeg,
-    segGrid: buildBoxGrid(segs.map((s) => s.box)),
-    contourGrid: buildBoxGrid(contours.map((c) => c.bbox)),
+    segGrid: buildBoxGrid(segBoxes),
+    contourGrid: buildBoxGrid(contourBoxes),
     spanMm: Math.hypot(b[2] - b[0], b[3] - b[1]),
   };
 }

@@ -79,33 +79,37 @@ export function buildBoxGrid(boxes: readonly BBox[], cellMm?: number): BoxGrid {
   }
   const count = new Int32Array(nx * ny + 1);
   const spill: number[] = [];
-  const range = (b: BBox): [number, number, number, number] => [
-    Math.floor((b[0] - ox) / cell),
-    Math.floor((b[1] - oy) / cell),
-    Math.floor((b[2] - ox) / cell),
-    Math.floor((b[3] - oy) / cell),
-  ];
-  const big = new Uint8Array(boxes.length);
-  boxes.forEach((b, id) => {
-    const [ix0, iy0, ix1, iy1] = range(b);
+  // Each box's cell range, kept in flat arrays (no tuple per box: a plate's grid has one box per hole).
+  const n = boxes.length;
+  const cells = new Int32Array(4 * n);
+  const big = new Uint8Array(n);
+  for (let id = 0; id < n; id++) {
+    const b = boxes[id];
+    const ix0 = Math.floor((b[0] - ox) / cell);
+    const iy0 = Math.floor((b[1] - oy) / cell);
+    const ix1 = Math.floor((b[2] - ox) / cell);
+    const iy1 = Math.floor((b[3] - oy) / cell);
+    cells[4 * id] = ix0;
+    cells[4 * id + 1] = iy0;
+    cells[4 * id + 2] = ix1;
+    cells[4 * id + 3] = iy1;
     // A large item (a long outline edge) would sit in many cells and be met again and again by
     // wide queries: it goes to the spill list, which every query scans once.
     if ((ix1 - ix0 + 1) * (iy1 - iy0 + 1) > SPILL_CELLS) {
       big[id] = 1;
       spill.push(id);
-      return;
+      continue;
     }
     for (let ix = ix0; ix <= ix1; ix++) for (let iy = iy0; iy <= iy1; iy++) count[ix * ny + iy + 1]++;
-  });
+  }
   for (let k = 1; k <= nx * ny; k++) count[k] += count[k - 1];
   const start = count;
   const items = new Int32Array(start[nx * ny]);
   const fill = start.slice(0, nx * ny);
-  boxes.forEach((b, id) => {
-    if (big[id]) return;
-    const [ix0, iy0, ix1, iy1] = range(b);
-    for (let ix = ix0; ix <= ix1; ix++) for (let iy = iy0; iy <= iy1; iy++) items[fill[ix * ny + iy]++] = id;
-  });
+  for (let id = 0; id < n; id++) {
+    if (big[id]) continue;
+    for (let ix = cells[4 * id]; ix <= cells[4 * id + 2]; ix++) for (let iy = cells[4 * id + 1]; iy <= cells[4 * id + 3]; iy++) items[fill[ix * ny + iy]++] = id;
+  }
   return { boxes, cellMm: cell, originMm: [ox, oy], nx, ny, start, items, spill: Int32Array.from(spill), marks: { stamp: 0, seen: new Int32Array(boxes.length) } };
 }
 

@@ -9,6 +9,8 @@ import { drawingFonts } from '../../src/cli/fonts.js';
 import { quotePackage } from '../../src/export/quotePackage.js';
 import { parseShopText } from '../../src/params/shop.js';
 import { quoteParts } from '../../src/quote/index.js';
+import { VariantRefusal, VariantRequestError } from '../../src/variant/errors.js';
+import { makeVariant } from '../../src/variant/variant.js';
 import { checkFrame } from '../../src/checks/index.js';
 import { assemblyOutputs } from '../../src/cli/commands/assemblyFiles.js';
 import { buildOutputs } from '../../src/cli/commands/build.js';
@@ -105,9 +107,9 @@ describe('fuzz: random designs give outputs or a clear DesignError, never a cras
   const FIRST = Number(process.env.FUZZ_FROM ?? 1);
   const sources = DEMO_FILES.map((f) => YAML.parse(demoText(f)) as Json);
 
-  it(`${CASES} seeded designs: valid XML, DXF an independent reader takes, JSON and CSV that parse, byte-identical reruns, modes and a quote of every twentieth frame`, async () => {
+  it(`${CASES} seeded designs: valid XML, DXF an independent reader takes, JSON and CSV that parse, byte-identical reruns, modes, a quote and a size variant of every twentieth frame`, async () => {
     const parser = new DxfParser();
-    const seen = { refused: 0, built: 0, checked: 0, modes: 0, modesRefused: 0, quoted: 0, quoteRefused: 0 };
+    const seen = { refused: 0, built: 0, checked: 0, modes: 0, modesRefused: 0, quoted: 0, quoteRefused: 0, variants: 0, variantsRefused: 0 };
     for (let seed = FIRST; seed < FIRST + CASES; seed++) {
       const r = rng(seed * 7919);
       const text = designText(mutate(sources[seed % sources.length], r), r);
@@ -187,6 +189,21 @@ describe('fuzz: random designs give outputs or a clear DesignError, never a cras
           }
         }
       }
+      // Every twentieth built design (yet another tenth): a size variant for other props, as `variant`
+      // makes it: a design that parses, builds and passes its checks, or a refusal in words.
+      if (seen.built % 20 === 6) {
+        const props = ['3in', '5in', '7in', '10in'][seen.built % 4];
+        try {
+          const v = makeVariant(text, { props, wheelbase: 'auto', wheelbaseStepMm: 1, motor: 'auto' }, 'fuzz.yaml');
+          const again = buildFrame(parseDesignText(v.text, 'variant.yaml'));
+          expect(checkFrame(again).summary.errors, `${label} variant ${props}`).toBe(0);
+          seen.variants++;
+        } catch (e) {
+          if (!(e instanceof VariantRefusal || e instanceof VariantRequestError || e instanceof DesignError)) throw new Error(`${label}: variant ${props} crashed: ${(e as Error).stack}\n--- design ---\n${text}`);
+          expect((e as Error).message.length, label).toBeGreaterThan(10);
+          seen.variantsRefused++;
+        }
+      }
       // Every fifth built design: the whole pipeline again gives the same bytes and the same counts.
       if (seen.built % 5 === 1) {
         const again = await pipeline(text);
@@ -200,5 +217,6 @@ describe('fuzz: random designs give outputs or a clear DesignError, never a cras
     expect(seen.built, JSON.stringify(seen)).toBeGreaterThan(CASES / 10);
     expect(seen.modes, JSON.stringify(seen)).toBeGreaterThan(CASES / 200);
     expect(seen.quoted, JSON.stringify(seen)).toBeGreaterThan(CASES / 200);
+    expect(seen.variants + seen.variantsRefused, JSON.stringify(seen)).toBeGreaterThan(CASES / 200);
   }, Math.max(300_000, CASES * 1000));
 });
