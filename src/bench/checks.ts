@@ -39,18 +39,21 @@ function numpySeconds(file: string): number {
 
 /**
  * Processor ms of one rule on drilled plates of each size, every measurement in a fresh process (so one
- * size's garbage does not bill the next). The sizes take turns, three rounds, and each size keeps its
- * least time: this machine's other work (load average ~1.6 with the bench idle) only ever adds to a
- * deterministic run, and taking turns spreads any drift over every size alike.
+ * size's garbage does not bill the next). The sizes take turns, five rounds (three still let one slow
+ * reading through on this machine), and each size keeps its least time: this machine's other work
+ * (load average ~1.6 with the bench idle) only ever adds to a deterministic run, and taking turns
+ * spreads any drift over every size alike. V8 runs on one thread (`--single-threaded`): the process's
+ * processor time is then the timed work alone, where background compiler and collector threads made
+ * a 2,000-hole check read anywhere from 46 to 108 ms.
  */
 function ruleMs(rule: RuleName, sizes: readonly number[]): number[] {
   const once = (holes: number) => {
-    const r = spawnSync(process.execPath, [SCALE, rule, String(holes)], { encoding: 'utf8' });
+    const r = spawnSync(process.execPath, ['--single-threaded', SCALE, rule, String(holes)], { encoding: 'utf8' });
     if (r.status !== 0) throw new Error(`checkScale ${rule} ${holes} failed: ${r.stderr.slice(0, 200)}`);
     return Number(r.stdout.trim());
   };
   const best = sizes.map(() => Infinity);
-  for (let round = 0; round < 3; round++) sizes.forEach((n, i) => (best[i] = Math.min(best[i], once(n))));
+  for (let round = 0; round < 5; round++) sizes.forEach((n, i) => (best[i] = Math.min(best[i], once(n))));
   return best;
 }
 

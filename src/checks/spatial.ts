@@ -8,7 +8,8 @@ import type { BBox } from '../geometry/types.js';
  * flat list (offsets per cell), which the cell size keeps to about one cell per item.
  */
 export type BoxGrid = Readonly<{
-  boxes: readonly BBox[];
+  /** The items' boxes, four numbers each (x0, y0, x1, y1): queries read one flat array, not one array per item. */
+  coords: Float64Array;
   cellMm: number;
   originMm: readonly [number, number];
   /** Cells across and up. */
@@ -82,9 +83,14 @@ export function buildBoxGrid(boxes: readonly BBox[], cellMm?: number): BoxGrid {
   // Each box's cell range, kept in flat arrays (no tuple per box: a plate's grid has one box per hole).
   const n = boxes.length;
   const cells = new Int32Array(4 * n);
+  const coords = new Float64Array(4 * n);
   const big = new Uint8Array(n);
   for (let id = 0; id < n; id++) {
     const b = boxes[id];
+    coords[4 * id] = b[0];
+    coords[4 * id + 1] = b[1];
+    coords[4 * id + 2] = b[2];
+    coords[4 * id + 3] = b[3];
     const ix0 = Math.floor((b[0] - ox) / cell);
     const iy0 = Math.floor((b[1] - oy) / cell);
     const ix1 = Math.floor((b[2] - ox) / cell);
@@ -110,13 +116,13 @@ export function buildBoxGrid(boxes: readonly BBox[], cellMm?: number): BoxGrid {
     if (big[id]) continue;
     for (let ix = cells[4 * id]; ix <= cells[4 * id + 2]; ix++) for (let iy = cells[4 * id + 1]; iy <= cells[4 * id + 3]; iy++) items[fill[ix * ny + iy]++] = id;
   }
-  return { boxes, cellMm: cell, originMm: [ox, oy], nx, ny, start, items, spill: Int32Array.from(spill), marks: { stamp: 0, seen: new Int32Array(boxes.length) } };
+  return { coords, cellMm: cell, originMm: [ox, oy], nx, ny, start, items, spill: Int32Array.from(spill), marks: { stamp: 0, seen: new Int32Array(boxes.length) } };
 }
 
 /** Ids of items whose box comes within padMm of the query box (each once, in a deterministic order). */
 export function queryBoxGrid(g: BoxGrid, b: BBox, padMm = 0): number[] {
   const out: number[] = [];
-  const { boxes, marks, start, items, ny } = g;
+  const { coords, marks, start, items, ny } = g;
   const seen = marks.seen;
   const stamp = ++marks.stamp;
   const x0 = b[0] - padMm;
@@ -135,16 +141,16 @@ export function queryBoxGrid(g: BoxGrid, b: BBox, padMm = 0): number[] {
         const id = items[n];
         if (seen[id] === stamp) continue;
         seen[id] = stamp;
-        const o = boxes[id];
-        if (o[0] > x1 || x0 > o[2] || o[1] > y1 || y0 > o[3]) continue;
+        const k4 = 4 * id;
+        if (coords[k4] > x1 || x0 > coords[k4 + 2] || coords[k4 + 1] > y1 || y0 > coords[k4 + 3]) continue;
         out.push(id);
       }
     }
   }
   for (let n = 0; n < g.spill.length; n++) {
     const id = g.spill[n];
-    const o = boxes[id];
-    if (o[0] > x1 || x0 > o[2] || o[1] > y1 || y0 > o[3]) continue;
+    const k4 = 4 * id;
+    if (coords[k4] > x1 || x0 > coords[k4 + 2] || coords[k4 + 1] > y1 || y0 > coords[k4 + 3]) continue;
     out.push(id);
   }
   return out;
