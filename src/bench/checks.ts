@@ -13,6 +13,8 @@ import { RULES, type RuleName } from './checkScale.js';
 import type { BenchCase, BenchFigure } from './types.js';
 
 const CLI = fileURLToPath(new URL('../cli/main.js', import.meta.url));
+/** The bundled command a user runs (`bin` in package.json). */
+const BIN = fileURLToPath(new URL('../cli/framewright.cjs', import.meta.url));
 const SCALE = fileURLToPath(new URL('./checkScale.js', import.meta.url));
 const NUMPY_REF = fileURLToPath(new URL('../../test/reference/holes_numpy.py', import.meta.url));
 const PYTHON = '/usr/bin/python3';
@@ -54,6 +56,24 @@ function ruleMs(rule: RuleName, sizes: readonly number[]): number[] {
   };
   const best = sizes.map(() => Infinity);
   for (let round = 0; round < 5; round++) sizes.forEach((n, i) => (best[i] = Math.min(best[i], once(n))));
+  return best;
+}
+
+/**
+ * Wall ms of each command (arguments to the CLI's bin), one process per run: five rounds with the
+ * commands taking turns, each keeping its least time (other work on the machine only adds).
+ */
+function commandMs(commands: readonly string[][]): number[] {
+  const best = commands.map(() => Infinity);
+  for (let round = 0; round < 5; round++) {
+    commands.forEach((args, i) => {
+      const t0 = performance.now();
+      const r = spawnSync(process.execPath, [BIN, ...args], { stdio: ['ignore', 'ignore', 'pipe'] });
+      const ms = performance.now() - t0;
+      if (r.status !== 0 && r.status !== 1) throw new Error(`framewright ${args.join(' ')} exited ${r.status}: ${String(r.stderr).slice(0, 200)}`);
+      best[i] = Math.min(best[i], ms);
+    });
+  }
   return best;
 }
 
@@ -133,8 +153,21 @@ export const figures: BenchFigure[] = [
     goal: '≤ 4.5× for 4× the holes',
     order: 4,
     measure: async () => {
+      // The command as a user runs it: one process per file, its time less that of the same command on
+      // a 4-hole plate (start-up, module loading and the fixed work of a check).
+      const files = [4, 2000, 8000].map((holes) => dxfFile(`drilled-${holes}`, { holes, pitchMm: 10, diameterMm: 6 }));
+      const [t0, a, b] = commandMs(files.map((f) => ['check', f, '--thickness', '2', '--json']));
+      const growth = (b - t0) / (a - t0);
+      return { value: `${(a - t0).toFixed(0)} → ${(b - t0).toFixed(0)} ms`, peer: '4.00× (linear)', ratio: `${growth.toFixed(2)}×`, met: growth <= 4.5, note: `one process per run, least of five, less ${t0.toFixed(0)} ms for a 4-hole plate` };
+    },
+  },
+  {
+    figure: 'growth of `check` in one warm process, 2,000 → 8,000 holes (read, import, rules, JSON)',
+    goal: '≤ 4.5× for 4× the holes',
+    order: 4.05,
+    measure: async () => {
       const [a, b] = ruleMs('check-dxf', [2000, 8000]);
-      return { value: `${a.toFixed(0)} → ${b.toFixed(0)} ms CPU`, peer: '4.00× (linear)', ratio: `${(b / a).toFixed(2)}×`, met: b / a <= 4.5 };
+      return { value: `${a.toFixed(0)} → ${b.toFixed(0)} ms CPU`, peer: '4.00× (linear)', ratio: `${(b / a).toFixed(2)}×`, met: b / a <= 4.5, note: 'steady state, runs back to back: stricter than one command' };
     },
   },
   ...(Object.keys(RULES) as RuleName[]).filter((r) => r !== 'check-dxf').map((r, i) => growthFigure(r, 4.1 + i / 100)),
