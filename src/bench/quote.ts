@@ -59,11 +59,15 @@ function sheetsFigure(frames: number, order: number, slack: number): BenchFigure
       const ref = slow ? null : libnest2dSheets(parts, frames);
       const bound = r.groups.map((g) => g.lowerBoundSheets);
       const allowed = bound.map((b) => Math.ceil(b * slack - 1e-9));
+      // What the goal asks of each sheet: all the group's parts over the sheets allowed, against the most one sheet holds.
+      const sheetsOf = (g: (typeof r.groups)[number]) => r.sheets.filter((sh) => sh.thicknessMm === g.thicknessMm && sh.material === g.material);
+      const fullest = r.groups.map((g) => Math.max(...sheetsOf(g).map((sh) => sh.placements.length)));
+      const needed = r.groups.map((g, i) => Math.ceil(sheetsOf(g).reduce((n, sh) => n + sh.placements.length, 0) / allowed[i]));
       return {
         value: r.groups.map((g) => g.sheets).join(' / '),
         peer: `libnest2d on convex hulls ${ref ? ref.join(' / ') : slow ? '(FW_BENCH_SLOW=1: ~3 min)' : 'not installed'}`,
         met: r.groups.every((g, i) => g.sheets <= allowed[i]),
-        note: `lower bound ${bound.join(' / ')}${slack === 1 ? '' : ` (goal ≤ ${allowed.join(' / ')})`}, over it by ${r.groups.map((g, i) => `${Math.round((g.sheets / bound[i] - 1) * 100)} %`).join(' / ')}; rules that won ${r.groups.map((g) => g.rule).join(' / ')}; nesting ${(ms / 1000).toFixed(1)} s; closest parts ${Math.min(...r.groups.map((g) => g.minGapMm ?? Infinity)).toFixed(3)} mm for ${SPACING_MM} mm asked`,
+        note: `lower bound ${bound.join(' / ')}${slack === 1 ? '' : ` (goal ≤ ${allowed.join(' / ')})`}, over it by ${r.groups.map((g, i) => `${Math.round((g.sheets / bound[i] - 1) * 100)} %`).join(' / ')}; the goal needs ${needed.join(' / ')} parts on a sheet, the fullest sheet holds ${fullest.join(' / ')}; rules that won ${r.groups.map((g) => g.rule).join(' / ')}; nesting ${(ms / 1000).toFixed(1)} s; closest parts ${Math.min(...r.groups.map((g) => g.minGapMm ?? Infinity)).toFixed(3)} mm for ${SPACING_MM} mm asked`,
       };
     },
   };
