@@ -96,7 +96,7 @@ export function meshPart(part: Pick<Part, 'outline' | 'features'>, sizeMm: numbe
     }
   }
   const nodes = pts.length;
-  const all = [...pts, ...frame(minX, minY, maxX, maxY, sizeMm)];
+  const all = [...pts, ...enclosingRectangle(minX, minY, maxX, maxY, sizeMm)];
   const xyAll = new Float64Array(all.length * 2);
   all.forEach((p, i) => {
     xyAll[2 * i] = p[0];
@@ -135,7 +135,7 @@ export function meshPart(part: Pick<Part, 'outline' | 'features'>, sizeMm: numbe
  * boundary: a long straight edge on the hull is a run of nearly collinear points, whose slivers the
  * constraining step could not flip (it failed on a 1 m drawn edge with "no further intersect").
  */
-function frame(minX: number, minY: number, maxX: number, maxY: number, sizeMm: number): Vec2[] {
+function enclosingRectangle(minX: number, minY: number, maxX: number, maxY: number, sizeMm: number): Vec2[] {
   const m = 2 * sizeMm;
   const [x0, y0, x1, y1] = [minX - m, minY - m, maxX + m, maxY + m];
   const nx = Math.max(1, Math.ceil((x1 - x0) / (2 * sizeMm)));
