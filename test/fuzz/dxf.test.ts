@@ -53,6 +53,7 @@ describe('fuzz: mutated DXF files through the whole check, never a crash (FUZZ_C
   it(`${CASES} seeded files: a report or a DxfReadError; annotated SVGs well-formed, parts written back readable; reruns identical; plate modes of every fourth file finite and ascending, or the mesh limit`, () => {
     const parser = new DxfParser();
     const seen = { refused: 0, checked: 0, parts: 0, modes: 0, modesRefused: 0 };
+    const why: string[] = [];
     for (let seed = FIRST; seed < FIRST + CASES; seed++) {
       const r = rng(seed * 104729);
       const text = mutateDxfLines(FUZZ_SOURCES[seed % FUZZ_SOURCES.length].split('\n'), r).join('\n');
@@ -86,6 +87,7 @@ describe('fuzz: mutated DXF files through the whole check, never a crash (FUZZ_C
           }
           if (!Array.isArray(hz)) {
             seen.modesRefused++;
+            if (why.length < 5) why.push(`${label}: ${hz.refused.message}`);
             expect(hz.refused.message, label).not.toMatch(/\n/);
             continue;
           }
@@ -97,7 +99,7 @@ describe('fuzz: mutated DXF files through the whole check, never a crash (FUZZ_C
         }
       }
     }
-    if (process.env.FUZZ_CASES) console.log(JSON.stringify(seen));
+    if (process.env.FUZZ_CASES) console.log(JSON.stringify({ ...seen, why }));
     // Both outcomes occur: the mutations reach past the reader's first checks into the design rules.
     expect(seen.refused, JSON.stringify(seen)).toBeGreaterThan(CASES / 20);
     expect(seen.parts, JSON.stringify(seen)).toBeGreaterThan(CASES / 5);
