@@ -110,6 +110,7 @@ describe('fuzz: random designs give outputs or a clear DesignError, never a cras
   it(`${CASES} seeded designs: valid XML, DXF an independent reader takes, JSON and CSV that parse, byte-identical reruns, modes, a quote and a size variant of every twentieth frame`, async () => {
     const parser = new DxfParser();
     const seen = { refused: 0, built: 0, checked: 0, modes: 0, modesRefused: 0, quoted: 0, quoteRefused: 0, variants: 0, variantsRefused: 0 };
+    const why: string[] = [];
     for (let seed = FIRST; seed < FIRST + CASES; seed++) {
       const r = rng(seed * 7919);
       const text = designText(mutate(sources[seed % sources.length], r), r);
@@ -202,6 +203,7 @@ describe('fuzz: random designs give outputs or a clear DesignError, never a cras
           if (!(e instanceof VariantRefusal || e instanceof VariantRequestError || e instanceof DesignError)) throw new Error(`${label}: variant ${props} crashed: ${(e as Error).stack}\n--- design ---\n${text}`);
           expect((e as Error).message.length, label).toBeGreaterThan(10);
           seen.variantsRefused++;
+          if (why.length < 8) why.push(`${label} variant ${props}: ${(e as Error).message.split('\n').slice(0, 2).join(' | ')}`);
         }
       }
       // Every fifth built design: the whole pipeline again gives the same bytes and the same counts.
@@ -211,7 +213,7 @@ describe('fuzz: random designs give outputs or a clear DesignError, never a cras
         seen.checked++;
       }
     }
-    if (process.env.FUZZ_CASES) console.log(JSON.stringify(seen));
+    if (process.env.FUZZ_CASES) console.log(JSON.stringify({ ...seen, why }, null, 1));
     // The mutations reach both sides: some designs are refused, some are built and checked.
     expect(seen.refused, JSON.stringify(seen)).toBeGreaterThan(CASES / 10);
     expect(seen.built, JSON.stringify(seen)).toBeGreaterThan(CASES / 10);
