@@ -101,8 +101,9 @@ export function mergeFindings(findings: readonly Finding[]): Finding[] {
   const groups = new Map<string, Map<string, Map<number, Vec2[]>>>();
   const seenMessages = new Map<string, Map<string, Set<string>>>();
   const kept = new Uint8Array(n);
-  const CELL_SPAN = 2 ** 22;
-  const cellKey = (i: number, j: number): number => (i + CELL_SPAN / 2) * CELL_SPAN + (j + CELL_SPAN / 2);
+  // A hashed 32-bit cell key (a small integer, where an exact key above 2^31 made every Map entry a
+  // boxed number): two cells that share a key only add candidates, and the distance test decides.
+  const cellKey = (i: number, j: number): number => Math.imul(i | 0, 73856093) ^ Math.imul(j | 0, 19349663);
   const inner = <V>(outer: Map<string, Map<string, V>>, part: string, rule: string, make: () => V): V => {
     let byRule = outer.get(part);
     if (!byRule) outer.set(part, (byRule = new Map()));
