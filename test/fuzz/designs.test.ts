@@ -162,7 +162,7 @@ describe('fuzz: random designs give outputs or a clear DesignError, never a cras
           });
         }
       }
-      // Every twentieth built design (another tenth of them than modes): what `quote --qty 2` writes:
+      // Another twentieth of the built designs: what `quote --qty 2` writes:
       // quote.json, the drawing as SVG and PDF, each nested sheet as DXF and SVG; or a DesignError
       // (a part larger than every sheet).
       if (seen.built % 20 === 11) {
@@ -186,14 +186,19 @@ describe('fuzz: random designs give outputs or a clear DesignError, never a cras
             if (f.name.endsWith('.svg')) expect(xmlProblem(String(data)), `${label} ${f.name}`).toBeNull();
             else if (f.name.endsWith('.dxf')) expect(parser.parseSync(String(data))?.entities?.length, `${label} ${f.name}`).toBeGreaterThan(0);
             else if (f.name.endsWith('.json')) expect(() => JSON.parse(String(data)), `${label} ${f.name}`).not.toThrow();
-            else expect(Buffer.from(data as Uint8Array).subarray(0, 5).toString('latin1'), `${label} ${f.name}`).toBe('%PDF-');
+            else {
+              // A whole PDF: its header, and the end-of-file marker in its last bytes.
+              const pdf = Buffer.from(data as Uint8Array);
+              expect(pdf.subarray(0, 5).toString('latin1'), `${label} ${f.name}`).toBe('%PDF-');
+              expect(pdf.subarray(-32).toString('latin1'), `${label} ${f.name}`).toContain('%%EOF');
+            }
           }
         }
       }
-      // Every twentieth built design (yet another tenth): a size variant for other props, as `variant`
+      // A third twentieth: a size variant for other props (taking turns through four sizes), as `variant`
       // makes it: a design that parses, builds and passes its checks, or a refusal in words.
       if (seen.built % 20 === 6) {
-        const props = ['3in', '5in', '7in', '10in'][seen.built % 4];
+        const props = ['3in', '5in', '7in', '10in'][Math.floor(seen.built / 20) % 4];
         try {
           const v = makeVariant(text, { props, wheelbase: 'auto', wheelbaseStepMm: 1, motor: 'auto' }, 'fuzz.yaml');
           const again = buildFrame(parseDesignText(v.text, 'variant.yaml'));
