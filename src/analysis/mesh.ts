@@ -107,8 +107,9 @@ export function meshPart(part: Pick<Part, 'outline' | 'features'>, sizeMm: numbe
     new Constrainautor(del, edges);
   } catch (e) {
     // The constraining step's own floating-point tests can still fail on boundaries that nearly
-    // touch or run nearly collinear: a clear refusal, which a slightly different size usually avoids.
-    throw new RangeError(`the mesh at ${sizeMm} mm could not follow the part's edges (${(e as Error).message}); edges that nearly touch or nearly line up cause this: try a slightly different mesh size (--mesh-size)`);
+    // touch or run nearly collinear (a slightly different size usually avoids it), and it cannot
+    // follow two contours drawn on top of each other (the checks name those): a clear refusal.
+    throw new RangeError(`the mesh at ${sizeMm} mm could not follow the part's edges (${(e as Error).message}); contours that coincide, touch or nearly line up cause this: check the drawing for them, or try a slightly different mesh size (--mesh-size)`);
   }
   const xy = xyAll.slice(0, 2 * nodes);
   const t = del.triangles;

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { meshPart, partModes } from '../../src/analysis/index.js';
 import { arc, line, partArea, type Part } from '../../src/geometry/index.js';
+import { circle, roundedRect } from '../../src/geometry/primitives.js';
 import { DEMOS, demoFrame } from './helpers.js';
 
 /** Invariants of the mesher on every demo part: the exact geometry is the reference. */
@@ -59,6 +60,16 @@ describe('a drawn part whose long edge lies on the hull', () => {
     }
     expect(Math.abs(area / partArea(part) - 1)).toBeLessThan(0.01);
     expect(used.every((u) => u === 1)).toBe(true);
+  });
+});
+
+describe('a part the mesh cannot follow', () => {
+  it('is refused with a one-line RangeError naming the mesh size, not the triangulator failing', () => {
+    // The same hole twice: its boundary nodes coincide, so the triangulation cannot hold both rings.
+    const hole = { loop: circle([20, 20], 3, false), kind: 'hole' as const, purpose: 'imported' as const, centerMm: [20, 20] as const, diameterMm: 6 };
+    const part = { outline: roundedRect([30, 20], 60, 40, 5), features: [hole, hole] };
+    expect(() => meshPart(part, 2)).toThrow(RangeError);
+    expect(() => meshPart(part, 2)).toThrow(/^the mesh at 2 mm could not follow the part's edges \([^\n]+\); contours that coincide/);
   });
 });
 
