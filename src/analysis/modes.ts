@@ -120,13 +120,13 @@ function armSetup(pm0: PlateModel, part: Part, options: ModeOptions) {
   };
   const clamped = roots.flatMap(footprint);
   const tipNodes = motors.flatMap(footprint);
-  const parts = [
+  const carried = [
     { what: 'motor', massG: options.motorMassG ?? 0 },
     { what: 'motor screws', massG: options.motorScrewsG ?? 0 },
   ];
-  const masses: AddedMass[] = parts.filter((m) => m.massG > 0).map((m) => ({ ...m, nodes: tipNodes }));
+  const masses: AddedMass[] = carried.filter((m) => m.massG > 0).map((m) => ({ ...m, nodes: tipNodes }));
   // The screws ride in the motor's rigid body: one mass of both.
-  const motorG = parts[0].massG + parts[1].massG;
+  const motorG = carried.reduce((s, m) => s + m.massG, 0);
   let pm = withFixed(pm0, clamped, [0, 1, 2, 3, 4, 5]);
   if (motorG > 0) {
     const c = centre(motors);

@@ -149,17 +149,17 @@ const S = {
 
 /**
  * S.b (3×9) = the strain rows at the point whose shape-function gradients are in S.dx, S.dy:
- * ε_x = Σ dx·u, ε_y = Σ dy·v, γ_xy = Σ dy·u + dx·v, with u of node n and DOF k at u[uAt + 9n + k]
+ * ε_x = Σ dx·u, ε_y = Σ dy·v, γ_xy = Σ dy·u + dx·v, with u of node n and DOF k at u[9n + k]
  * and v at v[vAt + 9n + k] (the bending curvatures and the membrane strains have this one form).
  */
-function strainRowsInto(u: Float64Array, uAt: number, v: Float64Array, vAt: number): void {
+function strainRowsInto(u: Float64Array, v: Float64Array, vAt: number): void {
   const { b, dx, dy } = S;
   for (let k = 0; k < 9; k++) {
     let b0 = 0;
     let b1 = 0;
     let b2 = 0;
     for (let n = 0; n < 6; n++) {
-      const un = u[uAt + n * 9 + k];
+      const un = u[n * 9 + k];
       const vn = v[vAt + n * 9 + k];
       b0 += dx[n] * un;
       b1 += dy[n] * vn;
@@ -232,7 +232,7 @@ export function shellBlocksInto(x: Tri, y: Tri, a: PlaneStiffness, d: PlaneStiff
     for (let p = 0; p < 3; p++) {
       const L = MIDSIDE_POINTS[p];
       gradientsAt(L[0], L[1], L[2]);
-      strainRowsInto(rbx, 0, rby, 0);
+      strainRowsInto(rbx, rby, 0);
       addBtCBFast(bend, d, w3);
     }
     if (shear > 0) {
@@ -273,7 +273,7 @@ export function shellBlocksInto(x: Tri, y: Tri, a: PlaneStiffness, d: PlaneStiff
     for (let p = 0; p < 3; p++) {
       const L = MIDSIDE_POINTS[p];
       gradientsAt(L[0], L[1], L[2]);
-      strainRowsInto(t, 0, t, 54);
+      strainRowsInto(t, t, 54);
       addBtCBFast(mem, a, w3);
     }
     gradientsAt(1 / 3, 1 / 3, 1 / 3);

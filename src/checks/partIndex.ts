@@ -1,4 +1,5 @@
 import { windingNumber } from '../geometry/inside.js';
+import { boxesBBox } from '../geometry/loop.js';
 import { featureLabel, type Feature, type Part } from '../geometry/part.js';
 import { closestPoint, segmentBBox } from '../geometry/segment.js';
 import type { BBox, Loop, Segment, Vec2 } from '../geometry/types.js';
@@ -34,22 +35,15 @@ export function indexPart(part: Part): PartIndex {
   for (let index = 0; index <= part.features.length; index++) {
     const feature = index === 0 ? null : part.features[index - 1];
     const loop = feature ? feature.loop : part.outline;
-    firstSeg.push(segs.length);
-    // Each segment's box once; the contour's box is their union (what loopBBox computes).
-    let x0 = Infinity;
-    let y0 = Infinity;
-    let x1 = -Infinity;
-    let y1 = -Infinity;
+    const first = segs.length;
+    firstSeg.push(first);
     for (let seg = 0; seg < loop.length; seg++) {
       const box = segmentBBox(loop[seg]);
       segs.push({ contour: index, seg, s: loop[seg], box });
       segBoxes.push(box);
-      x0 = Math.min(x0, box[0]);
-      y0 = Math.min(y0, box[1]);
-      x1 = Math.max(x1, box[2]);
-      y1 = Math.max(y1, box[3]);
     }
-    const bbox: BBox = [x0, y0, x1, y1];
+    // The contour's box from its segments' boxes (what loopBBox computes, without boxing each segment twice).
+    const bbox = boxesBBox(segBoxes, first);
     contours.push({ index, loop, feature, bbox, label: contourLabel(feature) });
     contourBoxes.push(bbox);
   }

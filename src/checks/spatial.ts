@@ -1,3 +1,4 @@
+import { boxesBBox } from '../geometry/loop.js';
 import type { BBox } from '../geometry/types.js';
 
 /**
@@ -54,18 +55,10 @@ export function gridCellMm(boxes: readonly BBox[]): number {
   return cell > 0 && Number.isFinite(cell) ? cell : 1;
 }
 
-function extent(boxes: readonly BBox[]): [number, number, number, number] {
-  let x0 = Infinity;
-  let y0 = Infinity;
-  let x1 = -Infinity;
-  let y1 = -Infinity;
-  for (const b of boxes) {
-    if (b[0] < x0) x0 = b[0];
-    if (b[1] < y0) y0 = b[1];
-    if (b[2] > x1) x1 = b[2];
-    if (b[3] > y1) y1 = b[3];
-  }
-  return Number.isFinite(x0) ? [x0, y0, x1, y1] : [0, 0, 0, 0];
+/** The items' extent; an empty grid spans the origin. */
+function extent(boxes: readonly BBox[]): BBox {
+  const b = boxesBBox(boxes);
+  return Number.isFinite(b[0]) ? b : [0, 0, 0, 0];
 }
 
 /** Build a grid over the boxes (index = item id); cellMm defaults to `gridCellMm(boxes)`. */

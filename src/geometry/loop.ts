@@ -14,17 +14,20 @@ export function signedArea(loop: Loop): number {
 export const loopLength = (loop: Loop): number => loop.reduce((acc, s) => acc + lengthOf(s), 0);
 
 /** Exact bounding box of the loop, arc extremes included (mm). */
-export function loopBBox(loop: Loop): BBox {
+export const loopBBox = (loop: Loop): BBox => boxesBBox(loop.map(segmentBBox));
+
+/** Smallest box holding boxes[from] .. boxes[to - 1] ([∞, ∞, −∞, −∞] for none). */
+export function boxesBBox(boxes: readonly BBox[], from = 0, to = boxes.length): BBox {
   let x0 = Infinity;
   let y0 = Infinity;
   let x1 = -Infinity;
   let y1 = -Infinity;
-  for (const s of loop) {
-    const b = segmentBBox(s);
-    x0 = Math.min(x0, b[0]);
-    y0 = Math.min(y0, b[1]);
-    x1 = Math.max(x1, b[2]);
-    y1 = Math.max(y1, b[3]);
+  for (let i = from; i < to; i++) {
+    const b = boxes[i];
+    if (b[0] < x0) x0 = b[0];
+    if (b[1] < y0) y0 = b[1];
+    if (b[2] > x1) x1 = b[2];
+    if (b[3] > y1) y1 = b[3];
   }
   return [x0, y0, x1, y1];
 }

@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import { armModes, frameModes } from '../../src/analysis/index.js';
+import { ISO_4762_M3X8 } from '../helpers/screws.js';
 import { demoFrame } from './helpers.js';
 
-// One ISO 4762 M3 × 8 socket head cap screw of 7.9 g/cm³ steel, by hand: head dk 5.5 × k 3 less a
-// 2.5 mm hex socket 1.5 deep, shank of the pitch diameter d2 = 3 − 0.649519 × 0.5 (ISO 724), 8 long.
-const M3X8_G = ((Math.PI / 4) * 5.5 ** 2 * 3 - (Math.sqrt(3) / 2) * 2.5 ** 2 * 1.5 + (Math.PI / 4) * (3 - 0.649519 * 0.5) ** 2 * 8) * 7.9e-3;
+// One ISO 4762 M3 × 8 socket head cap screw of 7.9 g/cm³ steel, weighed by hand (test/helpers/screws.ts).
+const M3X8_G = ISO_4762_M3X8.massG;
 
 describe('an arm as built carries its motor and the screws that hold it', () => {
   const tessel = demoFrame('tessel-5.yaml');

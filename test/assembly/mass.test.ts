@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { ISO_4762_M3X8 } from '../helpers/screws.js';
 import {
   addBodies,
   centreOfMass,
@@ -147,15 +148,10 @@ describe('fastener mass per joint (BoltedJoint.hardwareMass)', () => {
     const a = buildAssembly(d, buildFrame(d));
     const j = a.joints.find((x) => x.id === 'motor front-right 1')!;
     expect([j.headStandard, j.screw, j.screwLengthMm, j.nut]).toEqual(['ISO 4762', 'M3', 8, null]);
-    // Head dk 5.5 × k 3 (ISO 4762) less a 2.5 mm hex socket half as deep; shank of the pitch
-    // diameter d2 = d − 0.649519 P (ISO 724), P 0.5.
-    const head = (Math.PI / 4) * 5.5 ** 2 * 3;
-    const socket = (Math.sqrt(3) / 2) * 2.5 ** 2 * 1.5;
-    const d2 = 3 - 0.649519 * 0.5;
-    const shank = (Math.PI / 4) * d2 ** 2 * 8;
-    const rho = 7.9e-3;
-    expect(j.hardwareMass.massG).toBeCloseTo((head - socket + shank) * rho, 3);
-    expect((head - socket + shank) * rho).toBeCloseTo(0.8542, 4);
+    // Weighed by hand from ISO 4762 and ISO 724 (test/helpers/screws.ts).
+    const { head, socket, shank, massG } = ISO_4762_M3X8;
+    expect(j.hardwareMass.massG).toBeCloseTo(massG, 3);
+    expect(massG).toBeCloseTo(0.8542, 4);
     // Centre along the axis from the head's bearing face: head at −1.5, socket at −2.25, shank at +4.
     const along = (head * -1.5 - socket * -2.25 + shank * 4) / (head - socket + shank);
     const c = centreOfMass(j.hardwareMass);
